@@ -1,0 +1,120 @@
+/**
+ * Plain-data types shared by every concern of hotfield.
+ *
+ * Conventions, everywhere in the library:
+ * - Slide coordinates are level-0 pixels, x to the right, y down.
+ * - Pixels are the unit inside the library; micrometres and mm² appear only at
+ *   the edges, converted in `units.ts` with the slide's micrometres per pixel
+ *   (x and y may differ).
+ * - Rings are closed (first position equals last), as in RFC 7946 §3.1.6.
+ *   Either winding is accepted on input; normalized rings have the outer
+ *   boundary with positive shoelace area in (x right, y down) coordinates and
+ *   holes negative.
+ *
+ * Everything here is plain data (arrays, typed arrays, objects) so that a
+ * case can be posted to a worker with `structuredClone` semantics.
+ *
+ * @module
+ */
+
+/** A position `[x, y]` in level-0 slide pixels. */
+export type Vec2 = [number, number];
+
+/** A closed ring of positions in pixels (first equals last). */
+export type Ring = Vec2[];
+
+/** A polygon: the outer ring first, then any holes. */
+export type PolygonPx = Ring[];
+
+/** A set of polygons (a region); polygons may touch but not overlap once normalized. */
+export type MultiPolygonPx = PolygonPx[];
+
+/** Axis-aligned bounding box in pixels: `[minX, minY, maxX, maxY]`. */
+export type BBoxPx = [number, number, number, number];
+
+/** Slide metadata, from the `slide` foreign member of the annotation file. */
+export interface SlideInfo {
+  /** Slide identifier as given in the file. */
+  id: string;
+  /** Micrometres per pixel along x. */
+  mppX: number;
+  /** Micrometres per pixel along y. */
+  mppY: number;
+  /** Level-0 width in pixels, when known. */
+  widthPx?: number;
+  /** Level-0 height in pixels, when known. */
+  heightPx?: number;
+}
+
+/**
+ * Figure points, one entry per point (a MultiPoint feature contributes one
+ * entry per position). Columnar so 250,000 points stay compact.
+ */
+export interface FigureSet {
+  /** x of each point, pixels. */
+  xPx: Float64Array;
+  /** y of each point, pixels. */
+  yPx: Float64Array;
+  /** Index into `labels` for each point. */
+  labelIndex: Uint32Array;
+  /** Distinct labels, in order of first appearance. */
+  labels: string[];
+  /** Detector or annotator score in [0, 1]; NaN where the input gave none. */
+  score: Float64Array;
+  /**
+   * Where each point came from, for messages: the feature index in the
+   * GeoJSON (0-based) or the CSV data line (1-based, header is line 1).
+   */
+  origin: Int32Array;
+}
+
+/** One region polygon as read, with where it came from. */
+export interface RegionPart {
+  /** The polygon(s) of this feature or mask, pixels. */
+  polygons: MultiPolygonPx;
+  /** Human-readable origin, e.g. `case01.geojson feature 3` or `mask.png`. */
+  source: string;
+  /** For `exclude` parts: the reason given (e.g. "necrosis"), if any. */
+  reason?: string;
+}
+
+/** A reader's chosen counting area (`role: "field"`). */
+export interface FieldSpec {
+  /** Reader name; "" when the file gave none. */
+  reader: string;
+  /** `point`: a standard window centred at `centerPx`; `polygon`: that area. */
+  kind: "point" | "polygon";
+  /** Centre in pixels (for a polygon, its area centroid). */
+  centerPx: Vec2;
+  /** The polygon, for `kind: "polygon"`. */
+  polygon?: PolygonPx;
+  /** Feature index in the source file (0-based). */
+  featureIndex: number;
+  /** Any other properties of the feature, kept for reports (e.g. `label`). */
+  properties?: Record<string, unknown>;
+}
+
+/** An input file of a case, for provenance in reports. */
+export interface CaseSource {
+  /** What the file provided. */
+  kind: "annotations" | "figures" | "tissue-mask" | "case";
+  /** Path as given (relative paths resolved against the working directory or case file). */
+  path: string;
+  /** Hex sha256 of the file bytes. */
+  sha256: string;
+}
+
+/** Everything hotfield read for one case, before any computation. */
+export interface CaseData {
+  /** Case id: `slide.id`, else the file stem, made safe for a folder name. */
+  caseId: string;
+  slide: SlideInfo;
+  tissue: RegionPart[];
+  tumour: RegionPart[];
+  exclude: RegionPart[];
+  figures: FigureSet;
+  fields: FieldSpec[];
+  sources: CaseSource[];
+  /** Recoverable problems found while reading (never printed by the library). */
+  warnings: string[];
+}
