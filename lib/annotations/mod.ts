@@ -1,0 +1,2 @@
+/** annotations concern barrel: re-exports only. @module */
+export {};

@@ -1,0 +1,125 @@
+/**
+ * Types of the count engine, shared with the standards, report and display
+ * modules. Plain data only, so a whole engine result can cross to a worker.
+ *
+ * The engine works in a micrometre plane: x_um = x_px · mppX, y_um = y_px · mppY
+ * (x right, y down). Reports convert centres back to level-0 pixels.
+ *
+ * @module
+ */
+
+import type { CaseData, FieldSpec, MultiPolygonPx, SlideInfo } from "../types.ts";
+import type { ReportJson } from "../report/report_types.ts";
+
+/** An axis-aligned rectangle window (W along slide x) of a given area. */
+export interface RectWindow {
+  shape: "rect";
+  areaMm2: number;
+  widthUm: number;
+  heightUm: number;
+  /** Aspect W:H as given. */
+  aspect: [number, number];
+}
+
+/** A circular window of a given area. */
+export interface CircleWindow {
+  shape: "circle";
+  areaMm2: number;
+  diameterUm: number;
+}
+
+/** A counting window. */
+export type WindowShape = RectWindow | CircleWindow;
+
+/** Figure tallies of a case (as in `hotfield inspect`). */
+export interface FigureTally {
+  /** All figure points of any label. */
+  total: number;
+  /** Counted label, score passes, inside the valid region. */
+  counted: number;
+  /** Counted label, score passes, outside the valid region. */
+  outside_valid: number;
+  /** Counted label, score below the minimum. */
+  below_score: number;
+  /** All figure points by label. */
+  by_label: Record<string, number>;
+}
+
+/**
+ * A case ready for counting: counted figures and the valid region in the
+ * micrometre plane, with everything needed to report back in pixels.
+ */
+export interface PreparedCase {
+  caseId: string;
+  slide: SlideInfo;
+  /** Valid region V in micrometres. */
+  validUm: MultiPolygonPx;
+  /** Valid region V in level-0 pixels (for outputs). */
+  validPx: MultiPolygonPx;
+  /** Area of V in mm². */
+  validAreaMm2: number;
+  /** Areas of union(tissue), union(tumour), union(exclude), mm² (0 when absent). */
+  areasMm2: { tissue: number; tumour: number; excluded: number; valid: number };
+  /** Counted figures (label counted, score passes, inside V), micrometres. */
+  xUm: Float64Array;
+  yUm: Float64Array;
+  tally: FigureTally;
+  fields: FieldSpec[];
+  /** Exclusion polygons in pixels, with reasons, for drawing. */
+  excludePx: { polygons: MultiPolygonPx; reason?: string }[];
+  minScore: number;
+  countLabels: string[];
+  warnings: string[];
+}
+
+/**
+ * The stride grid of window centres: centre (i, j) is at
+ * (x0Um + i·strideUm, y0Um + j·strideUm), i < nx, j < ny. Computed as
+ * origin + i × stride, never by repeated addition.
+ */
+export interface StrideGrid {
+  x0Um: number;
+  y0Um: number;
+  strideUm: number;
+  nx: number;
+  ny: number;
+}
+
+/** Window counts and coverage at every grid centre (row-major, index j·nx + i). */
+export interface CountMap {
+  grid: StrideGrid;
+  window: WindowShape;
+  /** Exact count of counted figures in the closed window at each centre. */
+  counts: Int32Array;
+  /** area(window ∩ V) / area(window) at each centre. */
+  coverage: Float32Array;
+  /** 1 where coverage ≥ minCoverage. */
+  admissible: Uint8Array;
+  minCoverage: number;
+  /** Number of admissible centres. */
+  positions: number;
+  /** Plain-words statement of the map's discretization error. */
+  discretization: string;
+}
+
+/** One placed window. */
+export interface Placement {
+  centerUm: [number, number];
+  centerPx: [number, number];
+  count: number;
+  coverage: number;
+  perMm2: number;
+}
+
+/** Everything the engine produced for one case: report.json plus what outputs draw. */
+export interface CaseResult {
+  report: ReportJson;
+  prepared: PreparedCase;
+  window: WindowShape;
+  map: CountMap;
+  hotspot: Placement | null;
+  top: Placement[];
+  bestFields: Placement[];
+  /** The case as read, for provenance (sources, fields). */
+  caseData: CaseData;
+}

@@ -1,0 +1,2 @@
+/** count concern barrel: re-exports only. @module */
+export {};

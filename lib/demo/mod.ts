@@ -1,0 +1,2 @@
+export { normal, seededRandom } from "./random.ts";
+export type { Random } from "./random.ts";

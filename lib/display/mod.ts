@@ -1,0 +1,2 @@
+/** display concern barrel: re-exports only. @module */
+export {};

@@ -1,0 +1,2 @@
+/** geometry concern barrel: re-exports only. @module */
+export {};

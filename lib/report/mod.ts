@@ -1,0 +1,2 @@
+/** report concern barrel: re-exports only. @module */
+export {};

@@ -1,0 +1,2 @@
+/** standards concern barrel: re-exports only. @module */
+export {};

@@ -1,0 +1,2 @@
+/** stats concern barrel: re-exports only. @module */
+export {};

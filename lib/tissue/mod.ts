@@ -1,0 +1,2 @@
+/** tissue concern barrel: re-exports only. @module */
+export {};
