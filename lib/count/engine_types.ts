@@ -120,6 +120,8 @@ export interface CaseResult {
   hotspot: Placement | null;
   top: Placement[];
   bestFields: Placement[];
+  /** The window of one of the best separate fields (null when not computed). */
+  bestFieldWindow: WindowShape | null;
   /** The case as read, for provenance (sources, fields). */
   caseData: CaseData;
 }

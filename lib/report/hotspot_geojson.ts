@@ -1,0 +1,119 @@
+/**
+ * The windows of a case result as a GeoJSON FeatureCollection in level-0
+ * pixels, so any viewer that reads GeoJSON can overlay them on the slide.
+ *
+ * @module
+ */
+
+import type { CaseResult, Placement, WindowShape } from "../count/engine_types.ts";
+import type { Ring } from "../types.ts";
+
+/** Vertices used to draw a circular window as a polygon. */
+const CIRCLE_VERTICES = 128;
+
+/**
+ * Outline of a window centred at `centerUm`, in pixels, as a closed ring.
+ * Circles become regular 128-gons (drawing only; counts use the true circle).
+ *
+ * @example A rectangle's ring
+ * ```ts
+ * import { windowRingPx } from "./hotspot_geojson.ts";
+ * const ring = windowRingPx(
+ *   { shape: "rect", areaMm2: 1, widthUm: 1000, heightUm: 1000, aspect: [1, 1] },
+ *   [500, 500],
+ *   { mppX: 0.5, mppY: 0.5 },
+ * );
+ * if (ring.length !== 5 || ring[0][0] !== 0 || ring[2][0] !== 2000) throw new Error();
+ * ```
+ */
+export function windowRingPx(
+  window: WindowShape,
+  centerUm: [number, number],
+  mpp: { mppX: number; mppY: number },
+): Ring {
+  const [cx, cy] = centerUm;
+  const ring: Ring = [];
+  if (window.shape === "rect") {
+    const hw = window.widthUm / 2, hh = window.heightUm / 2;
+    for (
+      const [x, y] of [[cx - hw, cy - hh], [cx + hw, cy - hh], [cx + hw, cy + hh], [
+        cx - hw,
+        cy + hh,
+      ]]
+    ) {
+      ring.push([x / mpp.mppX, y / mpp.mppY]);
+    }
+  } else {
+    const r = window.diameterUm / 2;
+    for (let k = 0; k < CIRCLE_VERTICES; k++) {
+      const t = (2 * Math.PI * k) / CIRCLE_VERTICES;
+      ring.push([(cx + r * Math.cos(t)) / mpp.mppX, (cy + r * Math.sin(t)) / mpp.mppY]);
+    }
+  }
+  ring.push([ring[0][0], ring[0][1]]);
+  return ring;
+}
+
+/**
+ * Builds the `hotspot.geojson` FeatureCollection of a case result: the
+ * hotspot (`properties.kind: "hotspot"`), the top-k windows (`"top"`) and the
+ * best set of separate fields (`"best-field"`), each with its count.
+ *
+ * @example An empty result gives an empty collection
+ * ```ts
+ * import { hotspotFeatureCollection } from "./hotspot_geojson.ts";
+ * const fc = hotspotFeatureCollection({
+ *   window: { shape: "circle", areaMm2: 1, diameterUm: 1128.4 },
+ *   hotspot: null, top: [], bestFields: [], bestFieldWindow: null,
+ *   caseId: "QVT-24-001", mpp: { mppX: 0.25, mppY: 0.25 },
+ * });
+ * if (fc.features.length !== 0) throw new Error();
+ * ```
+ */
+export function hotspotFeatureCollection(input: {
+  window: WindowShape;
+  hotspot: Placement | null;
+  top: Placement[];
+  bestFields: Placement[];
+  bestFieldWindow: WindowShape | null;
+  caseId: string;
+  mpp: { mppX: number; mppY: number };
+}): { type: "FeatureCollection"; features: unknown[]; [k: string]: unknown } {
+  const feature = (p: Placement, w: WindowShape, kind: string, rank: number) => ({
+    type: "Feature",
+    properties: {
+      kind,
+      rank,
+      count: p.count,
+      coverage: p.coverage,
+      per_mm2: p.perMm2,
+      center_px: p.centerPx,
+      shape: w.shape,
+      area_mm2: w.areaMm2,
+    },
+    geometry: { type: "Polygon", coordinates: [windowRingPx(w, p.centerUm, input.mpp)] },
+  });
+  const features: unknown[] = [];
+  if (input.hotspot) features.push(feature(input.hotspot, input.window, "hotspot", 1));
+  input.top.forEach((p, i) => features.push(feature(p, input.window, "top", i + 1)));
+  if (input.bestFieldWindow) {
+    const w = input.bestFieldWindow;
+    input.bestFields.forEach((p, i) => features.push(feature(p, w, "best-field", i + 1)));
+  }
+  return { type: "FeatureCollection", case: input.caseId, features };
+}
+
+/** Convenience: the collection for a whole {@linkcode CaseResult}. */
+export function caseHotspotGeoJson(
+  result: CaseResult,
+): ReturnType<typeof hotspotFeatureCollection> {
+  return hotspotFeatureCollection({
+    window: result.window,
+    hotspot: result.hotspot,
+    top: result.top,
+    bestFields: result.bestFields,
+    bestFieldWindow: result.bestFieldWindow,
+    caseId: result.prepared.caseId,
+    mpp: result.prepared.slide,
+  });
+}
