@@ -1,0 +1,73 @@
+/**
+ * Counting uncertainty of a hotspot count: exact Poisson limits, the per-mm²
+ * interval and the chance a recount falls on the other side of a cut-off.
+ *
+ * @module
+ */
+
+import type { ReportUncertainty } from "../report/report_types.ts";
+import { garwoodInterval, pOtherSide } from "../stats/garwood.ts";
+
+/** Options of {@linkcode countUncertainty}. */
+export interface CountUncertaintyOptions {
+  /** Least whole window count meeting the cut-off; omit for no cut-off (`p_other_side` null). */
+  minCount?: number;
+  /** Scan-test p-value, when one was computed. @default null */
+  scanP?: number | null;
+  /** Simulations behind `scanP`. @default 0 */
+  simulations?: number;
+  /** Seed of the simulations. */
+  seed?: number;
+}
+
+/**
+ * Builds the report's `uncertainty` block for a window count.
+ *
+ * `count_ci95` is the exact Poisson 95% interval (Garwood 1936);
+ * `per_mm2_ci95` is that interval divided by the window area; `p_other_side`
+ * is {@linkcode pOtherSide} against `minCount`.
+ *
+ * @param count Observed window count (whole, ≥ 0).
+ * @param windowAreaMm2 Window area, mm² (> 0).
+ * @param options Cut-off and scan-test results.
+ * @returns The `uncertainty` block.
+ *
+ * @example 7 figures in 2.37 mm²
+ * ```ts
+ * import { countUncertainty } from "./uncertainty.ts";
+ * const u = countUncertainty(7, 2.37);
+ * if (Math.abs(u.per_mm2_ci95[0] - 1.1875) > 1e-4) throw new Error();
+ * ```
+ */
+export function countUncertainty(
+  count: number,
+  windowAreaMm2: number,
+  options: CountUncertaintyOptions = {},
+): ReportUncertainty {
+  if (!(windowAreaMm2 > 0) || !Number.isFinite(windowAreaMm2)) {
+    throw new RangeError(`Window area must be a number > 0 mm²: got ${windowAreaMm2}`);
+  }
+  const [lo, hi] = garwoodInterval(count, 0.95);
+  const u: ReportUncertainty = {
+    count_ci95: [lo, hi],
+    per_mm2_ci95: [lo / windowAreaMm2, hi / windowAreaMm2],
+    p_other_side: options.minCount === undefined ? null : pOtherSide(count, options.minCount),
+    scan_p: options.scanP ?? null,
+    simulations: options.simulations ?? 0,
+    count,
+    per_mm2: count / windowAreaMm2,
+    method: {
+      count_ci95: "exact two-sided Poisson interval (Garwood 1936): lo = χ²(0.025; 2x)/2, " +
+        "hi = χ²(0.975; 2x+2)/2, lo = 0 for x = 0",
+      per_mm2_ci95: "count_ci95 divided by the window area",
+      p_other_side: "Y ~ Poisson(mean = observed count), k = least whole window count meeting " +
+        "the cut-off: P(Y < k) when the count meets it, else P(Y ≥ k)",
+      scan_p: "Monte Carlo test of the maximum admissible window count on the fixed-size " +
+        "window grid, under a uniform rate over the valid region with the same total " +
+        "(a form of the spatial scan statistic, Kulldorff 1997): p = (1 + #sims ≥ observed) / " +
+        "(1 + sims)",
+    },
+  };
+  if (options.seed !== undefined) u.seed = options.seed;
+  return u;
+}
