@@ -35,37 +35,42 @@ export function figurePositionWarnings(
   const seen = new Map<string, number>();
   let dupCount = 0;
   const dups: number[] = [];
+  const more = new Set<number[]>();
+  const note = (os: number[], o: number) => {
+    if (os.includes(o)) return;
+    if (os.length < SHOW) os.push(o);
+    else more.add(os);
+  };
   for (let i = 0; i < n; i++) {
     const x = figures.xPx[i];
     const y = figures.yPx[i];
     const o = figures.origin[i];
     if (x < 0 || y < 0) {
       negativeCount++;
-      if (negative.length < SHOW && !negative.includes(o)) negative.push(o);
+      note(negative, o);
     } else if ((w !== undefined && x > w) || (h !== undefined && y > h)) {
       outsideCount++;
-      if (outside.length < SHOW && !outside.includes(o)) outside.push(o);
+      note(outside, o);
     }
     const key = `${x},${y}`;
     if (seen.has(key)) {
       dupCount++;
-      if (dups.length < SHOW && !dups.includes(o)) dups.push(o);
+      note(dups, o);
     } else seen.set(key, o);
   }
-  const list = (os: number[], count: number) =>
-    `${originName}s ${os.join(", ")}${count > os.length ? ", ..." : ""}`;
+  const list = (os: number[]) => `${originName}s ${os.join(", ")}${more.has(os) ? ", ..." : ""}`;
   if (negativeCount > 0) {
     warnings.push(
       `${source}: ${negativeCount} figure point${
         negativeCount === 1 ? " has" : "s have"
-      } negative coordinates, left of or above the slide (${list(negative, negativeCount)})`,
+      } negative coordinates, left of or above the slide (${list(negative)})`,
     );
   }
   if (outsideCount > 0) {
     warnings.push(
       `${source}: ${outsideCount} figure point${
         outsideCount === 1 ? " lies" : "s lie"
-      } beyond the slide's ${w ?? "?"} × ${h ?? "?"} px (${list(outside, outsideCount)})`,
+      } beyond the slide's ${w ?? "?"} × ${h ?? "?"} px (${list(outside)})`,
     );
   }
   if (dupCount > 0) {
@@ -73,7 +78,7 @@ export function figurePositionWarnings(
       `${source}: ${dupCount} figure point${
         dupCount === 1 ? " repeats" : "s repeat"
       } the exact position of an earlier one (${
-        list(dups, dupCount)
+        list(dups)
       }); each is counted, check for figures marked twice`,
     );
   }
