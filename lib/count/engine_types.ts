@@ -100,6 +100,11 @@ export interface CountMap {
   positions: number;
   /** Plain-words statement of the map's discretization error. */
   discretization: string;
+  /**
+   * Bound on |coverage − true coverage| at any centre (fraction of the window
+   * area): 0 for rectangles (exact up to rounding), the raster bound for circles.
+   */
+  coverageError?: number;
 }
 
 /** One placed window. */

@@ -1,0 +1,88 @@
+/**
+ * The exact hotspot: the admissible window placement with the most figures.
+ *
+ * @module
+ */
+
+import type { CountMap, Placement, PreparedCase } from "./engine_types.ts";
+import { type AreaIndex, createSearch, searchBest } from "./_hotspot_search.ts";
+
+/** Options of {@linkcode findHotspot}. */
+export interface FindHotspotOptions {
+  /** Exact area index of V in µm (from `createOverlapIndex(prepared.validUm)`), to reuse. */
+  overlap?: AreaIndex;
+}
+
+/**
+ * Finds the hotspot: the placement of the map's window, anywhere in the
+ * continuous plane (not only on the grid), with the greatest count among
+ * placements whose coverage area(window ∩ V)/area(window) is at least the
+ * map's `minCoverage`.
+ *
+ * **Method.** The count is piecewise constant over centre space. With closed
+ * windows, the set of centres whose window holds a given set of figures is
+ * closed, and its maximum is reached at one of its vertices, where window
+ * edges touch figures: for rectangles centres (f.x ± W/2, g.y ± H/2) over
+ * figures f, g; for circles centres with two figures on the rim (the
+ * intersections of radius-r circles about figures within 2r) and, as
+ * fallback, one figure on the rim. Every admissible grid centre is a
+ * candidate as well, so the hotspot is never below the best grid placement.
+ * Search is branch and bound over the stride cells around grid centres: the
+ * windows centred in one cell all lie inside the window enlarged by one
+ * stride (rect (W+s)×(H+s), circle radius r + s·√2/2), so its grid count
+ * bounds the cell's counts, and its area bounds the cell's coverage. Cells
+ * are visited by descending bound and the search stops when the bound is not
+ * above the best count found. Each candidate is counted exactly with the
+ * window test (`windowContains`); its coverage is computed exactly
+ * (`createOverlapIndex`) only when it could beat the best.
+ *
+ * **What "exact" means.** The result is the global maximum count over all
+ * admissible placements that are vertices of the figure arrangement or grid
+ * centres. Every maximal set of figures a closed window can hold is held at
+ * such a vertex, so the count is the true maximum whenever the best set's
+ * vertex is admissible. Limitation: when the coverage limit cuts through a
+ * cell of the arrangement so that none of its vertices (and no grid centre
+ * in it) is admissible, that cell's count is missed; the hotspot is then
+ * still the best of all admissible vertices and grid centres. Floating-point
+ * vertices are nudged by ulps so the figures that define them test inside;
+ * the reported count is always the exact count of the reported window.
+ *
+ * **Tie-break** (deterministic): higher count, then higher coverage (rounded
+ * to 1e-9), then smaller y, then smaller x, among the candidates examined
+ * (cells are visited by bound, then row-major; the search stops at the first
+ * cell whose bound equals the best count, so equal-count placements in
+ * cells not visited are not compared).
+ *
+ * Centres are returned in µm and level-0 pixels; `perMm2` is count ÷ the
+ * window area in mm².
+ *
+ * @param prepared The prepared case.
+ * @param map The count map of the window (its stride sets the search cells).
+ * @param options An overlap index to reuse.
+ * @returns The hotspot, or null when no placement is admissible.
+ *
+ * @example Three figures, the best 1 × 1 mm window holds two
+ * ```ts
+ * import { findHotspot } from "./find_hotspot.ts";
+ * import { computeCountMap } from "./compute_count_map.ts";
+ * import { makeWindow } from "./make_window.ts";
+ * const sq = [[[0, 0], [5000, 0], [5000, 5000], [0, 5000], [0, 0]]] as [number, number][][];
+ * const prepared = {
+ *   validUm: [sq], slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
+ *   xUm: new Float64Array([1000, 1990, 4000]), yUm: new Float64Array([1000, 1990, 1000]),
+ * };
+ * const w = makeWindow({ areaMm2: 1, aspect: [1, 1] });
+ * // deno-lint-ignore no-explicit-any
+ * const map = computeCountMap(prepared as any, w, { strideUm: 250 });
+ * // deno-lint-ignore no-explicit-any
+ * const h = findHotspot(prepared as any, map);
+ * if (!h || h.count !== 2 || h.coverage !== 1) throw new Error(JSON.stringify(h));
+ * ```
+ */
+export function findHotspot(
+  prepared: Pick<PreparedCase, "xUm" | "yUm" | "slide" | "validUm">,
+  map: CountMap,
+  options: FindHotspotOptions = {},
+): Placement | null {
+  return searchBest(createSearch(prepared, map, options.overlap));
+}

@@ -1,0 +1,101 @@
+/**
+ * From a case as read to a case ready for counting.
+ *
+ * @module
+ */
+
+import type { CaseData } from "../types.ts";
+import type { PreparedCase } from "./engine_types.ts";
+import { px2ToMm2 } from "../units.ts";
+import { buildValidRegion, createRegionIndex, scaleRegion } from "./_geometry.ts";
+import { tallyFigures } from "./tally_figures.ts";
+
+/** Options of {@linkcode prepareCase}. */
+export interface PrepareCaseOptions {
+  /** Figures with a score below this are not counted (figures without a score pass). @default 0 */
+  minScore?: number;
+  /** Figure labels that are counted. @default ["mitotic figure"] */
+  countLabels?: string[];
+}
+
+/** Label given to figures without one (as the annotation reader does). */
+export const DEFAULT_COUNT_LABELS: readonly string[] = ["mitotic figure"];
+
+/**
+ * Prepares a case for counting.
+ *
+ * Builds the valid region V = (tissue ∩ tumour, when given) − exclusions,
+ * tallies the figures (counted label, score ≥ `minScore`, inside V — a
+ * figure on V's boundary is inside) and converts V and the counted figures to
+ * the micrometre plane (x·mppX, y·mppY), where windows are defined and
+ * circles stay circles when mpp x ≠ mpp y.
+ *
+ * @param caseData The case as read.
+ * @param options Score threshold and counted labels.
+ * @returns The prepared case.
+ *
+ * @example One counted figure in a 1 × 1 mm tissue square at 0.5 µm/px
+ * ```ts
+ * import { prepareCase } from "./prepare_case.ts";
+ * const sq = [[[0, 0], [2000, 0], [2000, 2000], [0, 2000], [0, 0]]] as [number, number][][];
+ * const p = prepareCase({
+ *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
+ *   tissue: [{ polygons: [sq], source: "example" }], tumour: [], exclude: [],
+ *   figures: {
+ *     xPx: new Float64Array([1000, 3000]), yPx: new Float64Array([1000, 10]),
+ *     labelIndex: new Uint32Array([0, 0]), labels: ["mitotic figure"],
+ *     score: new Float64Array([NaN, NaN]), origin: new Int32Array([1, 2]),
+ *   },
+ *   fields: [], sources: [], warnings: [],
+ * }, {});
+ * if (p.xUm.length !== 1 || p.xUm[0] !== 500 || Math.abs(p.validAreaMm2 - 1) > 1e-12) throw new Error();
+ * if (p.tally.outside_valid !== 1) throw new Error();
+ * ```
+ */
+export function prepareCase(caseData: CaseData, options: PrepareCaseOptions = {}): PreparedCase {
+  const minScore = options.minScore ?? 0;
+  const countLabels = options.countLabels && options.countLabels.length > 0
+    ? [...options.countLabels]
+    : [...DEFAULT_COUNT_LABELS];
+  const { slide, figures } = caseData;
+  const mpp = { mppX: slide.mppX, mppY: slide.mppY };
+  const valid = buildValidRegion({
+    tissue: caseData.tissue,
+    tumour: caseData.tumour,
+    exclude: caseData.exclude,
+  });
+  const index = createRegionIndex(valid.region);
+  const inside = index.containsPoints(figures.xPx, figures.yPx);
+  const { tally, counted } = tallyFigures(figures, inside, { minScore, countLabels });
+  let n = 0;
+  for (let k = 0; k < counted.length; k++) if (counted[k]) n++;
+  const xUm = new Float64Array(n), yUm = new Float64Array(n);
+  for (let k = 0, m = 0; k < counted.length; k++) {
+    if (!counted[k]) continue;
+    xUm[m] = figures.xPx[k] * mpp.mppX;
+    yUm[m] = figures.yPx[k] * mpp.mppY;
+    m++;
+  }
+  const validAreaMm2 = px2ToMm2(valid.validAreaPx2, mpp);
+  return {
+    caseId: caseData.caseId,
+    slide,
+    validUm: scaleRegion(valid.region, mpp.mppX, mpp.mppY),
+    validPx: valid.region,
+    validAreaMm2,
+    areasMm2: {
+      tissue: px2ToMm2(valid.tissueAreaPx2, mpp),
+      tumour: px2ToMm2(valid.tumourAreaPx2, mpp),
+      excluded: px2ToMm2(valid.excludedAreaPx2, mpp),
+      valid: validAreaMm2,
+    },
+    xUm,
+    yUm,
+    tally,
+    fields: caseData.fields,
+    excludePx: caseData.exclude.map((p) => ({ polygons: p.polygons, reason: p.reason })),
+    minScore,
+    countLabels,
+    warnings: [...caseData.warnings, ...valid.warnings],
+  };
+}
