@@ -1,0 +1,246 @@
+/**
+ * Exact area of a region in every cell of a rectilinear grid.
+ *
+ * @module
+ */
+
+import type { MultiPolygonPx } from "../types.ts";
+import { flattenEdges } from "./_edges.ts";
+
+/**
+ * Grid positions `start + i·step` for i = 0 … n − 1, each computed directly
+ * (never by repeated addition, so rounding does not accumulate).
+ *
+ * @param start First value.
+ * @param step Distance between values.
+ * @param n Number of values.
+ * @returns The positions.
+ *
+ * @example Eleven edges for ten cells of width 0.1
+ * ```ts
+ * import { uniformEdges } from "./raster_coverage.ts";
+ * const e = uniformEdges(0, 0.1, 11);
+ * if (e.length !== 11 || e[10] !== 1 || e[3] !== 0.30000000000000004) throw new Error(String(e[3]));
+ * ```
+ */
+export function uniformEdges(start: number, step: number, n: number): Float64Array {
+  const out = new Float64Array(Math.max(0, n));
+  for (let i = 0; i < out.length; i++) out[i] = start + i * step;
+  return out;
+}
+
+/** Largest c in [0, n−1] with e[c] <= v (e strictly increasing, v within [e[0], e[n]]). */
+function locate(e: Float64Array, n: number, v: number, step: number): number {
+  let c = Math.floor((v - e[0]) / step);
+  if (c < 0) c = 0;
+  else if (c > n - 1) c = n - 1;
+  if (e[c] <= v && (c === n - 1 || v < e[c + 1])) return c;
+  // non-uniform spacing: binary search
+  let lo = 0, hi = n - 1;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (e[mid] <= v) lo = mid;
+    else hi = mid - 1;
+  }
+  return lo;
+}
+
+function checkEdges(e: Float64Array, name: string): void {
+  if (e.length < 2) {
+    throw new RangeError(
+      `Cannot rasterize a region: ${name} needs at least 2 values, got ${e.length}`,
+    );
+  }
+  for (let i = 1; i < e.length; i++) {
+    if (!(e[i] > e[i - 1])) {
+      throw new RangeError(
+        `Cannot rasterize a region: ${name} must be strictly increasing, but value ${i} is ${
+          e[i]
+        } after ${e[i - 1]}`,
+      );
+    }
+  }
+}
+
+/**
+ * Exact area of region ∩ cell for every cell of a grid.
+ *
+ * Cell (i, j) is `[xEdges[i], xEdges[i + 1]] × [yEdges[j], yEdges[j + 1]]`;
+ * the result is row-major, index `j·nx + i` with `nx = xEdges.length − 1`.
+ * The edges must increase strictly but need not be uniform. Parts of the
+ * region outside the grid are ignored.
+ *
+ * Method: signed-area accumulation per row band, as in scanline font
+ * rasterizers. With outer rings positive (shoelace) and holes negative, the
+ * area of the region in a cell is −Σ over edges of
+ * ∫ clamp(x₁ − x(y), 0, w) dy, x₁ the cell's right side and w its width. Each
+ * edge is cut at row and column lines; a piece inside a cell adds its
+ * trapezoid to that cell and its signed height to every cell to its right
+ * (pieces left of the grid pass their height to the whole row); a prefix sum
+ * along each row finishes it. Exact up to rounding, O(cells + edge pieces).
+ * Overlapping polygons would be counted twice: pass a normalized region.
+ *
+ * @param region Normalized, non-overlapping polygons (either winding).
+ * @param xEdges Column boundaries, strictly increasing.
+ * @param yEdges Row boundaries, strictly increasing.
+ * @returns Area per cell, in the coordinate unit squared.
+ * @throws {RangeError} When an edge list has fewer than 2 values or does not increase.
+ *
+ * @example A 3 × 2 square over a 2 × 2 grid of unit cells
+ * ```ts
+ * import { rasterizeArea } from "./raster_coverage.ts";
+ * const sq: [number, number][] = [[0.5, 0], [3.5, 0], [3.5, 2], [0.5, 2], [0.5, 0]];
+ * const a = rasterizeArea([[sq]], new Float64Array([0, 1, 2]), new Float64Array([0, 1, 2]));
+ * if (a.join() !== "0.5,1,0.5,1") throw new Error(a.join());
+ * ```
+ */
+export function rasterizeArea(
+  region: MultiPolygonPx,
+  xEdges: Float64Array,
+  yEdges: Float64Array,
+): Float64Array {
+  checkEdges(xEdges, "xEdges");
+  checkEdges(yEdges, "yEdges");
+  const nx = xEdges.length - 1, ny = yEdges.length - 1;
+  const area = new Float64Array(nx * ny);
+  const cover = new Float64Array(nx * ny);
+  const leftCover = new Float64Array(ny);
+  const X0 = xEdges[0], XN = xEdges[nx], Y0 = yEdges[0], YN = yEdges[ny];
+  const xStep = (XN - X0) / nx, yStep = (YN - Y0) / ny;
+  const e = flattenEdges(region);
+
+  // one piece inside row j, from (xa, ya) to (xb, yb), carrying signed height h
+  const rowPiece = (j: number, xa: number, ya: number, xb: number, yb: number, h: number) => {
+    const base = j * nx;
+    // the part left of the grid
+    if (xa <= X0 && xb <= X0) {
+      leftCover[j] -= h;
+      return;
+    }
+    if (xa >= XN && xb >= XN) return;
+    // clip to [X0, XN] and put the left remainder into leftCover
+    if (xa < X0 || xb < X0) {
+      const dyTotal = yb - ya;
+      const yc = ya + (X0 - xa) / (xb - xa) * dyTotal;
+      if (xa < X0) {
+        leftCover[j] -= h * (yc - ya) / dyTotal;
+        h *= (yb - yc) / dyTotal;
+        ya = yc;
+        xa = X0;
+      } else {
+        leftCover[j] -= h * (yb - yc) / dyTotal;
+        h *= (yc - ya) / dyTotal;
+        yb = yc;
+        xb = X0;
+      }
+    }
+    if (xa > XN || xb > XN) {
+      const d = yb - ya;
+      const yc = ya + (XN - xa) / (xb - xa) * d;
+      if (xa > XN) {
+        h *= (yb - yc) / d;
+        ya = yc;
+        xa = XN;
+      } else {
+        h *= (yc - ya) / d;
+        yb = yc;
+        xb = XN;
+      }
+    }
+    const dy = yb - ya;
+    if (dy === 0 || h === 0) return;
+    const hPerY = h / dy;
+    if (xa === xb) {
+      const c = locate(xEdges, nx, xa, xStep);
+      area[base + c] -= h * (xEdges[c + 1] - xa);
+      cover[base + c] -= h;
+      return;
+    }
+    if (xb > xa) {
+      let c = locate(xEdges, nx, xa, xStep);
+      let px = xa, py = ya;
+      for (;;) {
+        const right = xEdges[c + 1];
+        if (xb <= right || c === nx - 1) {
+          const hp = hPerY * (yb - py);
+          area[base + c] -= hp * (right - (px + xb) / 2);
+          cover[base + c] -= hp;
+          break;
+        }
+        const y = ya + (right - xa) / (xb - xa) * dy;
+        const hp = hPerY * (y - py);
+        area[base + c] -= hp * (right - (px + right) / 2);
+        cover[base + c] -= hp;
+        px = right;
+        py = y;
+        c++;
+      }
+    } else {
+      let c = locate(xEdges, nx, xa, xStep);
+      if (c > 0 && xEdges[c] === xa) c--;
+      let px = xa, py = ya;
+      for (;;) {
+        const left = xEdges[c];
+        const right = xEdges[c + 1];
+        if (xb >= left || c === 0) {
+          const hp = hPerY * (yb - py);
+          area[base + c] -= hp * (right - (px + xb) / 2);
+          cover[base + c] -= hp;
+          break;
+        }
+        const y = ya + (left - xa) / (xb - xa) * dy;
+        const hp = hPerY * (y - py);
+        area[base + c] -= hp * (right - (px + left) / 2);
+        cover[base + c] -= hp;
+        px = left;
+        py = y;
+        c--;
+      }
+    }
+  };
+
+  const { x0, y0, x1, y1 } = e;
+  for (let k = 0; k < e.count; k++) {
+    let ax = x0[k], ay = y0[k], bx = x1[k], by = y1[k];
+    if (ay === by) continue;
+    let sign = 1;
+    if (ay > by) {
+      // walk downwards in y; the sign keeps the edge's direction
+      let t = ax;
+      ax = bx;
+      bx = t;
+      t = ay;
+      ay = by;
+      by = t;
+      sign = -1;
+    }
+    if (by <= Y0 || ay >= YN) continue;
+    const slope = (bx - ax) / (by - ay);
+    const ys = ay < Y0 ? Y0 : ay, ye = by > YN ? YN : by;
+    let j = locate(yEdges, ny, ys, yStep);
+    let py = ys, px = ys === ay ? ax : ax + (ys - ay) * slope;
+    for (;;) {
+      const rowTop = yEdges[j + 1];
+      if (ye <= rowTop || j === ny - 1) {
+        const qx = ye === by ? bx : ax + (ye - ay) * slope;
+        rowPiece(j, px, py, qx, ye, sign * (ye - py));
+        break;
+      }
+      const qx = ax + (rowTop - ay) * slope;
+      rowPiece(j, px, py, qx, rowTop, sign * (rowTop - py));
+      px = qx;
+      py = rowTop;
+      j++;
+    }
+  }
+  const out = new Float64Array(nx * ny);
+  for (let j = 0; j < ny; j++) {
+    let run = leftCover[j];
+    const base = j * nx;
+    for (let i = 0; i < nx; i++) {
+      out[base + i] = area[base + i] + run * (xEdges[i + 1] - xEdges[i]);
+      run += cover[base + i];
+    }
+  }
+  return out;
+}
