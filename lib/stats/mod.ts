@@ -1,2 +1,5 @@
 /** stats concern barrel: re-exports only. @module */
-export {};
+export * from "./quantiles.ts";
+export * from "./garwood.ts";
+export * from "./chi_square.ts";
+export * from "./scan_test.ts";
