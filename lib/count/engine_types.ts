@@ -130,3 +130,58 @@ export interface CaseResult {
   /** The case as read, for provenance (sources, fields). */
   caseData: CaseData;
 }
+
+/** One reader's field checked against the count map (see `checkFields`). */
+export interface FieldCheck {
+  reader: string;
+  kind: "point" | "polygon";
+  centerPx: [number, number];
+  centerUm: [number, number];
+  /** Exact count of counted figures in the field (standard window or polygon). */
+  count: number;
+  /** area(field ∩ V) / area(field). */
+  coverage: number;
+  /** Mid-rank percentile among admissible grid positions; null without positions. */
+  percentile: number | null;
+  /** Hotspot count − count; null without a hotspot. */
+  shortfall: number | null;
+  /** Field area, mm². */
+  areaMm2: number;
+  /** count × window area / polygon area, for polygons more than 5% off the window area. */
+  countScaledToWindow: number | null;
+  featureIndex: number;
+  /** Problems with this field, in words. */
+  warnings: string[];
+}
+
+/** Options of `buildCaseResult` (what `hotfield report` passes). */
+export interface ReportOptions {
+  /** Window area, mm². @default 2.37 */
+  areaMm2?: number;
+  /** @default "rect" */
+  shape?: "rect" | "circle";
+  /** @default [4, 3] */
+  aspect?: [number, number];
+  /** @default 25 */
+  strideUm?: number;
+  /** @default 0.95 */
+  minCoverage?: number;
+  /** @default 0 */
+  minScore?: number;
+  /** @default ["mitotic figure"] */
+  countLabels?: string[];
+  /** Separate top windows to report. @default 3 */
+  top?: number;
+  /** Number of single fields in the best field set (0 skips it). @default 10 */
+  bestN?: number;
+  /** Single-field area, mm². @default 0.2376 */
+  fieldAreaMm2?: number;
+  /** Grading scheme id; none when absent. */
+  scheme?: string;
+  /** Monte Carlo simulations for the scheme's uncertainty. */
+  simulations?: number;
+  /** Seed of the simulations. */
+  seed?: number;
+  /** Grid size limit (cells). @default 25_000_000 */
+  maxGridCells?: number;
+}

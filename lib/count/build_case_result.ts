@@ -1,0 +1,284 @@
+/**
+ * The report pipeline for one case.
+ *
+ * @module
+ */
+
+import type { CaseData } from "../types.ts";
+import type { CaseResult, Placement, ReportOptions, WindowShape } from "./engine_types.ts";
+import {
+  REPORT_SCHEMA,
+  type ReportJson,
+  type ReportPlacement,
+  type ReportWindow,
+} from "../report/report_types.ts";
+import { HOTFIELD_VERSION } from "../version.ts";
+import { makeWindow } from "./make_window.ts";
+import { prepareCase } from "./prepare_case.ts";
+import { computeCountMap, DEFAULT_MIN_COVERAGE, DEFAULT_STRIDE_UM } from "./compute_count_map.ts";
+import { createSearch, searchBest } from "./_hotspot_search.ts";
+import type { AreaIndex } from "./_hotspot_search.ts";
+import { findBestFieldSet } from "./find_best_field_set.ts";
+import { summarizeDistribution } from "./summarize_distribution.ts";
+import { checkFields } from "./check_fields.ts";
+import { createOverlapIndex } from "./_geometry.ts";
+import { applyStandards } from "../standards/apply_standards.ts";
+
+/** Rounds to d decimals (stable text in report.json). */
+export function roundTo(v: number, d: number): number {
+  const f = 10 ** d;
+  const r = Math.round(v * f) / f;
+  return Object.is(r, -0) ? 0 : r;
+}
+
+/** A window as report.json gives it (µm to 0.01). */
+export function reportWindow(w: WindowShape): ReportWindow {
+  return w.shape === "rect"
+    ? {
+      shape: "rect",
+      area_mm2: w.areaMm2,
+      width_um: roundTo(w.widthUm, 2),
+      height_um: roundTo(w.heightUm, 2),
+      aspect: w.aspect,
+    }
+    : { shape: "circle", area_mm2: w.areaMm2, diameter_um: roundTo(w.diameterUm, 2) };
+}
+
+/** A placement as report.json gives it: centres to 0.01, coverage to 6 decimals, per mm² to 4. */
+export function reportPlacement(p: Placement, rank?: number): ReportPlacement {
+  const out: ReportPlacement = {
+    center_px: [roundTo(p.centerPx[0], 2), roundTo(p.centerPx[1], 2)],
+    count: p.count,
+    coverage: roundTo(p.coverage, 6),
+    per_mm2: roundTo(p.perMm2, 4),
+    center_um: [roundTo(p.centerUm[0], 2), roundTo(p.centerUm[1], 2)],
+  };
+  if (rank !== undefined) out.rank = rank;
+  return out;
+}
+
+/**
+ * Runs the whole engine on one case: prepare, count map, exact hotspot,
+ * top-k, best field set, distribution, field check and (with `scheme`) the
+ * classification, producing `report.json` (schema `hotfield.report/1`) and
+ * everything the outputs draw.
+ *
+ * When no placement is admissible the hotspot is null and a warning says why
+ * (valid area smaller than the window, or the best coverage on the grid
+ * below the minimum). Numbers in the report are rounded for stable text:
+ * coverage to 6 decimals, µm and px to 0.01, per mm² and means to 4.
+ *
+ * @param caseData The case as read.
+ * @param options Window, grid, figure and report options.
+ * @returns The result.
+ * @throws RangeError for options out of range (window, stride, coverage,
+ *   grid size) or an unknown scheme id.
+ *
+ * @example A 3 × 3 mm tissue square with a few figures
+ * ```ts
+ * import { buildCaseResult } from "./build_case_result.ts";
+ * const sq = [[[0, 0], [6000, 0], [6000, 6000], [0, 6000], [0, 0]]] as [number, number][][];
+ * const r = buildCaseResult({
+ *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
+ *   tissue: [{ polygons: [sq], source: "example" }], tumour: [], exclude: [],
+ *   figures: {
+ *     xPx: new Float64Array([3000, 3100, 500]), yPx: new Float64Array([3000, 3050, 500]),
+ *     labelIndex: new Uint32Array(3), labels: ["mitotic figure"],
+ *     score: new Float64Array(3).fill(NaN), origin: new Int32Array([0, 1, 2]),
+ *   },
+ *   fields: [], sources: [], warnings: [],
+ * }, { strideUm: 50, bestN: 2 });
+ * if (r.report.hotspot?.count !== 3 || r.report.schema !== "hotfield.report/1") {
+ *   throw new Error(JSON.stringify(r.report.hotspot));
+ * }
+ * ```
+ */
+export function buildCaseResult(caseData: CaseData, options: ReportOptions = {}): CaseResult {
+  const window = makeWindow({
+    areaMm2: options.areaMm2,
+    shape: options.shape,
+    aspect: options.aspect,
+  });
+  const strideUm = options.strideUm ?? DEFAULT_STRIDE_UM;
+  const minCoverage = options.minCoverage ?? DEFAULT_MIN_COVERAGE;
+  const topK = options.top ?? 3;
+  const bestN = options.bestN ?? 10;
+  const prepared = prepareCase(caseData, {
+    minScore: options.minScore,
+    countLabels: options.countLabels,
+  });
+  const warnings = [...prepared.warnings];
+  const map = computeCountMap(prepared, window, {
+    strideUm,
+    minCoverage,
+    maxGridCells: options.maxGridCells,
+  });
+  const overlap = createOverlapIndex(prepared.validUm) as AreaIndex;
+  const search = createSearch(prepared, map, overlap);
+  const top: Placement[] = [];
+  let hotspot: Placement | null = searchBest(search, top);
+  if (hotspot) {
+    top.push(hotspot);
+    while (top.length < topK) {
+      const p = searchBest(search, top);
+      if (!p) break;
+      top.push(p);
+    }
+  } else {
+    warnings.push(noPlacementWhy(prepared.validAreaMm2, window, map.coverage, minCoverage));
+  }
+  if (topK === 0) top.length = 0;
+  if (hotspot && topK > 0 && top.length < topK) {
+    warnings.push(
+      `Only ${top.length} separate admissible window${top.length === 1 ? "" : "s"} fit, ` +
+        `fewer than the ${topK} asked for`,
+    );
+  }
+  const best = bestN > 0
+    ? findBestFieldSet(prepared, {
+      n: bestN,
+      fieldAreaMm2: options.fieldAreaMm2,
+      shape: "circle",
+      strideUm,
+      minCoverage,
+      overlap,
+    })
+    : null;
+  if (best && best.fields.length < bestN) {
+    warnings.push(
+      `Only ${best.fields.length} separate admissible field${
+        best.fields.length === 1 ? "" : "s"
+      } of ${roundTo(best.window.areaMm2, 4)} mm² fit, fewer than the ${bestN} asked for`,
+    );
+  }
+  const dist = summarizeDistribution(map);
+  const checks = checkFields(prepared, map, hotspot, window, {
+    overlap,
+    histogram: dist.histogram,
+  });
+  for (const c of checks) warnings.push(...c.warnings);
+  const { mppX, mppY } = prepared.slide;
+  const g = map.grid;
+  const report: ReportJson = {
+    schema: REPORT_SCHEMA,
+    case: prepared.caseId,
+    window: reportWindow(window),
+    settings: {
+      stride_um: strideUm,
+      min_coverage: minCoverage,
+      min_score: prepared.minScore,
+      count_labels: prepared.countLabels,
+      top_k: topK,
+      scheme: options.scheme ?? null,
+      ...(options.scheme && options.simulations !== undefined
+        ? { simulations: options.simulations }
+        : {}),
+      ...(options.scheme && options.seed !== undefined ? { seed: options.seed } : {}),
+    },
+    valid_area_mm2: roundTo(prepared.validAreaMm2, 6),
+    figures: {
+      total: prepared.tally.total,
+      counted: prepared.tally.counted,
+      outside_valid: prepared.tally.outside_valid,
+      below_score: prepared.tally.below_score,
+      by_label: prepared.tally.by_label,
+    },
+    hotspot: hotspot ? reportPlacement(hotspot) : null,
+    distribution: {
+      positions: dist.positions,
+      min: dist.min,
+      q1: dist.q1 === null ? null : roundTo(dist.q1, 4),
+      median: dist.median === null ? null : roundTo(dist.median, 4),
+      q3: dist.q3 === null ? null : roundTo(dist.q3, 4),
+      max: dist.max,
+      mean: dist.mean === null ? null : roundTo(dist.mean, 4),
+      quantile_method: dist.quantileMethod,
+      histogram: dist.histogram,
+    },
+    fields: checks.map((c) => ({
+      reader: c.reader,
+      center_px: [roundTo(c.centerPx[0], 2), roundTo(c.centerPx[1], 2)],
+      count: c.count,
+      coverage: roundTo(c.coverage, 6),
+      percentile: c.percentile === null ? null : roundTo(c.percentile, 2),
+      kind: c.kind,
+      shortfall: c.shortfall,
+      area_mm2: roundTo(c.areaMm2, 6),
+      count_scaled_to_window: c.countScaledToWindow === null
+        ? null
+        : roundTo(c.countScaledToWindow, 4),
+      feature_index: c.featureIndex,
+    })),
+    classification: null,
+    uncertainty: null,
+    warnings,
+    hotfield_version: HOTFIELD_VERSION,
+    inputs: caseData.sources.map((s) => ({ kind: s.kind, path: s.path, sha256: s.sha256 })),
+    mpp: [mppX, mppY],
+    areas_mm2: {
+      tissue: roundTo(prepared.areasMm2.tissue, 6),
+      tumour: roundTo(prepared.areasMm2.tumour, 6),
+      excluded: roundTo(prepared.areasMm2.excluded, 6),
+      valid: roundTo(prepared.areasMm2.valid, 6),
+    },
+    top: top.map((p, i) => reportPlacement(p, i + 1)),
+    best_fields: best
+      ? {
+        n: bestN,
+        field_area_mm2: best.window.areaMm2,
+        shape: best.window.shape,
+        total: best.total,
+        fields: best.fields.map((p, i) => reportPlacement(p, i + 1)),
+        guarantee: best.guarantee,
+      }
+      : null,
+    map: {
+      nx: g.nx,
+      ny: g.ny,
+      origin_px: [roundTo(g.x0Um / mppX, 2), roundTo(g.y0Um / mppY, 2)],
+      stride_px: [roundTo(g.strideUm / mppX, 4), roundTo(g.strideUm / mppY, 4)],
+      discretization: map.discretization,
+    },
+  };
+  if (options.scheme) {
+    // The one call into the grading schemes.
+    const std = applyStandards({ report, prepared, map, window }, {
+      schemeId: options.scheme,
+      simulations: options.simulations,
+      seed: options.seed,
+    });
+    report.classification = std.classification;
+    report.uncertainty = std.uncertainty;
+    report.warnings.push(...std.warnings);
+  }
+  hotspot = hotspot ?? null;
+  return {
+    report,
+    prepared,
+    window,
+    map,
+    hotspot,
+    top,
+    bestFields: best?.fields ?? [],
+    bestFieldWindow: best?.window ?? null,
+    caseData,
+  };
+}
+
+/** Why no window is admissible, with the numbers. */
+function noPlacementWhy(
+  validAreaMm2: number,
+  window: WindowShape,
+  coverage: Float32Array,
+  minCoverage: number,
+): string {
+  const a = roundTo(validAreaMm2, 2), w = roundTo(window.areaMm2, 2);
+  if (validAreaMm2 < window.areaMm2 * minCoverage) {
+    return `No admissible window: the valid area ${a} mm² is smaller than ` +
+      `${minCoverage === 1 ? "" : `${minCoverage} × `}the window's ${w} mm²`;
+  }
+  let best = 0;
+  for (let k = 0; k < coverage.length; k++) if (coverage[k] > best) best = coverage[k];
+  return `No admissible window: the best coverage on the grid, ${roundTo(best, 2)}, ` +
+    `is below the minimum ${minCoverage} (valid area ${a} mm², window ${w} mm²)`;
+}
