@@ -1,0 +1,683 @@
+/**
+ * The invented demo cohort of the fictional Quillmoor Veterinary Teaching
+ * Laboratory: eight cases generated from one seed, as plain objects.
+ *
+ * Every case is a GeoJSON FeatureCollection in level-0 pixels (x right,
+ * y down) with a `slide` foreign member and features whose
+ * `properties.role` is `tissue`, `tumour`, `exclude`, `figure` or `field`.
+ * One case takes its tissue from a PNG mask and one its figures from a CSV
+ * file; those two also get a case file tying the pieces together.
+ *
+ * All numbers are invented. Coordinates are rounded to 0.1 px and scores to
+ * 0.001, so the same seed always gives the same bytes.
+ *
+ * @module
+ */
+
+import type { PolygonPx, Ring, Vec2 } from "../types.ts";
+import { type Random, seededRandom } from "./random.ts";
+import {
+  blobRing,
+  type Frame,
+  gaussianPoint,
+  inAny,
+  inPolygon,
+  inRing,
+  polygonArea,
+  randomProfile,
+  rasterize,
+  reversed,
+  ringBBox,
+  round1,
+  toSlide,
+} from "./_shapes.ts";
+
+/** The seed `deno task demo:data` uses for data/demo/. */
+export const DEMO_SEED = 24;
+
+/** A GeoJSON geometry as written by the generators (pixels). */
+export type DemoGeometry =
+  | { type: "Point"; coordinates: Vec2 }
+  | { type: "MultiPoint"; coordinates: Vec2[] }
+  | { type: "Polygon"; coordinates: PolygonPx }
+  | { type: "MultiPolygon"; coordinates: PolygonPx[] };
+
+/** A GeoJSON feature with hotfield's roles. */
+export interface DemoFeature {
+  type: "Feature";
+  properties: Record<string, string | number>;
+  geometry: DemoGeometry;
+}
+
+/** The `slide` foreign member. */
+export interface DemoSlide {
+  id: string;
+  mpp: number | [number, number];
+  width: number;
+  height: number;
+}
+
+/** A GeoJSON FeatureCollection with the `slide` foreign member. */
+export interface DemoFeatureCollection {
+  type: "FeatureCollection";
+  slide: DemoSlide;
+  features: DemoFeature[];
+}
+
+/** One row of a figures CSV (header `x,y,label,score`). */
+export interface DemoFigureRow {
+  xPx: number;
+  yPx: number;
+  label: string;
+  score: number;
+}
+
+/** A tissue mask: 8-bit greyscale, nonzero = tissue, square pixels of `umPerPx`. */
+export interface DemoMask {
+  width: number;
+  height: number;
+  /** Micrometres per mask pixel (the mask's own scale, not the slide's). */
+  umPerPx: number;
+  /** Row-major pixels, 0 or 255. */
+  data: Uint8Array;
+}
+
+/** One invented case. */
+export interface DemoCase {
+  caseId: string;
+  /** Tumour type, e.g. "canine cutaneous mast cell tumour". */
+  tumourType: string;
+  /** One sentence: what the case is there to show. */
+  shows: string;
+  /** The annotation file. */
+  annotations: DemoFeatureCollection;
+  /** Figures given in a CSV instead of the annotation file. */
+  figuresCsv?: DemoFigureRow[];
+  /** Tissue given as a PNG mask instead of polygons. */
+  tissueMask?: DemoMask;
+}
+
+// ---------------------------------------------------------------------------
+// Case recipes. Positions are in the tissue's normalized frame: (0, 0) is the
+// tissue centre, the tissue outline lies at radius 0.75–1.25 and the tumour
+// outline inside radius 0.67 of it, so anything at radius ≤ 0.45 is tumour.
+
+interface ExcludeRecipe {
+  reason: string;
+  u: number;
+  v: number;
+  rxMm: number;
+  ryMm: number;
+  rotation: number;
+  /** Extra candidates placed inside the zone (mitotic-looking and lookalikes). */
+  figures: number;
+}
+
+interface FocusRecipe {
+  u: number;
+  v: number;
+  sigmaUm: number;
+  n: number;
+}
+
+interface FieldRecipe {
+  reader: string;
+  u: number;
+  v: number;
+  /** A drawn polygon of about 2.37 mm² instead of a centre point. */
+  polygon?: boolean;
+  label?: string;
+}
+
+interface CaseRecipe {
+  caseId: string;
+  tumourType: string;
+  shows: string;
+  mpp: number | [number, number];
+  slideMm: [number, number];
+  tissue: {
+    cxMm: number;
+    cyMm: number;
+    rxMm: number;
+    ryMm: number;
+    rotation: number;
+    vertices: number;
+    holes: number;
+  };
+  /** Separate small tissue pieces (make the tissue a MultiPolygon). */
+  fragments: { angle: number; rMm: number }[];
+  tumourScale: number;
+  excludes: ExcludeRecipe[];
+  foci: FocusRecipe[];
+  /** Uniform mitotic figures per mm² inside the tumour. */
+  backgroundPerMm2: number;
+  /** Uniform mitotic figures per mm² in tissue outside the tumour. */
+  outsidePerMm2: number;
+  /** Lookalike candidates spread over the tumour. */
+  lookalikes: number;
+  /** How figures are written. */
+  figureStyle: "annotator" | "detector" | "csv";
+  fields: FieldRecipe[];
+  /** Tissue as a PNG mask with this many µm per mask pixel. */
+  maskUmPerPx?: number;
+  /** Write holes with the same winding as the outer ring (either is accepted). */
+  sameWinding?: boolean;
+}
+
+const MCT = "canine cutaneous mast cell tumour";
+
+const RECIPES: CaseRecipe[] = [
+  {
+    caseId: "QVT-24-001",
+    tumourType: MCT,
+    shows:
+      "A clearly high count: two strong foci over a busy background, far above 7 figures in 2.37 mm²; a small second tissue piece makes the tissue a MultiPolygon.",
+    mpp: 0.25,
+    slideMm: [25, 15],
+    tissue: { cxMm: 11.5, cyMm: 7.5, rxMm: 7, ryMm: 5, rotation: 0.3, vertices: 520, holes: 5 },
+    fragments: [{ angle: 0.2, rMm: 1.1 }],
+    tumourScale: 0.56,
+    excludes: [
+      { reason: "necrosis", u: 0.3, v: -0.22, rxMm: 0.9, ryMm: 0.6, rotation: 0.4, figures: 9 },
+      {
+        reason: "fold artefact",
+        u: -0.45,
+        v: 0.35,
+        rxMm: 1.6,
+        ryMm: 0.18,
+        rotation: -0.6,
+        figures: 3,
+      },
+    ],
+    foci: [
+      { u: -0.15, v: 0.1, sigmaUm: 450, n: 32 },
+      { u: 0.25, v: 0.22, sigmaUm: 600, n: 18 },
+    ],
+    backgroundPerMm2: 2.5,
+    outsidePerMm2: 0.3,
+    lookalikes: 70,
+    figureStyle: "annotator",
+    fields: [
+      { reader: "reader-a", u: -0.13, v: 0.12 },
+      { reader: "reader-b", u: 0.26, v: 0.2 },
+    ],
+  },
+  {
+    caseId: "QVT-24-002",
+    tumourType: MCT,
+    shows:
+      "A clearly low count: sparse figures and one weak focus, far below 7 in 2.37 mm wherever the window is placed; apoptotic bodies and pyknotic nuclei must not be counted.",
+    mpp: 0.252,
+    slideMm: [20, 14],
+    tissue: { cxMm: 10, cyMm: 7, rxMm: 6, ryMm: 4.5, rotation: -0.2, vertices: 420, holes: 3 },
+    fragments: [],
+    tumourScale: 0.55,
+    excludes: [
+      { reason: "haemorrhage", u: -0.2, v: 0.25, rxMm: 0.7, ryMm: 0.5, rotation: 0, figures: 2 },
+    ],
+    foci: [{ u: 0.1, v: 0, sigmaUm: 700, n: 3 }],
+    backgroundPerMm2: 0.3,
+    outsidePerMm2: 0.1,
+    lookalikes: 60,
+    figureStyle: "annotator",
+    fields: [{ reader: "reader-a", u: 0.12, v: 0.02 }],
+  },
+  {
+    caseId: "QVT-24-003",
+    tumourType: MCT,
+    shows:
+      "Borderline: the best 2.37 mm² holds about the cut-off of 7 figures while most placements hold fewer, so the class depends on the field; one reader drew a polygon instead of marking a centre.",
+    mpp: 0.246,
+    slideMm: [22, 16],
+    tissue: { cxMm: 11, cyMm: 8, rxMm: 6.5, ryMm: 5.2, rotation: 0.9, vertices: 460, holes: 4 },
+    fragments: [],
+    tumourScale: 0.56,
+    excludes: [
+      { reason: "out of focus", u: 0.35, v: -0.3, rxMm: 1.2, ryMm: 0.8, rotation: 0.2, figures: 3 },
+    ],
+    foci: [
+      { u: -0.1, v: -0.1, sigmaUm: 500, n: 5 },
+      { u: 0.3, v: 0.25, sigmaUm: 550, n: 4 },
+    ],
+    backgroundPerMm2: 0.6,
+    outsidePerMm2: 0.2,
+    lookalikes: 50,
+    figureStyle: "annotator",
+    fields: [
+      { reader: "reader-a", u: -0.1, v: -0.08 },
+      { reader: "reader-b", u: 0.29, v: 0.24, polygon: true, label: "10 HPF drawn" },
+      { reader: "trainee-1", u: -0.3, v: 0.3 },
+    ],
+  },
+  {
+    caseId: "QVT-24-004",
+    tumourType: MCT,
+    shows:
+      "Borderline, scanned with unequal pixel sides (0.2485 × 0.2512 µm): detector points with scores, one focus near the cut-off, an out-of-focus band excluded.",
+    mpp: [0.2485, 0.2512],
+    slideMm: [18, 14],
+    tissue: { cxMm: 9, cyMm: 7, rxMm: 5.5, ryMm: 4.6, rotation: -0.5, vertices: 400, holes: 3 },
+    fragments: [],
+    tumourScale: 0.55,
+    excludes: [
+      {
+        reason: "out of focus",
+        u: -0.3,
+        v: -0.05,
+        rxMm: 2.2,
+        ryMm: 0.35,
+        rotation: 1.2,
+        figures: 4,
+      },
+    ],
+    foci: [{ u: 0.05, v: 0.12, sigmaUm: 420, n: 4 }],
+    backgroundPerMm2: 0.8,
+    outsidePerMm2: 0.2,
+    lookalikes: 80,
+    figureStyle: "detector",
+    fields: [{ reader: "reader-c", u: 0.07, v: 0.1 }],
+  },
+  {
+    caseId: "QVT-24-005",
+    tumourType: MCT,
+    shows:
+      "A small incisional biopsy: valid tumour tissue is well under 2.37 mm², so no window of the standard area fits and no hotspot can be placed.",
+    mpp: 0.25,
+    slideMm: [15, 10],
+    tissue: { cxMm: 6.5, cyMm: 5, rxMm: 1.0, ryMm: 0.8, rotation: 0.1, vertices: 160, holes: 1 },
+    fragments: [{ angle: 0.0, rMm: 0.45 }, { angle: 2.6, rMm: 0.35 }],
+    tumourScale: 0.6,
+    excludes: [
+      {
+        reason: "crush artefact",
+        u: 0.2,
+        v: 0.15,
+        rxMm: 0.18,
+        ryMm: 0.12,
+        rotation: 0.5,
+        figures: 1,
+      },
+    ],
+    foci: [{ u: 0, v: 0, sigmaUm: 250, n: 4 }],
+    backgroundPerMm2: 2.0,
+    outsidePerMm2: 0.5,
+    lookalikes: 8,
+    figureStyle: "detector",
+    fields: [{ reader: "reader-a", u: 0, v: 0 }],
+  },
+  {
+    caseId: "QVT-24-006",
+    tumourType: MCT,
+    shows:
+      "A poor choice of field: one strong focus holds well over 7 figures, but trainee-2 counted a quiet area below the cut-off; reader-a found the focus.",
+    mpp: 0.2505,
+    slideMm: [24, 16],
+    tissue: { cxMm: 12, cyMm: 8, rxMm: 7.2, ryMm: 5.4, rotation: 0.15, vertices: 500, holes: 6 },
+    fragments: [],
+    tumourScale: 0.57,
+    excludes: [
+      { reason: "necrosis", u: -0.05, v: -0.3, rxMm: 1.0, ryMm: 0.7, rotation: 0.9, figures: 8 },
+      { reason: "ulceration", u: -0.35, v: 0.4, rxMm: 1.4, ryMm: 0.5, rotation: 0.1, figures: 2 },
+    ],
+    foci: [{ u: 0.3, v: -0.15, sigmaUm: 380, n: 20 }],
+    backgroundPerMm2: 0.8,
+    outsidePerMm2: 0.2,
+    lookalikes: 60,
+    figureStyle: "detector",
+    fields: [
+      { reader: "reader-a", u: 0.29, v: -0.14 },
+      { reader: "trainee-2", u: -0.32, v: 0.12, label: "first field examined" },
+    ],
+  },
+  {
+    caseId: "QVT-24-007",
+    tumourType: "canine soft tissue sarcoma",
+    shows:
+      "Tissue from a PNG mask at 16 µm per mask pixel (not the slide's 0.25 µm/px), tied to the annotations by a case file; moderate foci.",
+    mpp: 0.25,
+    slideMm: [28, 18],
+    tissue: { cxMm: 13, cyMm: 9, rxMm: 9, ryMm: 6, rotation: -0.35, vertices: 600, holes: 6 },
+    fragments: [{ angle: 0.3, rMm: 1.4 }],
+    tumourScale: 0.56,
+    excludes: [
+      { reason: "necrosis", u: 0.2, v: 0.3, rxMm: 1.5, ryMm: 1.0, rotation: 0.3, figures: 10 },
+    ],
+    foci: [
+      { u: -0.25, v: -0.1, sigmaUm: 550, n: 10 },
+      { u: 0.3, v: -0.2, sigmaUm: 500, n: 8 },
+    ],
+    backgroundPerMm2: 0.9,
+    outsidePerMm2: 0.2,
+    lookalikes: 60,
+    figureStyle: "annotator",
+    fields: [{ reader: "reader-b", u: -0.24, v: -0.12 }],
+    maskUmPerPx: 16,
+  },
+  {
+    caseId: "QVT-24-008",
+    tumourType: "canine mammary carcinoma",
+    shows:
+      "Figures from a detector's CSV (x,y,label,score) with many low-score candidates and lookalikes, tied to the outlines by a case file; several foci.",
+    mpp: 0.243,
+    slideMm: [24, 16],
+    tissue: { cxMm: 12, cyMm: 8, rxMm: 7, ryMm: 5.5, rotation: 0.5, vertices: 480, holes: 5 },
+    fragments: [{ angle: 3.4, rMm: 1.0 }],
+    tumourScale: 0.56,
+    excludes: [
+      { reason: "necrosis", u: 0.1, v: 0.3, rxMm: 1.1, ryMm: 0.8, rotation: 0, figures: 12 },
+      {
+        reason: "fold artefact",
+        u: -0.4,
+        v: -0.3,
+        rxMm: 1.3,
+        ryMm: 0.15,
+        rotation: 0.7,
+        figures: 2,
+      },
+    ],
+    foci: [
+      { u: -0.2, v: 0.05, sigmaUm: 450, n: 16 },
+      { u: 0.25, v: -0.15, sigmaUm: 500, n: 11 },
+      { u: 0.05, v: 0.35, sigmaUm: 400, n: 8 },
+    ],
+    backgroundPerMm2: 1.8,
+    outsidePerMm2: 0.3,
+    lookalikes: 400,
+    figureStyle: "csv",
+    fields: [
+      { reader: "reader-a", u: -0.2, v: 0.06 },
+      { reader: "trainee-1", u: 0.0, v: -0.38 },
+    ],
+  },
+];
+
+/** Lookalike labels and how often each is drawn. */
+const LOOKALIKES: [string, number][] = [
+  ["apoptotic body", 0.45],
+  ["pyknotic nucleus", 0.35],
+  ["hyperchromatic nucleus", 0.2],
+];
+
+/**
+ * Generates the demo cohort from a seed.
+ *
+ * Each case draws from its own generator (`seed·1000 + case number`), so a
+ * change to one recipe leaves the other cases' bytes as they were.
+ *
+ * @param seed Any integer. @default DEMO_SEED
+ * @returns Eight cases, `QVT-24-001` … `QVT-24-008`, as plain objects.
+ *
+ * @example Eight cases with the slide member
+ * ```ts
+ * import { generateDemoCohort } from "./demo_cohort.ts";
+ * const cohort = generateDemoCohort();
+ * if (cohort.length !== 8 || cohort[0].annotations.slide.id !== "QVT-24-001") throw new Error();
+ * ```
+ */
+export function generateDemoCohort(seed: number = DEMO_SEED): DemoCase[] {
+  return RECIPES.map((recipe, i) => generateCase(recipe, seededRandom(seed * 1000 + i + 1)));
+}
+
+function mppPair(mpp: number | [number, number]): [number, number] {
+  return typeof mpp === "number" ? [mpp, mpp] : mpp;
+}
+
+function generateCase(r: CaseRecipe, random: Random): DemoCase {
+  const [mppX, mppY] = mppPair(r.mpp);
+  const mmX = (mm: number) => mm * 1000 / mppX;
+  const mmY = (mm: number) => mm * 1000 / mppY;
+  const slide: DemoSlide = {
+    id: r.caseId,
+    mpp: r.mpp,
+    width: Math.round(mmX(r.slideMm[0])),
+    height: Math.round(mmY(r.slideMm[1])),
+  };
+  // The frame is set in µm and converted per axis, so shapes keep their
+  // physical form when the pixel is not square.
+  const frame: Frame = {
+    cx: mmX(r.tissue.cxMm),
+    cy: mmY(r.tissue.cyMm),
+    rx: mmX(r.tissue.rxMm),
+    ry: mmY(r.tissue.ryMm),
+    rotation: r.tissue.rotation,
+  };
+  // Rotation mixes axes; with mppX ≈ mppY the shear this introduces is tiny.
+
+  // Tissue: one irregular main piece with holes, plus fragments.
+  const mainOuter = blobRing(frame, randomProfile(random, 0.25), r.tissue.vertices, {
+    jitter: 0.012,
+    random,
+  });
+  const holes: Ring[] = [];
+  const placed: [number, number, number][] = [];
+  for (let tries = 0; holes.length < r.tissue.holes && tries < 500; tries++) {
+    const rad = 0.5 * Math.sqrt(random());
+    const ang = 2 * Math.PI * random();
+    const u = rad * Math.cos(ang), v = rad * Math.sin(ang);
+    const size = 0.03 + 0.04 * random();
+    if (placed.some(([pu, pv, ps]) => Math.hypot(pu - u, pv - v) < 1.4 * (ps + size))) continue;
+    placed.push([u, v, size]);
+    const ring = blobRing(frame, randomProfile(random, 0.3, 4), 28 + Math.floor(12 * random()), {
+      u0: u,
+      v0: v,
+      scale: size,
+    });
+    holes.push(r.sameWinding ? ring : reversed(ring));
+  }
+  const tissue: PolygonPx[] = [[mainOuter, ...holes]];
+  const mainBox = ringBBox(mainOuter);
+  for (const frag of r.fragments) {
+    const reach = Math.max(mainBox[2] - frame.cx, frame.cx - mainBox[0]);
+    const dist = reach + mmX(frag.rMm) * 1.5 + mmX(0.3);
+    const f: Frame = {
+      cx: frame.cx + dist * Math.cos(frag.angle),
+      cy: frame.cy + dist * Math.sin(frag.angle) * 0.6,
+      rx: mmX(frag.rMm),
+      ry: mmY(frag.rMm * 0.75),
+      rotation: random() * Math.PI,
+    };
+    tissue.push([blobRing(f, randomProfile(random, 0.25), 90, { jitter: 0.02, random })]);
+  }
+  for (const p of tissue) {
+    const [x0, y0, x1, y1] = ringBBox(p[0]);
+    if (x0 < 0 || y0 < 0 || x1 > slide.width || y1 > slide.height) {
+      throw new Error(`Demo recipe ${r.caseId}: tissue leaves the slide`);
+    }
+  }
+
+  // Tumour: inside the main tissue piece (radius ≤ 0.67 of the frame).
+  const tumourRing = blobRing(frame, randomProfile(random, 0.12), 360, {
+    scale: r.tumourScale,
+    u0: 0.02,
+    v0: -0.02,
+    jitter: 0.01,
+    random,
+  });
+  const tumour: PolygonPx = [tumourRing];
+
+  // Exclusions.
+  const excludes: { reason: string; polygons: PolygonPx[]; figures: number }[] = r.excludes.map(
+    (e) => {
+      const [cx, cy] = toSlide(frame, e.u, e.v);
+      const f: Frame = { cx, cy, rx: mmX(e.rxMm), ry: mmY(e.ryMm), rotation: e.rotation };
+      const ring = blobRing(f, randomProfile(random, 0.2, 4), 48, { jitter: 0.03, random });
+      return { reason: e.reason, polygons: [[ring]], figures: e.figures };
+    },
+  );
+
+  // Figures.
+  const figures: DemoFigureRow[] = [];
+  const score = (lo: number, hi: number) => Math.round((lo + (hi - lo) * random()) * 1000) / 1000;
+  const mitotic = (x: number, y: number) =>
+    figures.push({
+      xPx: round1(x),
+      yPx: round1(y),
+      label: "mitotic figure",
+      score: score(0.55, 1),
+    });
+  for (const focus of r.foci) {
+    const [cx, cy] = toSlide(frame, focus.u, focus.v);
+    for (let k = 0; k < focus.n; k++) {
+      const [x, y] = gaussianPoint(random, cx, cy, focus.sigmaUm / mppX, focus.sigmaUm / mppY);
+      if (inAny(tissue, x, y)) mitotic(x, y);
+    }
+  }
+  const tumourBox = ringBBox(tumourRing);
+  const tumourMm2 = polygonArea(tumour) * mppX * mppY / 1e6;
+  const uniformIn = (accept: (x: number, y: number) => boolean, box: number[]): Vec2 => {
+    for (;;) {
+      const x = box[0] + (box[2] - box[0]) * random();
+      const y = box[1] + (box[3] - box[1]) * random();
+      if (accept(x, y)) return [x, y];
+    }
+  };
+  const nBackground = Math.round(r.backgroundPerMm2 * tumourMm2);
+  for (let k = 0; k < nBackground; k++) {
+    mitotic(
+      ...uniformIn((x, y) => inPolygon(tissue[0], x, y) && inRing(tumourRing, x, y), tumourBox),
+    );
+  }
+  const tissueMm2 = tissue.reduce((a, p) => a + polygonArea(p), 0) * mppX * mppY / 1e6;
+  const nOutside = Math.round(r.outsidePerMm2 * Math.max(0, tissueMm2 - tumourMm2));
+  for (let k = 0; k < nOutside; k++) {
+    mitotic(
+      ...uniformIn((x, y) => inPolygon(tissue[0], x, y) && !inRing(tumourRing, x, y), mainBox),
+    );
+  }
+  const lookalike = (x: number, y: number) => {
+    let t = random(), label = LOOKALIKES[0][0];
+    for (const [l, p] of LOOKALIKES) {
+      label = l;
+      if ((t -= p) < 0) break;
+    }
+    figures.push({ xPx: round1(x), yPx: round1(y), label, score: score(0.05, 0.6) });
+  };
+  for (let k = 0; k < r.lookalikes; k++) {
+    lookalike(...uniformIn((x, y) => inPolygon(tissue[0], x, y), tumourBox));
+  }
+  for (const e of excludes) {
+    const ring = e.polygons[0][0];
+    const box = ringBBox(ring);
+    for (let k = 0; k < e.figures; k++) {
+      const [x, y] = uniformIn((x, y) => inRing(ring, x, y), box);
+      // In necrosis and artefact most candidates are lookalikes, some look mitotic.
+      if (k % 3 === 0) mitotic(x, y);
+      else lookalike(x, y);
+    }
+  }
+  if (r.figureStyle === "csv") {
+    // A detector also reports weak mitotic candidates.
+    const nWeak = Math.round(figures.length * 0.25);
+    for (let k = 0; k < nWeak; k++) {
+      const [x, y] = uniformIn((x, y) => inPolygon(tissue[0], x, y), tumourBox);
+      figures.push({
+        xPx: round1(x),
+        yPx: round1(y),
+        label: "mitotic figure",
+        score: score(0.1, 0.5),
+      });
+    }
+  }
+
+  // Fields.
+  const fieldFeatures: DemoFeature[] = r.fields.map((fr) => {
+    const [cx, cy] = toSlide(frame, fr.u, fr.v);
+    const properties: Record<string, string | number> = { role: "field", reader: fr.reader };
+    if (fr.label) properties.label = fr.label;
+    if (!fr.polygon) {
+      return {
+        type: "Feature",
+        properties,
+        geometry: { type: "Point", coordinates: [round1(cx), round1(cy)] },
+      };
+    }
+    // A hand-drawn quadrilateral of about 2.37 mm² (1777.6 × 1333.2 µm).
+    const hw = 1777.6 / 2, hh = 1333.2 / 2;
+    const corners: Vec2[] = [[-hw, -hh], [hw, -hh], [hw, hh], [-hw, hh]].map(([dx, dy]) => [
+      round1(cx + (dx + 40 * (random() - 0.5)) / mppX),
+      round1(cy + (dy + 40 * (random() - 0.5)) / mppY),
+    ]);
+    return {
+      type: "Feature",
+      properties,
+      geometry: { type: "Polygon", coordinates: [[...corners, corners[0]]] },
+    };
+  });
+
+  // Assemble the annotation file.
+  const features: DemoFeature[] = [];
+  let tissueMask: DemoMask | undefined;
+  if (r.maskUmPerPx) {
+    const cellPxX = r.maskUmPerPx / mppX;
+    const width = Math.ceil(slide.width / cellPxX);
+    const height = Math.ceil(slide.height * mppY / r.maskUmPerPx);
+    tissueMask = {
+      width,
+      height,
+      umPerPx: r.maskUmPerPx,
+      data: rasterize(tissue, width, height, cellPxX),
+    };
+  } else if (tissue.length === 1) {
+    features.push({
+      type: "Feature",
+      properties: { role: "tissue" },
+      geometry: { type: "Polygon", coordinates: tissue[0] },
+    });
+  } else {
+    features.push({
+      type: "Feature",
+      properties: { role: "tissue" },
+      geometry: { type: "MultiPolygon", coordinates: tissue },
+    });
+  }
+  features.push({
+    type: "Feature",
+    properties: { role: "tumour" },
+    geometry: { type: "Polygon", coordinates: tumour },
+  });
+  for (const e of excludes) {
+    features.push({
+      type: "Feature",
+      properties: { role: "exclude", reason: e.reason },
+      geometry: { type: "Polygon", coordinates: e.polygons[0] },
+    });
+  }
+  let figuresCsv: DemoFigureRow[] | undefined;
+  if (r.figureStyle === "csv") {
+    figuresCsv = figures;
+  } else if (r.figureStyle === "annotator") {
+    // An annotator marks figures in one batch (MultiPoint, no label: the
+    // default "mitotic figure") and lookalikes one by one with a confidence.
+    const batch = figures.filter((f) => f.label === "mitotic figure");
+    features.push({
+      type: "Feature",
+      properties: { role: "figure" },
+      geometry: { type: "MultiPoint", coordinates: batch.map((f) => [f.xPx, f.yPx]) },
+    });
+    for (const f of figures) {
+      if (f.label === "mitotic figure") continue;
+      features.push({
+        type: "Feature",
+        properties: { role: "figure", label: f.label, score: f.score },
+        geometry: { type: "Point", coordinates: [f.xPx, f.yPx] },
+      });
+    }
+  } else {
+    for (const f of figures) {
+      features.push({
+        type: "Feature",
+        properties: { role: "figure", label: f.label, score: f.score },
+        geometry: { type: "Point", coordinates: [f.xPx, f.yPx] },
+      });
+    }
+  }
+  features.push(...fieldFeatures);
+  return {
+    caseId: r.caseId,
+    tumourType: r.tumourType,
+    shows: r.shows,
+    annotations: { type: "FeatureCollection", slide, features },
+    ...(figuresCsv ? { figuresCsv } : {}),
+    ...(tissueMask ? { tissueMask } : {}),
+  };
+}
