@@ -8,7 +8,7 @@ import type { FigureSet } from "../types.ts";
 import type { FigureTally } from "./engine_types.ts";
 
 /** The label counted when none is chosen. */
-export const DEFAULT_COUNT_LABELS: readonly string[] = ["mitotic figure"];
+const DEFAULT_COUNT_LABELS: readonly string[] = ["mitotic figure"];
 
 /** Options of {@linkcode tallyFigures}. */
 export interface TallyFiguresOptions {

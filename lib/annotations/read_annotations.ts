@@ -1,0 +1,475 @@
+/**
+ * Reading a case's annotation file: a GeoJSON FeatureCollection (RFC 7946) in
+ * level-0 slide pixels (x right, y down) with a `slide` foreign member and a
+ * `properties.role` on every feature.
+ *
+ * | role      | geometry                | properties                                             |
+ * | --------- | ----------------------- | ------------------------------------------------------ |
+ * | `tissue`  | Polygon, MultiPolygon   |                                                        |
+ * | `tumour`  | Polygon, MultiPolygon   |                                                        |
+ * | `exclude` | Polygon, MultiPolygon   | `reason` (e.g. `"necrosis"`)                           |
+ * | `figure`  | Point, MultiPoint       | `label` (default `"mitotic figure"`), `score` in [0, 1] |
+ * | `field`   | Polygon, Point (centre) | `reader`                                               |
+ *
+ * Feature numbers in messages are 0-based indices into `features`.
+ *
+ * @module
+ */
+
+import { inputError } from "../errors.ts";
+import type {
+  FieldSpec,
+  FigureSet,
+  MultiPolygonPx,
+  PolygonPx,
+  RegionPart,
+  Ring,
+  SlideInfo,
+  Vec2,
+} from "../types.ts";
+import { describe } from "./_describe.ts";
+import { DEFAULT_FIGURE_LABEL, FigureSetBuilder } from "./_figure_builder.ts";
+import { figurePositionWarnings } from "./_figure_checks.ts";
+import { locateJsonProblem } from "./_json_location.ts";
+import { polygonCentroidPx } from "../geometry/planar_area.ts";
+import { mergeSlideMembers, parseSlideInfo, type SlideMember } from "./slide_info.ts";
+
+/** The roles a feature may have, in the order of the table above. */
+export const ANNOTATION_ROLES = ["tissue", "tumour", "exclude", "figure", "field"] as const;
+
+/** One of {@linkcode ANNOTATION_ROLES}. */
+export type AnnotationRole = typeof ANNOTATION_ROLES[number];
+
+/** What {@linkcode parseAnnotations} read. */
+export interface ParsedAnnotations {
+  /** The `slide` member (merged with `options.slide`). */
+  slide: SlideInfo;
+  /** One part per `tissue` feature. */
+  tissue: RegionPart[];
+  /** One part per `tumour` feature. */
+  tumour: RegionPart[];
+  /** One part per `exclude` feature, with its `reason`. */
+  exclude: RegionPart[];
+  /** Every figure point (a MultiPoint gives one entry per position). */
+  figures: FigureSet;
+  /** Readers' counting areas. */
+  fields: FieldSpec[];
+  /** Readable oddities (never printed by the library). */
+  warnings: string[];
+}
+
+/** Options of {@linkcode parseAnnotations}. */
+export interface ParseAnnotationsOptions {
+  /** The file's path as the user gave it, for messages. */
+  fileName: string;
+  /**
+   * Slide fields from elsewhere (a case file); they replace the file's own
+   * values field by field, with a warning for each value that changes.
+   * @default undefined
+   */
+  slide?: SlideMember;
+}
+
+const WHAT = "annotations";
+
+/**
+ * Parses and checks an annotation FeatureCollection.
+ *
+ * Checks follow RFC 7946: the root is a FeatureCollection (§3.3) of Features
+ * (§3.2); a position is an array of at least two finite numbers (§3.1.1, any
+ * further elements such as altitude are ignored); a polygon ring has at least
+ * four positions and its first and last positions are equal (§3.1.6). Either
+ * ring winding is accepted; rings are kept as given (normalizing them is the
+ * valid region's job). A UTF-8 byte order mark is ignored.
+ *
+ * @param text The file's text.
+ * @param options The file name for messages, and optional slide fields.
+ * @returns Slide, region parts, figures, fields and warnings.
+ * @throws {SyntaxError} When the text is empty or not JSON (with line and column).
+ * @throws {TypeError} When the shape is wrong (not a FeatureCollection, no
+ *   features, unknown role, wrong geometry for a role, bad positions or rings).
+ * @throws {RangeError} When mpp, a size or a score is out of range.
+ *
+ * @example Reading a tissue square and two figures
+ * ```ts
+ * import { parseAnnotations } from "./read_annotations.ts";
+ * const text = JSON.stringify({
+ *   type: "FeatureCollection",
+ *   slide: { id: "QVT-24-001", mpp: 0.25 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [100, 0], [100, 100], [0, 100], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure", score: 0.9 }, geometry: { type: "MultiPoint",
+ *       coordinates: [[10, 10], [20, 20]] } },
+ *   ],
+ * });
+ * const a = parseAnnotations(text, { fileName: "QVT-24-001.geojson" });
+ * if (a.tissue.length !== 1 || a.figures.xPx.length !== 2) throw new Error();
+ * if (a.figures.labels[0] !== "mitotic figure") throw new Error();
+ * ```
+ */
+export function parseAnnotations(
+  text: string,
+  options: ParseAnnotationsOptions,
+): ParsedAnnotations {
+  const file = options.fileName;
+  const fail = (Cls: typeof TypeError | typeof RangeError | typeof SyntaxError, detail: string) =>
+    inputError(Cls, WHAT, file, detail);
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  if (text.trim() === "") {
+    throw fail(
+      SyntaxError,
+      text.length === 0 ? "the file is empty (0 bytes)" : "the file holds only white space",
+    );
+  }
+  let root: unknown;
+  try {
+    root = JSON.parse(text);
+  } catch (e) {
+    const where = locateJsonProblem(text);
+    throw fail(
+      SyntaxError,
+      where
+        ? `not valid JSON: line ${where.line}, column ${where.column}: ${where.problem}`
+        : `not valid JSON: ${(e as Error).message}`,
+    );
+  }
+  if (root === null || typeof root !== "object" || Array.isArray(root)) {
+    throw fail(
+      TypeError,
+      `not a GeoJSON FeatureCollection (RFC 7946 §3.3): the file holds ${describe(root)}`,
+    );
+  }
+  const fc = root as Record<string, unknown>;
+  if (fc.type !== "FeatureCollection") {
+    throw fail(
+      TypeError,
+      `not a GeoJSON FeatureCollection (RFC 7946 §3.3): found "type" ${describe(fc.type)}${
+        fc.type === "Feature" || typeof fc.coordinates === "object"
+          ? '; wrap the feature(s) in {"type": "FeatureCollection", "features": [...]}'
+          : ""
+      }`,
+    );
+  }
+  if (!Array.isArray(fc.features)) {
+    throw fail(
+      TypeError,
+      `the FeatureCollection has no "features" array (RFC 7946 §3.3): found ${
+        describe(fc.features)
+      }`,
+    );
+  }
+  const features = fc.features as unknown[];
+  if (features.length === 0) {
+    throw fail(
+      TypeError,
+      "the FeatureCollection is empty: it has no features (need tissue or tumour polygons at least)",
+    );
+  }
+  const warnings: string[] = [];
+  const merged = mergeSlideMembers(fc.slide, options.slide);
+  warnings.push(...merged.warnings);
+  const slide = parseSlideInfo(merged.member, { what: WHAT, fileName: file });
+
+  const tissue: RegionPart[] = [];
+  const tumour: RegionPart[] = [];
+  const exclude: RegionPart[] = [];
+  const fields: FieldSpec[] = [];
+  const figures = new FigureSetBuilder();
+  const emptyGeometries: number[] = [];
+  const beyondSlide: number[] = [];
+
+  for (let i = 0; i < features.length; i++) {
+    const f = features[i];
+    const at = `feature ${i}`;
+    if (f === null || typeof f !== "object" || Array.isArray(f)) {
+      throw fail(
+        TypeError,
+        `${at} is not a GeoJSON Feature object (RFC 7946 §3.2): found ${describe(f)}`,
+      );
+    }
+    const feat = f as Record<string, unknown>;
+    if (feat.type !== "Feature") {
+      throw fail(
+        TypeError,
+        `${at} is not a GeoJSON Feature (RFC 7946 §3.2): found "type" ${describe(feat.type)}`,
+      );
+    }
+    const props = feat.properties;
+    if (
+      props !== undefined && props !== null && (typeof props !== "object" || Array.isArray(props))
+    ) {
+      throw fail(
+        TypeError,
+        `${at} has "properties" that are not an object: found ${describe(props)}`,
+      );
+    }
+    const p = (props ?? {}) as Record<string, unknown>;
+    const role = checkRole(p.role, at, fail);
+    const geom = feat.geometry;
+    if (geom === null || geom === undefined) {
+      throw fail(TypeError, `${at} (role "${role}") has no geometry`);
+    }
+    if (typeof geom !== "object" || Array.isArray(geom)) {
+      throw fail(
+        TypeError,
+        `${at} (role "${role}") has a "geometry" that is not an object: found ${describe(geom)}`,
+      );
+    }
+    const g = geom as Record<string, unknown>;
+    const type = g.type;
+    const allowed: Record<AnnotationRole, string[]> = {
+      tissue: ["Polygon", "MultiPolygon"],
+      tumour: ["Polygon", "MultiPolygon"],
+      exclude: ["Polygon", "MultiPolygon"],
+      figure: ["Point", "MultiPoint"],
+      field: ["Polygon", "Point"],
+    };
+    if (typeof type !== "string" || !allowed[role].includes(type)) {
+      throw fail(
+        TypeError,
+        `${at} has role "${role}" but geometry ${describe(type)}; role "${role}" takes ${
+          allowed[role].join(" or ")
+        }`,
+      );
+    }
+    const reader = new GeometryReader(at, fail);
+    const c = g.coordinates;
+    switch (role) {
+      case "tissue":
+      case "tumour":
+      case "exclude": {
+        const polygons = type === "Polygon" ? [reader.polygon(c, "")] : reader.multiPolygon(c);
+        if (polygons.length === 0) {
+          emptyGeometries.push(i);
+          break;
+        }
+        if (slide.widthPx !== undefined || slide.heightPx !== undefined) {
+          if (polygons.some((poly) => poly[0].some((q) => isBeyond(q, slide)))) beyondSlide.push(i);
+        }
+        const part: RegionPart = { polygons, source: `${file} feature ${i}` };
+        if (role === "exclude" && p.reason !== undefined && p.reason !== null) {
+          if (typeof p.reason === "string") part.reason = p.reason;
+          else {
+            part.reason = JSON.stringify(p.reason);
+            warnings.push(`${file} ${at}: "reason" is not a string; kept as ${part.reason}`);
+          }
+        }
+        (role === "tissue" ? tissue : role === "tumour" ? tumour : exclude).push(part);
+        break;
+      }
+      case "figure": {
+        const label = figureLabel(p.label, at, fail);
+        const score = figureScore(p.score, at, fail);
+        const points = type === "Point" ? [reader.position(c, "")] : reader.positions(c);
+        if (points.length === 0) emptyGeometries.push(i);
+        for (const [x, y] of points) figures.add(x, y, label, score, i);
+        break;
+      }
+      case "field": {
+        let readerName = "";
+        if (p.reader !== undefined && p.reader !== null) {
+          if (typeof p.reader !== "string") {
+            throw fail(
+              TypeError,
+              `${at} (role "field") has a "reader" that is not a string: found ${
+                describe(p.reader)
+              }`,
+            );
+          }
+          readerName = p.reader;
+        }
+        const rest: Record<string, unknown> = {};
+        for (const [k, v] of Object.entries(p)) if (k !== "role" && k !== "reader") rest[k] = v;
+        const spec: FieldSpec = type === "Point"
+          ? { reader: readerName, kind: "point", centerPx: reader.position(c, ""), featureIndex: i }
+          : (() => {
+            const polygon = reader.polygon(c, "");
+            return {
+              reader: readerName,
+              kind: "polygon",
+              centerPx: polygonCentroidPx(polygon),
+              polygon,
+              featureIndex: i,
+            };
+          })();
+        if (Object.keys(rest).length > 0) spec.properties = rest;
+        fields.push(spec);
+        break;
+      }
+    }
+  }
+  if (emptyGeometries.length > 0) {
+    warnings.push(
+      `${file}: ${emptyGeometries.length} feature(s) have an empty geometry and were ignored (features ${
+        listSome(emptyGeometries)
+      })`,
+    );
+  }
+  if (beyondSlide.length > 0) {
+    warnings.push(
+      `${file}: ${beyondSlide.length} region feature(s) reach beyond the slide's ${
+        slide.widthPx ?? "?"
+      } × ${slide.heightPx ?? "?"} px (features ${listSome(beyondSlide)})`,
+    );
+  }
+  const figureSet = figures.build();
+  warnings.push(...figurePositionWarnings(figureSet, slide, file, "feature"));
+  return { slide, tissue, tumour, exclude, figures: figureSet, fields, warnings };
+}
+
+type Fail = (
+  Cls: typeof TypeError | typeof RangeError | typeof SyntaxError,
+  detail: string,
+) => Error;
+
+function listSome(xs: number[]): string {
+  return xs.slice(0, 5).join(", ") + (xs.length > 5 ? ", ..." : "");
+}
+
+function isBeyond([x, y]: Vec2, slide: SlideInfo): boolean {
+  return x < 0 || y < 0 || (slide.widthPx !== undefined && x > slide.widthPx) ||
+    (slide.heightPx !== undefined && y > slide.heightPx);
+}
+
+function checkRole(raw: unknown, at: string, fail: Fail): AnnotationRole {
+  const known = ANNOTATION_ROLES.join(", ");
+  if (raw === undefined || raw === null) {
+    throw fail(TypeError, `${at} has no "role" in its properties; known roles: ${known}`);
+  }
+  if (typeof raw === "string" && (ANNOTATION_ROLES as readonly string[]).includes(raw)) {
+    return raw as AnnotationRole;
+  }
+  let hint = "";
+  if (typeof raw === "string") {
+    const t = raw.trim().toLowerCase();
+    const guess = t === "tumor"
+      ? "tumour"
+      : (ANNOTATION_ROLES as readonly string[]).includes(t)
+      ? t
+      : "";
+    if (guess) hint = ` (did you mean "${guess}"?)`;
+  }
+  throw fail(TypeError, `${at} has unknown role ${describe(raw)}${hint}; known roles: ${known}`);
+}
+
+function figureLabel(raw: unknown, at: string, fail: Fail): string {
+  if (raw === undefined || raw === null) return DEFAULT_FIGURE_LABEL;
+  if (typeof raw !== "string") {
+    throw fail(
+      TypeError,
+      `${at} (role "figure") has a "label" that is not a string: found ${describe(raw)}`,
+    );
+  }
+  const label = raw.trim();
+  return label === "" ? DEFAULT_FIGURE_LABEL : label;
+}
+
+function figureScore(raw: unknown, at: string, fail: Fail): number {
+  if (raw === undefined || raw === null) return NaN;
+  if (typeof raw !== "number") {
+    throw fail(
+      TypeError,
+      `${at} (role "figure") has a "score" that is not a number in [0, 1]: found ${describe(raw)}`,
+    );
+  }
+  if (!(raw >= 0 && raw <= 1)) {
+    const hint = raw > 1 && raw <= 100
+      ? " (a percentage? give scores as fractions, e.g. 0.87)"
+      : "";
+    throw fail(RangeError, `${at} (role "figure") has score ${raw} outside [0, 1]${hint}`);
+  }
+  return raw;
+}
+
+/** Reads RFC 7946 coordinate arrays, naming the place of any problem. */
+class GeometryReader {
+  constructor(private at: string, private fail: Fail) {}
+
+  position(raw: unknown, where: string): Vec2 {
+    if (!Array.isArray(raw) || raw.length < 2) {
+      throw this.fail(
+        TypeError,
+        `${this.at}${where}: a position must be an array of at least two numbers [x, y] (RFC 7946 §3.1.1): found ${
+          describe(raw)
+        }`,
+      );
+    }
+    const [x, y] = raw;
+    for (const v of [x, y]) {
+      if (typeof v !== "number") {
+        throw this.fail(
+          TypeError,
+          `${this.at}${where}: position ${describe(raw)} has a non-numeric coordinate ${
+            describe(v)
+          } (RFC 7946 §3.1.1 positions are numbers)`,
+        );
+      }
+      if (!Number.isFinite(v)) {
+        throw this.fail(TypeError, `${this.at}${where}: position has a non-finite coordinate ${v}`);
+      }
+    }
+    return [x, y];
+  }
+
+  positions(raw: unknown): Vec2[] {
+    if (!Array.isArray(raw)) {
+      throw this.fail(
+        TypeError,
+        `${this.at}: MultiPoint "coordinates" must be an array of positions: found ${
+          describe(raw)
+        }`,
+      );
+    }
+    return raw.map((q, k) => this.position(q, ` position ${k}`));
+  }
+
+  ring(raw: unknown, where: string): Ring {
+    if (!Array.isArray(raw)) {
+      throw this.fail(
+        TypeError,
+        `${this.at}${where}: a ring must be an array of positions: found ${describe(raw)}`,
+      );
+    }
+    const ring = raw.map((q, k) => this.position(q, `${where} position ${k}`));
+    if (ring.length < 4) {
+      throw this.fail(
+        TypeError,
+        `${this.at}${where} has ${ring.length} position(s); a polygon ring needs at least 4 (RFC 7946 §3.1.6: a closed LinearRing with four or more positions)`,
+      );
+    }
+    const a = ring[0];
+    const b = ring[ring.length - 1];
+    if (a[0] !== b[0] || a[1] !== b[1]) {
+      throw this.fail(
+        TypeError,
+        `${this.at}${where} is not closed: first position [${a}] differs from last [${b}] (RFC 7946 §3.1.6: first and last positions must be identical)`,
+      );
+    }
+    return ring;
+  }
+
+  polygon(raw: unknown, where: string): PolygonPx {
+    if (!Array.isArray(raw) || raw.length === 0) {
+      throw this.fail(
+        TypeError,
+        `${this.at}${where}: Polygon "coordinates" must be a non-empty array of rings (RFC 7946 §3.1.6): found ${
+          describe(raw)
+        }`,
+      );
+    }
+    return raw.map((r, k) => this.ring(r, `${where} ring ${k}`));
+  }
+
+  multiPolygon(raw: unknown): MultiPolygonPx {
+    if (!Array.isArray(raw)) {
+      throw this.fail(
+        TypeError,
+        `${this.at}: MultiPolygon "coordinates" must be an array of polygons (RFC 7946 §3.1.7): found ${
+          describe(raw)
+        }`,
+      );
+    }
+    return raw.map((poly, k) => this.polygon(poly, ` polygon ${k}`));
+  }
+}

@@ -1,0 +1,503 @@
+/**
+ * Reading a whole case: an annotation GeoJSON, optionally a figures CSV and a
+ * PNG tissue mask, named directly or through a small case file.
+ *
+ * ## The case file (`*.case.json`, version 1)
+ *
+ * ```json
+ * {
+ *   "hotfield_case": 1,
+ *   "id": "QVT-24-003",
+ *   "annotations": "QVT-24-003.geojson",
+ *   "figures": { "path": "QVT-24-003.figures.csv", "units": "px" },
+ *   "tissue_mask": { "path": "QVT-24-003.tissue.png", "mpp": 8 },
+ *   "slide": { "id": "QVT-24-003", "mpp": 0.25, "width": 80000, "height": 60000 },
+ *   "notes": "free text, ignored"
+ * }
+ * ```
+ *
+ * - `hotfield_case` (required) is the format version; only `1` exists.
+ * - Paths are relative to the case file's folder (absolute paths also work).
+ * - `figures` may be a plain path string (then `units` is `"px"`); `units` is
+ *   `"px"` (level-0 pixels) or `"um"` (micrometres from the slide origin).
+ * - `tissue_mask.mpp` is the mask's own micrometres per mask pixel, one
+ *   number or `[x, y]`; it is required.
+ * - `slide` has the shape of the GeoJSON `slide` member; its fields replace
+ *   the annotation file's field by field (a warning names each change). With
+ *   no `annotations`, `slide` must give the mpp, and the tissue comes from the
+ *   mask and the figures from the CSV.
+ * - Unknown members are an error, so that a misspelt name is not ignored.
+ *
+ * ## How inputs combine
+ *
+ * - Tissue: the mask's polygons and any `tissue` polygons of the GeoJSON are
+ *   united (a warning says so when both are present).
+ * - Figures: when a figures CSV is given, its points are used and any
+ *   `figure` features of the GeoJSON are ignored, with a warning. Combining
+ *   both would count a figure twice whenever both inputs mark it.
+ * - Case id: the `--id` override, else `slide.id`, else the case file's `id`,
+ *   else the file stem (annotation file, else case file), made safe with
+ *   {@linkcode safeCaseId}.
+ *
+ * @module
+ */
+
+import { createHash } from "node:crypto";
+import { readFile } from "node:fs/promises";
+import { basename, dirname, isAbsolute, join } from "node:path";
+import { inputError } from "../errors.ts";
+import type { CaseData, CaseSource, RegionPart, SlideInfo } from "../types.ts";
+import { checkMaskSize, decodeMaskPng, maskToPolygons } from "../tissue/read_mask.ts";
+import { describe } from "./_describe.ts";
+import { emptyFigureSet } from "./_figure_builder.ts";
+import { figurePositionWarnings } from "./_figure_checks.ts";
+import { locateJsonProblem } from "./_json_location.ts";
+import { safeCaseId } from "./case_id.ts";
+import { parseAnnotations } from "./read_annotations.ts";
+import { parseFiguresCsv } from "./read_figures_csv.ts";
+import { parseSlideInfo, type SlideMember } from "./slide_info.ts";
+
+/** The files and settings of one case, before reading. */
+export interface CaseInput {
+  /** Annotation GeoJSON (regions, figures, fields, slide). */
+  annotationsPath?: string;
+  /** Figures CSV, replacing the GeoJSON's figure features. */
+  figuresPath?: string;
+  /** Unit of the CSV's x and y. @default "px" */
+  figureUnits?: "px" | "um";
+  /** PNG tissue mask (non-zero pixels are tissue). */
+  tissueMaskPath?: string;
+  /** Micrometres per mask pixel, one value or `[x, y]`; required with a mask. */
+  maskMpp?: number | [number, number];
+  /** The case file these came from, if any (recorded in `sources`). */
+  caseFilePath?: string;
+  /** Case id chosen by the user; wins over every other id. */
+  idOverride?: string;
+  /** The case file's `id`, used when the slide has none. */
+  caseFileId?: string;
+  /** Slide fields replacing those of the annotation file. */
+  slide?: SlideMember;
+}
+
+/** The version of the case-file format this code reads. */
+export const CASE_FILE_VERSION = 1;
+
+const CASE_KEYS = [
+  "hotfield_case",
+  "id",
+  "annotations",
+  "figures",
+  "tissue_mask",
+  "slide",
+  "notes",
+];
+
+/**
+ * Reads a case file (see the module documentation for the format) into a
+ * {@linkcode CaseInput}, with paths resolved against the case file's folder.
+ * The files it names are not read here.
+ *
+ * @param path The case file.
+ * @returns The case input.
+ * @throws {Error} When the file cannot be read.
+ * @throws {SyntaxError} When it is not JSON.
+ * @throws {TypeError} When a member is missing, unknown or of the wrong type.
+ * @throws {RangeError} When the version is not 1.
+ *
+ * @example Reading the test fixture's case file
+ * ```ts
+ * import { readCaseFile } from "./read_case.ts";
+ * import { fileURLToPath } from "node:url";
+ * const path = fileURLToPath(
+ *   new URL("../../test/fixtures/annotations/QVT-24-011.case.json", import.meta.url),
+ * );
+ * const input = await readCaseFile(path);
+ * if (!input.annotationsPath?.endsWith("QVT-24-011.geojson") || input.maskMpp !== 16) {
+ *   throw new Error(JSON.stringify(input));
+ * }
+ * ```
+ */
+export async function readCaseFile(path: string): Promise<CaseInput> {
+  const text = decodeText(await readBytes(path, "case file"), "case file", path);
+  return parseCaseFile(text, path);
+}
+
+/**
+ * Parses the text of a case file (see {@linkcode readCaseFile}).
+ *
+ * @param text The file's text.
+ * @param path The case file's path: names it in messages and anchors relative paths.
+ * @returns The case input.
+ *
+ * @example Figures as a plain path
+ * ```ts
+ * import { parseCaseFile } from "./read_case.ts";
+ * const input = parseCaseFile('{"hotfield_case": 1, "annotations": "a.geojson", "figures": "f.csv"}', "cases/x.case.json");
+ * if (input.figuresPath !== "cases/f.csv" || input.figureUnits !== "px") throw new Error();
+ * ```
+ */
+export function parseCaseFile(text: string, path: string): CaseInput {
+  const what = "case file";
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  if (text.trim() === "") throw inputError(SyntaxError, what, path, "the file is empty");
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (e) {
+    const where = locateJsonProblem(text);
+    throw inputError(
+      SyntaxError,
+      what,
+      path,
+      where
+        ? `not valid JSON: line ${where.line}, column ${where.column}: ${where.problem}`
+        : `not valid JSON: ${(e as Error).message}`,
+    );
+  }
+  if (raw === null || typeof raw !== "object" || Array.isArray(raw)) {
+    throw inputError(TypeError, what, path, `must hold a JSON object: found ${describe(raw)}`);
+  }
+  const c = raw as Record<string, unknown>;
+  if (c.hotfield_case === undefined) {
+    throw inputError(
+      TypeError,
+      what,
+      path,
+      `not a hotfield case file: no "hotfield_case": 1 member`,
+    );
+  }
+  if (c.hotfield_case !== CASE_FILE_VERSION) {
+    throw inputError(
+      RangeError,
+      what,
+      path,
+      `"hotfield_case" ${
+        describe(c.hotfield_case)
+      } is not a version this hotfield reads (${CASE_FILE_VERSION})`,
+    );
+  }
+  for (const k of Object.keys(c)) {
+    if (!CASE_KEYS.includes(k)) {
+      throw inputError(
+        TypeError,
+        what,
+        path,
+        `unknown member "${k}"; known members: ${CASE_KEYS.join(", ")}`,
+      );
+    }
+  }
+  const dir = dirname(path);
+  const resolve = (p: string) => (isAbsolute(p) ? p : join(dir, p));
+  const needPath = (v: unknown, name: string): string => {
+    if (typeof v !== "string" || v.trim() === "") {
+      throw inputError(
+        TypeError,
+        what,
+        path,
+        `"${name}" must be a file path (a non-empty string): found ${describe(v)}`,
+      );
+    }
+    return resolve(v);
+  };
+  const input: CaseInput = { caseFilePath: path };
+  if (c.id !== undefined) {
+    if (typeof c.id !== "string") {
+      throw inputError(TypeError, what, path, `"id" must be a string: found ${describe(c.id)}`);
+    }
+    input.caseFileId = c.id;
+  }
+  if (c.annotations !== undefined) input.annotationsPath = needPath(c.annotations, "annotations");
+  if (c.figures !== undefined) {
+    if (typeof c.figures === "string") {
+      input.figuresPath = needPath(c.figures, "figures");
+      input.figureUnits = "px";
+    } else if (c.figures !== null && typeof c.figures === "object" && !Array.isArray(c.figures)) {
+      const f = c.figures as Record<string, unknown>;
+      for (const k of Object.keys(f)) {
+        if (k !== "path" && k !== "units") {
+          throw inputError(
+            TypeError,
+            what,
+            path,
+            `unknown member "figures.${k}"; known: path, units`,
+          );
+        }
+      }
+      input.figuresPath = needPath(f.path, "figures.path");
+      const units = f.units ?? "px";
+      if (units !== "px" && units !== "um") {
+        throw inputError(
+          TypeError,
+          what,
+          path,
+          `"figures.units" must be "px" or "um": found ${describe(units)}`,
+        );
+      }
+      input.figureUnits = units;
+    } else {
+      throw inputError(
+        TypeError,
+        what,
+        path,
+        `"figures" must be a path or {"path": ..., "units": "px" | "um"}: found ${
+          describe(c.figures)
+        }`,
+      );
+    }
+  }
+  if (c.tissue_mask !== undefined) {
+    const m = c.tissue_mask;
+    if (m === null || typeof m !== "object" || Array.isArray(m)) {
+      throw inputError(
+        TypeError,
+        what,
+        path,
+        `"tissue_mask" must be {"path": "mask.png", "mpp": micrometres per mask pixel}: found ${
+          describe(m)
+        }`,
+      );
+    }
+    const mm = m as Record<string, unknown>;
+    for (const k of Object.keys(mm)) {
+      if (k !== "path" && k !== "mpp") {
+        throw inputError(
+          TypeError,
+          what,
+          path,
+          `unknown member "tissue_mask.${k}"; known: path, mpp`,
+        );
+      }
+    }
+    input.tissueMaskPath = needPath(mm.path, "tissue_mask.path");
+    if (mm.mpp === undefined) {
+      throw inputError(
+        TypeError,
+        what,
+        path,
+        `"tissue_mask.mpp" is missing; give the mask's micrometres per mask pixel, e.g. "tissue_mask": {"path": "mask.png", "mpp": 8}`,
+      );
+    }
+    input.maskMpp = checkMaskMpp(
+      mm.mpp,
+      (detail) => inputError(TypeError, what, path, `"tissue_mask.mpp" ${detail}`),
+    );
+  }
+  if (c.slide !== undefined) {
+    if (c.slide === null || typeof c.slide !== "object" || Array.isArray(c.slide)) {
+      throw inputError(
+        TypeError,
+        what,
+        path,
+        `"slide" must be an object like the GeoJSON slide member: found ${describe(c.slide)}`,
+      );
+    }
+    input.slide = c.slide as SlideMember;
+  }
+  if (input.annotationsPath === undefined && input.slide === undefined) {
+    throw inputError(
+      TypeError,
+      what,
+      path,
+      `names no "annotations" file and no "slide"; give at least an annotation GeoJSON, or a "slide" with its mpp plus a tissue mask`,
+    );
+  }
+  return input;
+}
+
+/**
+ * Checks a mask mpp (one number or `[x, y]`, each positive and finite).
+ * `fail(detail)` builds the error to throw.
+ */
+function checkMaskMpp(
+  v: unknown,
+  fail: (detail: string) => Error,
+): number | [number, number] {
+  const ok = (x: unknown) => typeof x === "number" && Number.isFinite(x) && x > 0;
+  if (ok(v)) return v as number;
+  if (Array.isArray(v) && v.length === 2 && v.every(ok)) return [v[0], v[1]];
+  throw fail(
+    `must be a positive number of micrometres per mask pixel, or a pair [x, y]: found ${
+      describe(v)
+    }`,
+  );
+}
+
+/**
+ * Reads every file of a case, checks it, and gathers it into
+ * {@linkcode CaseData} with the sha256 of each file in `sources`.
+ *
+ * See the module documentation for how the inputs combine. Mask polygons are
+ * scaled into level-0 pixels by mask mpp ÷ slide mpp along each axis.
+ *
+ * @param input The files and settings.
+ * @returns The case, all checks done, with its warnings.
+ * @throws {Error} When a file is missing or unreadable (message names it).
+ * @throws {SyntaxError | TypeError | RangeError} For bad content (see the readers).
+ *
+ * @example Loading the test fixture's case (GeoJSON, figures CSV and mask)
+ * ```ts
+ * import { loadCase, readCaseFile } from "./read_case.ts";
+ * import { fileURLToPath } from "node:url";
+ * const path = fileURLToPath(
+ *   new URL("../../test/fixtures/annotations/QVT-24-011.case.json", import.meta.url),
+ * );
+ * const c = await loadCase(await readCaseFile(path));
+ * if (c.caseId !== "QVT-24-011" || c.figures.xPx.length !== 4 || c.sources.length !== 4) {
+ *   throw new Error();
+ * }
+ * if (c.sources.some((s) => s.sha256.length !== 64)) throw new Error("hex sha256 of each file");
+ * ```
+ */
+export async function loadCase(input: CaseInput): Promise<CaseData> {
+  const warnings: string[] = [];
+  const sources: CaseSource[] = [];
+  const record = (kind: CaseSource["kind"], path: string, bytes: Uint8Array) =>
+    sources.push({ kind, path, sha256: createHash("sha256").update(bytes).digest("hex") });
+
+  if (input.caseFilePath !== undefined) {
+    record("case", input.caseFilePath, await readBytes(input.caseFilePath, "case file"));
+  }
+
+  let slide: SlideInfo;
+  let tissue: RegionPart[] = [];
+  let tumour: RegionPart[] = [];
+  let exclude: RegionPart[] = [];
+  let figures = emptyFigureSet();
+  let fields: CaseData["fields"] = [];
+  const mainFile = input.annotationsPath ?? input.caseFilePath;
+
+  if (input.annotationsPath !== undefined) {
+    const path = input.annotationsPath;
+    const bytes = await readBytes(path, "annotations");
+    record("annotations", path, bytes);
+    const parsed = parseAnnotations(decodeText(bytes, "annotations", path), {
+      fileName: path,
+      slide: input.slide,
+    });
+    ({ slide, tissue, tumour, exclude, figures, fields } = parsed);
+    warnings.push(...parsed.warnings);
+  } else if (input.slide !== undefined) {
+    slide = parseSlideInfo(input.slide, {
+      what: "case file",
+      fileName: input.caseFilePath ?? "(options)",
+    });
+  } else {
+    throw new TypeError("Cannot read case: no annotation file and no slide information given");
+  }
+
+  if (input.figuresPath !== undefined) {
+    const path = input.figuresPath;
+    const bytes = await readBytes(path, "figures CSV");
+    record("figures", path, bytes);
+    const csv = parseFiguresCsv(decodeText(bytes, "figures CSV", path), {
+      fileName: path,
+      units: input.figureUnits ?? "px",
+      mppX: slide.mppX,
+      mppY: slide.mppY,
+    });
+    warnings.push(...csv.warnings);
+    if (figures.xPx.length > 0) {
+      warnings.push(
+        `Figures are read from ${path} (${csv.figures.xPx.length} points); the ${figures.xPx.length} figure points in ${input.annotationsPath} are ignored`,
+      );
+    }
+    figures = csv.figures;
+    warnings.push(...figurePositionWarnings(figures, slide, path, "line"));
+  }
+
+  if (input.tissueMaskPath !== undefined) {
+    const path = input.tissueMaskPath;
+    if (input.maskMpp === undefined) {
+      throw inputError(
+        TypeError,
+        "tissue mask",
+        path,
+        'its micrometres per mask pixel are not given (--mask-mpp, or "mpp" in the case file\'s tissue_mask)',
+      );
+    }
+    const maskMpp = checkMaskMpp(
+      input.maskMpp,
+      (detail) => inputError(RangeError, "tissue mask", path, `mask mpp ${detail}`),
+    );
+    const [maskMppX, maskMppY] = typeof maskMpp === "number" ? [maskMpp, maskMpp] : maskMpp;
+    const bytes = await readBytes(path, "tissue mask");
+    record("tissue-mask", path, bytes);
+    const mask = decodeMaskPng(bytes, { fileName: path });
+    // throws when the size disagrees; returns warnings for unknown sizes or small mismatches
+    warnings.push(...checkMaskSize(mask, [maskMppX, maskMppY], slide, path));
+    if (maskMppX < slide.mppX || maskMppY < slide.mppY) {
+      warnings.push(
+        `${path}: mask mpp ${maskMppX}, ${maskMppY} is finer than the slide's ${slide.mppX}, ${slide.mppY} µm/px; masks are usually coarser`,
+      );
+    }
+    const polygons = maskToPolygons(mask, {
+      scaleX: maskMppX / slide.mppX,
+      scaleY: maskMppY / slide.mppY,
+    });
+    if (polygons.length === 0) {
+      warnings.push(`${path}: the mask has no tissue pixels (all zero)`);
+    } else {
+      if (tissue.length > 0) {
+        warnings.push(
+          `Tissue is the union of ${path} and the ${tissue.length} tissue polygon feature(s) of ${input.annotationsPath}`,
+        );
+      }
+      tissue = [...tissue, { polygons, source: path }];
+    }
+  }
+
+  if (tissue.length === 0 && tumour.length === 0) {
+    const what = input.annotationsPath !== undefined ? "annotations" : "case file";
+    throw inputError(
+      TypeError,
+      what,
+      mainFile ?? "(options)",
+      `no tissue or tumour polygons: at least one feature with role "tissue" or "tumour" (or a tissue mask) is needed to define where figures are counted`,
+    );
+  }
+
+  const rawId = input.idOverride ?? (slide.id !== "" ? slide.id : undefined) ?? input.caseFileId ??
+    fileStem(mainFile ?? "case");
+  const caseId = safeCaseId(rawId);
+  if (caseId !== rawId.trim() && rawId.trim() !== "") {
+    warnings.push(`Case id "${rawId}" is written "${caseId}" so that it is safe as a folder name`);
+  }
+  if (figures.xPx.length === 0) warnings.push("The case has no figure points");
+  return { caseId, slide, tissue, tumour, exclude, figures, fields, sources, warnings };
+}
+
+/** The file name without folders and without `.case.json`, `.geojson` or `.json` (or another extension). */
+function fileStem(path: string): string {
+  const base = basename(path);
+  const m = /^(.*?)(\.case\.json|\.geojson|\.json|\.[^.]*)$/i.exec(base);
+  return m && m[1] !== "" ? m[1] : base;
+}
+
+async function readBytes(path: string, what: string): Promise<Uint8Array> {
+  try {
+    return new Uint8Array(await readFile(path));
+  } catch (e) {
+    const code = (e as { code?: string }).code;
+    const problem = code === "ENOENT"
+      ? "file not found"
+      : code === "EISDIR"
+      ? "it is a folder, not a file"
+      : code === "EACCES" || code === "EPERM"
+      ? "permission denied"
+      : `the file cannot be read (${(e as Error).message})`;
+    throw new Error(`Cannot read ${what} "${path}": ${problem}`);
+  }
+}
+
+function decodeText(bytes: Uint8Array, what: string, path: string): string {
+  try {
+    return new TextDecoder("utf-8", { fatal: true }).decode(bytes);
+  } catch {
+    throw inputError(
+      SyntaxError,
+      what,
+      path,
+      "not UTF-8 text (is it a binary file, such as an image?)",
+    );
+  }
+}
