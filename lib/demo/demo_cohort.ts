@@ -89,6 +89,8 @@ export interface DemoCase {
   tumourType: string;
   /** One sentence: what the case is there to show. */
   shows: string;
+  /** Id of the grading scheme that fits the tumour type (lib/standards/schemes). */
+  scheme: string;
   /** The annotation file. */
   annotations: DemoFeatureCollection;
   /** Figures given in a CSV instead of the annotation file. */
@@ -133,6 +135,7 @@ interface CaseRecipe {
   caseId: string;
   tumourType: string;
   shows: string;
+  scheme: string;
   mpp: number | [number, number];
   slideMm: [number, number];
   tissue: {
@@ -170,6 +173,7 @@ const RECIPES: CaseRecipe[] = [
   {
     caseId: "QVT-24-001",
     tumourType: MCT,
+    scheme: "canine-mct-2tier",
     shows:
       "A clearly high count: two strong foci over a busy background, far above 7 figures in 2.37 mm²; a small second tissue piece makes the tissue a MultiPolygon.",
     mpp: 0.25,
@@ -205,6 +209,7 @@ const RECIPES: CaseRecipe[] = [
   {
     caseId: "QVT-24-002",
     tumourType: MCT,
+    scheme: "canine-mct-2tier",
     shows:
       "A clearly low count: sparse figures and one weak focus, far below 7 in 2.37 mm wherever the window is placed; apoptotic bodies and pyknotic nuclei must not be counted.",
     mpp: 0.252,
@@ -225,6 +230,7 @@ const RECIPES: CaseRecipe[] = [
   {
     caseId: "QVT-24-003",
     tumourType: MCT,
+    scheme: "canine-mct-2tier",
     shows:
       "Borderline: the best 2.37 mm² holds about the cut-off of 7 figures while most placements hold fewer, so the class depends on the field; one reader drew a polygon instead of marking a centre.",
     mpp: 0.246,
@@ -252,6 +258,7 @@ const RECIPES: CaseRecipe[] = [
   {
     caseId: "QVT-24-004",
     tumourType: MCT,
+    scheme: "canine-mct-2tier",
     shows:
       "Borderline, scanned with unequal pixel sides (0.2485 × 0.2512 µm): detector points with scores, one focus near the cut-off, an out-of-focus band excluded.",
     mpp: [0.2485, 0.2512],
@@ -280,6 +287,7 @@ const RECIPES: CaseRecipe[] = [
   {
     caseId: "QVT-24-005",
     tumourType: MCT,
+    scheme: "canine-mct-2tier",
     shows:
       "A small incisional biopsy: valid tumour tissue is well under 2.37 mm², so no window of the standard area fits and no hotspot can be placed.",
     mpp: 0.25,
@@ -308,6 +316,7 @@ const RECIPES: CaseRecipe[] = [
   {
     caseId: "QVT-24-006",
     tumourType: MCT,
+    scheme: "canine-mct-2tier",
     shows:
       "A poor choice of field: one strong focus holds well over 7 figures, but trainee-2 counted a quiet area below the cut-off; reader-a found the focus.",
     mpp: 0.2505,
@@ -332,6 +341,7 @@ const RECIPES: CaseRecipe[] = [
   {
     caseId: "QVT-24-007",
     tumourType: "canine soft tissue sarcoma",
+    scheme: "canine-sts",
     shows:
       "Tissue from a PNG mask at 16 µm per mask pixel (not the slide's 0.25 µm/px), tied to the annotations by a case file; moderate foci.",
     mpp: 0.25,
@@ -356,6 +366,7 @@ const RECIPES: CaseRecipe[] = [
   {
     caseId: "QVT-24-008",
     tumourType: "canine mammary carcinoma",
+    scheme: "canine-mammary",
     shows:
       "Figures from a detector's CSV (x,y,label,score) with many low-score candidates and lookalikes, tied to the outlines by a case file; several foci.",
     mpp: 0.243,
@@ -676,6 +687,7 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
     caseId: r.caseId,
     tumourType: r.tumourType,
     shows: r.shows,
+    scheme: r.scheme,
     annotations: { type: "FeatureCollection", slide, features },
     ...(figuresCsv ? { figuresCsv } : {}),
     ...(tissueMask ? { tissueMask } : {}),

@@ -83,7 +83,15 @@ export function maskPngBytes(mask: DemoMask): Uint8Array {
   return encode({ width: mask.width, height: mask.height, data: mask.data, channels: 1, depth: 8 });
 }
 
-/** File names of a case's pieces inside the demo folder. */
+/**
+ * File names of a case's pieces inside the demo folder.
+ *
+ * @example
+ * ```ts
+ * import { demoFileNames } from "./demo_files.ts";
+ * if (demoFileNames("QVT-24-007").tissueMask !== "QVT-24-007.tissue.png") throw new Error();
+ * ```
+ */
 export function demoFileNames(caseId: string): {
   annotations: string;
   figuresCsv: string;
@@ -99,14 +107,29 @@ export function demoFileNames(caseId: string): {
 }
 
 /**
- * The case file of a case with a mask or a figures CSV, in the format that
- * lib/annotations/read_case.ts reads (paths relative to the case file).
+ * The case file (`*.case.json`, version 1 of the format read by
+ * lib/annotations/read_case.ts) of a case with a mask or a figures CSV.
+ * Paths are relative to the case file's folder.
+ *
+ * @example A mask case names the mask's own scale
+ * ```ts
+ * import { generateDemoCohort } from "./demo_cohort.ts";
+ * import { caseFileObject } from "./demo_files.ts";
+ * const c = generateDemoCohort().find((c) => c.tissueMask)!;
+ * const file = caseFileObject(c) as { tissue_mask: { mpp: number } };
+ * if (file.tissue_mask.mpp !== 16) throw new Error();
+ * ```
  */
 export function caseFileObject(c: DemoCase): Record<string, unknown> {
   const names = demoFileNames(c.caseId);
-  const out: Record<string, unknown> = { case: c.caseId, annotations: names.annotations };
+  const out: Record<string, unknown> = {
+    hotfield_case: 1,
+    id: c.caseId,
+    annotations: names.annotations,
+  };
   if (c.figuresCsv) out.figures = { path: names.figuresCsv, units: "px" };
   if (c.tissueMask) out.tissue_mask = { path: names.tissueMask, mpp: c.tissueMask.umPerPx };
+  out.notes = `Invented case of the Quillmoor Veterinary Teaching Laboratory: ${c.tumourType}`;
   return out;
 }
 
@@ -152,7 +175,16 @@ function mppText(mpp: number | [number, number]): string {
   return typeof mpp === "number" ? `${mpp}` : `${mpp[0]} × ${mpp[1]}`;
 }
 
-/** The README of the demo folder. */
+/**
+ * The README of the demo folder: source, licence, mpp, what each case shows.
+ *
+ * @example It names the seed
+ * ```ts
+ * import { generateDemoCohort } from "./demo_cohort.ts";
+ * import { demoReadme } from "./demo_files.ts";
+ * if (!demoReadme(generateDemoCohort(3), 3).includes("seed 3")) throw new Error();
+ * ```
+ */
 export function demoReadme(cohort: DemoCase[], seed: number = DEMO_SEED): string {
   const rows = cohort.map((c) => {
     const s = c.annotations.slide;

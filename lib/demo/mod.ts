@@ -22,3 +22,7 @@ export {
 } from "./demo_files.ts";
 export type { DemoFile } from "./demo_files.ts";
 export { writeDemoData } from "./write_demo_data.ts";
+export { benchSlideGeoJson, generateBenchSlide } from "./bench_slide.ts";
+export type { BenchSlide, BenchSlideOptions } from "./bench_slide.ts";
+export { demoCaseInputs, runDemo, summaryLine } from "./run_demo.ts";
+export type { RunDemoOptions } from "./run_demo.ts";

@@ -1,0 +1,135 @@
+/**
+ * `deno task demo`: runs the main job on the invented demo cohort in
+ * data/demo/ and says where the output is.
+ *
+ * Every case is read, counted with the grading scheme that fits its tumour
+ * type, and written to `out/demo/` (report.json, hotspot GeoJSON, CSV and
+ * HTML as the report writer provides them). One summary line per case goes
+ * to stdout, then the path of `out/demo/index.html` (or of the folder when no
+ * HTML index was written).
+ *
+ * The reports depend only on the inputs and options, so the same data give
+ * the same bytes; `SOURCE_DATE_EPOCH`, when set, is left in the environment
+ * for any writer that stamps a date.
+ *
+ * @module
+ */
+
+import { existsSync, readdirSync } from "node:fs";
+import { join, relative, resolve } from "node:path";
+import { parseArgs } from "node:util";
+import { type CaseInput, loadCase, readCaseFile } from "../annotations/read_case.ts";
+import { buildCaseResult } from "../count/build_case_result.ts";
+import type { CaseResult } from "../count/engine_types.ts";
+import { writeOutputs } from "../report/write_outputs.ts";
+import { generateDemoCohort } from "./demo_cohort.ts";
+
+/**
+ * Lists the cases of a demo folder: each `*.case.json`, then each
+ * `*.geojson` that no case file names, in file-name order.
+ *
+ * @param dir The folder (e.g. data/demo).
+ * @returns One case input per case.
+ *
+ * @example One GeoJSON, one case
+ * ```ts
+ * import { demoCaseInputs } from "./run_demo.ts";
+ * const dir = Deno.makeTempDirSync();
+ * Deno.writeTextFileSync(`${dir}/QVT-24-001.geojson`, "{}");
+ * const inputs = await demoCaseInputs(dir);
+ * if (inputs.length !== 1 || !inputs[0].annotationsPath?.endsWith("QVT-24-001.geojson")) {
+ *   throw new Error();
+ * }
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
+ */
+export async function demoCaseInputs(dir: string): Promise<CaseInput[]> {
+  const names = readdirSync(dir).sort();
+  const byStem = new Map<string, CaseInput>();
+  const claimed = new Set<string>();
+  for (const name of names.filter((n) => n.endsWith(".case.json"))) {
+    const input = await readCaseFile(join(dir, name));
+    if (input.annotationsPath) claimed.add(resolve(input.annotationsPath));
+    byStem.set(name.slice(0, -".case.json".length), input);
+  }
+  for (const name of names.filter((n) => n.endsWith(".geojson"))) {
+    const path = join(dir, name);
+    if (claimed.has(resolve(path))) continue;
+    byStem.set(name.slice(0, -".geojson".length), { annotationsPath: path });
+  }
+  return [...byStem.keys()].sort().map((k) => byStem.get(k)!);
+}
+
+/** Options of {@linkcode runDemo}. */
+export interface RunDemoOptions {
+  /** Folder with the demo cases. @default "data/demo" */
+  dataDir?: string;
+  /** Output folder. @default "out/demo" */
+  outDir?: string;
+  /** Scan-test simulations per case. @default 999 */
+  simulations?: number;
+  /** Where the summary lines go. @default console.log */
+  print?: (line: string) => void;
+}
+
+/** One case's line of the demo summary, e.g. `QVT-24-001  28 in 2.37 mm²  11.81/mm²  above`. */
+export function summaryLine(result: CaseResult): string {
+  const r = result.report;
+  const id = r.case.padEnd(11);
+  if (!r.hotspot) {
+    return `${id} no admissible ${r.window.area_mm2} mm² window (valid area ${
+      r.valid_area_mm2.toFixed(2)
+    } mm²)`;
+  }
+  const c = r.classification;
+  const cls = c
+    ? `${c.class}${c.tier ? ` (${c.tier})` : ""} [${c.scheme}, cut-off ${c.cutoff}]`
+    : "";
+  return `${id} hotspot ${String(r.hotspot.count).padStart(3)} in ${r.window.area_mm2} mm²  ${
+    r.hotspot.per_mm2.toFixed(2).padStart(6)
+  }/mm²  ${cls}`;
+}
+
+/**
+ * Reads every demo case, builds its result and writes the outputs.
+ *
+ * @returns The results and the path to open (index.html or the folder).
+ */
+export async function runDemo(
+  options: RunDemoOptions = {},
+): Promise<{ results: CaseResult[]; open: string }> {
+  const dataDir = options.dataDir ?? "data/demo";
+  const outDir = options.outDir ?? join("out", "demo");
+  const print = options.print ?? ((line: string) => console.log(line));
+  const schemes = new Map(generateDemoCohort().map((c) => [c.caseId, c.scheme]));
+  const results: CaseResult[] = [];
+  for (const input of await demoCaseInputs(dataDir)) {
+    const caseData = await loadCase(input);
+    const result = buildCaseResult(caseData, {
+      scheme: schemes.get(caseData.caseId) ?? "canine-mct-2tier",
+      simulations: options.simulations ?? 999,
+      seed: 1,
+    });
+    results.push(result);
+    print(summaryLine(result));
+  }
+  writeOutputs(results, outDir);
+  const index = join(outDir, "index.html");
+  return { results, open: existsSync(index) ? index : outDir };
+}
+
+if (import.meta.main) {
+  const { values } = parseArgs({
+    args: Deno.args,
+    options: { data: { type: "string" }, out: { type: "string" } },
+  });
+  try {
+    const { open } = await runDemo({ dataDir: values.data, outDir: values.out });
+    const rel = relative(Deno.cwd(), resolve(open)) || ".";
+    console.log(`\nReports written. Open ${rel}`);
+  } catch (e) {
+    console.error(`hotfield demo: ${(e as Error).message}`);
+    if (Deno.env.get("HOTFIELD_DEBUG") === "1") console.error((e as Error).stack);
+    Deno.exit(1);
+  }
+}
