@@ -32,7 +32,6 @@ export function figurePositionWarnings(
   let outsideCount = 0;
   const w = slide.widthPx;
   const h = slide.heightPx;
-  const seen = new Map<string, number>();
   let dupCount = 0;
   const dups: number[] = [];
   const more = new Set<number[]>();
@@ -41,7 +40,20 @@ export function figurePositionWarnings(
     if (os.length < SHOW) os.push(o);
     else more.add(os);
   };
+  // exact duplicates: sort point indices by (x, y) and compare neighbours
+  const order = Uint32Array.from({ length: n }, (_, i) => i).sort((a, b) =>
+    figures.xPx[a] - figures.xPx[b] || figures.yPx[a] - figures.yPx[b] || a - b
+  );
+  const isDup = new Uint8Array(n);
+  for (let k = 1; k < n; k++) {
+    const a = order[k - 1], b = order[k];
+    if (figures.xPx[a] === figures.xPx[b] && figures.yPx[a] === figures.yPx[b]) isDup[b] = 1;
+  }
   for (let i = 0; i < n; i++) {
+    if (isDup[i]) {
+      dupCount++;
+      note(dups, figures.origin[i]);
+    }
     const x = figures.xPx[i];
     const y = figures.yPx[i];
     const o = figures.origin[i];
@@ -52,11 +64,6 @@ export function figurePositionWarnings(
       outsideCount++;
       note(outside, o);
     }
-    const key = `${x},${y}`;
-    if (seen.has(key)) {
-      dupCount++;
-      note(dups, o);
-    } else seen.set(key, o);
   }
   const list = (os: number[]) => `${originName}s ${os.join(", ")}${more.has(os) ? ", ..." : ""}`;
   if (negativeCount > 0) {
