@@ -12,7 +12,35 @@ import type { Ring } from "../types.ts";
 const CIRCLE_VERTICES = 128;
 
 /**
- * Outline of a window centred at `centerUm`, in pixels, as a closed ring.
+ * Outline of a window centred at `centerUm`, in micrometres, as a closed ring.
+ * Circles become regular 128-gons (drawing only; counts use the true circle).
+ *
+ * @example A circle's ring has 129 positions
+ * ```ts
+ * import { windowRingUm } from "./hotspot_geojson.ts";
+ * const ring = windowRingUm({ shape: "circle", areaMm2: 1, diameterUm: 1000 }, [0, 0]);
+ * if (ring.length !== 129 || ring[0][0] !== 500) throw new Error();
+ * ```
+ */
+export function windowRingUm(window: WindowShape, centerUm: [number, number]): Ring {
+  const [cx, cy] = centerUm;
+  const ring: Ring = [];
+  if (window.shape === "rect") {
+    const hw = window.widthUm / 2, hh = window.heightUm / 2;
+    ring.push([cx - hw, cy - hh], [cx + hw, cy - hh], [cx + hw, cy + hh], [cx - hw, cy + hh]);
+  } else {
+    const r = window.diameterUm / 2;
+    for (let k = 0; k < CIRCLE_VERTICES; k++) {
+      const t = (2 * Math.PI * k) / CIRCLE_VERTICES;
+      ring.push([cx + r * Math.cos(t), cy + r * Math.sin(t)]);
+    }
+  }
+  ring.push([ring[0][0], ring[0][1]]);
+  return ring;
+}
+
+/**
+ * Outline of a window centred at `centerUm`, in level-0 pixels, as a closed ring.
  * Circles become regular 128-gons (drawing only; counts use the true circle).
  *
  * @example A rectangle's ring
@@ -31,27 +59,7 @@ export function windowRingPx(
   centerUm: [number, number],
   mpp: { mppX: number; mppY: number },
 ): Ring {
-  const [cx, cy] = centerUm;
-  const ring: Ring = [];
-  if (window.shape === "rect") {
-    const hw = window.widthUm / 2, hh = window.heightUm / 2;
-    for (
-      const [x, y] of [[cx - hw, cy - hh], [cx + hw, cy - hh], [cx + hw, cy + hh], [
-        cx - hw,
-        cy + hh,
-      ]]
-    ) {
-      ring.push([x / mpp.mppX, y / mpp.mppY]);
-    }
-  } else {
-    const r = window.diameterUm / 2;
-    for (let k = 0; k < CIRCLE_VERTICES; k++) {
-      const t = (2 * Math.PI * k) / CIRCLE_VERTICES;
-      ring.push([(cx + r * Math.cos(t)) / mpp.mppX, (cy + r * Math.sin(t)) / mpp.mppY]);
-    }
-  }
-  ring.push([ring[0][0], ring[0][1]]);
-  return ring;
+  return windowRingUm(window, centerUm).map(([x, y]) => [x / mpp.mppX, y / mpp.mppY]);
 }
 
 /**

@@ -1,0 +1,114 @@
+/**
+ * The cohort page `DIR/index.html`: every case of a run with a link to its
+ * report, its headline numbers and a chart of hotspot counts by case against
+ * the cut-off (and per mm²).
+ *
+ * @module
+ */
+
+import type { CaseResult } from "../count/engine_types.ts";
+import { escapeHtml } from "./html_escape.ts";
+import { cohortFigure, cutoffCount } from "./plots.ts";
+import {
+  type CaseHtmlContext,
+  fmt,
+  plotlyScriptTag,
+  plotScripts,
+  REPORT_CAUTIONS,
+  REPORT_CSS,
+} from "./report_html.ts";
+
+/** What the cohort page shows besides the results. */
+export interface CohortHtmlContext extends Omit<CaseHtmlContext, "options"> {
+  /** Link each case to `<case>/report.html` (else to `<case>/report.json`). @default true */
+  linkHtml?: boolean;
+  /** Mention `cases.csv` and `fields.csv` beside the table. @default true */
+  linkCsv?: boolean;
+}
+
+/**
+ * Renders the cohort index page.
+ *
+ * @param results Engine results in the order to list them.
+ * @param context Where plotly.js comes from, generation time and version.
+ * @returns A complete HTML document.
+ *
+ * @example Case ids are escaped and linked
+ * ```ts
+ * import { renderCohortIndex } from "./cohort_index.ts";
+ * const html = renderCohortIndex([{
+ *   report: { case: "QVT&1", hotspot: null, classification: null, fields: [], warnings: [],
+ *     valid_area_mm2: 0, distribution: { positions: 0 } },
+ *   prepared: { caseId: "QVT&1" },
+ * }] as never, { plotlySrc: "assets/plotly.min.js", generatedAt: null, version: "0.1.0" });
+ * if (!html.includes('href="QVT%261/report.html"') || !html.includes(">QVT&amp;1<")) throw new Error();
+ * ```
+ */
+export function renderCohortIndex(
+  results: readonly CaseResult[],
+  context: CohortHtmlContext,
+): string {
+  const fig = cohortFigure(results);
+  const linkHtml = context.linkHtml ?? true;
+  const rows = results.map((res) => {
+    const r = res.report, h = r.hotspot, c = r.classification;
+    const folder = encodeURIComponent(res.prepared.caseId);
+    const href = `${folder}/${linkHtml ? "report.html" : "report.json"}`;
+    return `<tr><td><a href="${escapeHtml(href)}">${escapeHtml(r.case)}</a></td>` +
+      `<td>${h ? fmt(h.count, 0) : "none"}</td><td>${h ? fmt(h.per_mm2, 2) : "–"}</td>` +
+      `<td>${fmt(r.valid_area_mm2, 2)}</td><td>${fmt(r.distribution.positions, 0)}</td>` +
+      `<td>${c ? escapeHtml(c.scheme) : "–"}</td><td>${c ? fmt(cutoffCount(c), 0) : "–"}</td>` +
+      `<td>${c ? escapeHtml(c.class) : "–"}</td><td>${c?.tier ? escapeHtml(c.tier) : "–"}</td>` +
+      `<td>${fmt(r.fields.length, 0)}</td><td>${fmt(r.warnings.length, 0)}</td></tr>`;
+  });
+  const csvNote = (context.linkCsv ?? true)
+    ? `<p class="caption">The same numbers as tables: <a href="cases.csv">cases.csv</a> ` +
+      `(one row per case) and <a href="fields.csv">fields.csv</a> (one row per reader's field).</p>`
+    : "";
+  return `<!doctype html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="generator" content="hotfield ${escapeHtml(context.version)}">
+<title>Mitotic count reports: ${results.length} cases</title>
+<style>${REPORT_CSS}</style>
+${plotlyScriptTag(context)}
+</head>
+<body>
+<main>
+<header class="top">
+<div class="kicker">hotfield · standardized-area mitotic count</div>
+<h1>Cohort of ${results.length} case${results.length === 1 ? "" : "s"}</h1>
+<div class="meta">hotfield ${escapeHtml(context.version)}${
+    context.generatedAt ? ` · generated ${escapeHtml(context.generatedAt)}` : ""
+  }</div>
+</header>
+<aside class="caution" role="note"><strong>Read with care.</strong><ul>${
+    REPORT_CAUTIONS.map((s) => `<li>${escapeHtml(s)}</li>`).join("")
+  }</ul></aside>
+<section><h2>Cases</h2>
+<div class="table-wrap"><table><thead><tr><th>case</th><th>hotspot count</th><th>per mm²</th>` +
+    `<th>valid mm²</th><th>positions</th><th>scheme</th><th>cut-off (count)</th><th>class</th>` +
+    `<th>tier</th><th>fields</th><th>warnings</th></tr></thead>
+<tbody>
+${rows.join("\n")}
+</tbody></table></div>
+${csvNote}
+</section>
+<section><h2>Hotspots by case</h2>
+<div id="plot-cohort" class="plot" style="min-height:${(fig.layout.height as number) + 2}px"></div>
+<p class="caption">${escapeHtml(fig.caption)}</p>
+</section>
+<footer>hotfield ${escapeHtml(context.version)}.</footer>
+</main>
+${
+      plotScripts(
+        [{ id: "plot-cohort", figure: { data: fig.data, layout: fig.layout } }],
+        context.plotlySrc ?? "inline",
+      )
+    }
+</body>
+</html>
+`;
+}

@@ -1,0 +1,475 @@
+/**
+ * The per-case HTML report (`DIR/<case>/report.html`): one self-describing
+ * page that opens offline, with the cautions, the count map, the
+ * distribution of window counts and tables of every number.
+ *
+ * Everything taken from input is escaped (text with {@linkcode escapeHtml},
+ * plot data with {@linkcode jsonForScript}); the page loads nothing from the
+ * network.
+ *
+ * @module
+ */
+
+import type { CaseResult } from "../count/engine_types.ts";
+import type { ReportPlacement } from "./report_types.ts";
+import { escapeHtml, jsonForScript } from "./html_escape.ts";
+import {
+  countMapFigure,
+  cutoffCount,
+  distributionFigure,
+  PLOT_CONFIG,
+  readerName,
+  windowWords,
+} from "./plots.ts";
+
+/** What a report page shows besides the result itself. */
+export interface CaseHtmlContext {
+  /** Relative path of the shared plotly.js, or null when it is inlined. */
+  plotlySrc: string | null;
+  /** The plotly.js source to inline when `plotlySrc` is null. */
+  plotlyInline?: string;
+  /** Generation time shown (ISO 8601), or null to leave it out. */
+  generatedAt: string | null;
+  /** hotfield version. */
+  version: string;
+  /** Options of the run, shown as given (keys sorted). */
+  options: Record<string, unknown>;
+}
+
+/** The cautions every report carries, as plain sentences. */
+export const REPORT_CAUTIONS: readonly string[] = [
+  "hotfield is a research and quality-assurance aid, not a diagnosis.",
+  "A pathologist reviews the slide and confirms every count and grade.",
+  "Follow local grading guidelines and licensed practice; the numbers here " +
+  "depend on the annotations, the figure labels and the options shown below.",
+];
+
+/** Inline a script so no text in it can close the element or open a comment. */
+export function inlineScriptSource(source: string): string {
+  return source.replace(/<\/(script)/gi, "<\\/$1").replace(/<!--/g, "<\\!--");
+}
+
+/** Formats a number for a table: fixed decimals, or a dash when missing. */
+export function fmt(value: unknown, digits = 2): string {
+  if (typeof value !== "number" || !Number.isFinite(value)) return "–";
+  if (Number.isInteger(value) && digits > 0 && Math.abs(value) < 1e15) return String(value);
+  return value.toFixed(digits);
+}
+
+function pct(value: unknown, digits = 1): string {
+  return typeof value === "number" && Number.isFinite(value)
+    ? `${(value * 100).toFixed(digits)}%`
+    : "–";
+}
+
+function px(c: [number, number] | undefined): string {
+  return c ? `${c[0].toFixed(0)}, ${c[1].toFixed(0)}` : "–";
+}
+
+function table(head: string[], rows: string[][], cls = ""): string {
+  const th = head.map((h) => `<th scope="col">${h}</th>`).join("");
+  const body = rows.map((r) => `<tr>${r.map((c) => `<td>${c}</td>`).join("")}</tr>`).join("\n");
+  return `<div class="table-wrap"><table class="${cls}"><thead><tr>${th}</tr></thead>` +
+    `<tbody>\n${body}\n</tbody></table></div>`;
+}
+
+function keyValues(rows: [string, string][]): string {
+  return `<dl class="kv">${
+    rows.map(([k, v]) => `<div><dt>${k}</dt><dd>${v}</dd></div>`).join("")
+  }</dl>`;
+}
+
+function stableStringify(value: unknown): string {
+  if (value === undefined) return "–";
+  return JSON.stringify(
+    value,
+    (_k, v) =>
+      v && typeof v === "object" && !Array.isArray(v)
+        ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, v[k]]))
+        : v,
+  );
+}
+
+/** Shared page style: our own quiet, print-friendly look. */
+export const REPORT_CSS = `
+:root{--ink:#1b1f24;--muted:#5b6570;--line:#d5dae0;--panel:#f6f7f9;--accent:#0072B2;--warn:#8a4b00;--warnbg:#fff6e6}
+*{box-sizing:border-box}
+body{margin:0;font:15px/1.5 system-ui,-apple-system,"Segoe UI",Roboto,"Helvetica Neue",Arial,sans-serif;color:var(--ink);background:#fff}
+main{max-width:1180px;margin:0 auto;padding:24px 28px 48px}
+header.top{border-bottom:3px solid var(--ink);padding-bottom:12px;margin-bottom:18px}
+header.top .kicker{font-size:12px;letter-spacing:.08em;text-transform:uppercase;color:var(--muted)}
+h1{font-size:28px;margin:2px 0 4px;font-weight:700}
+h2{font-size:19px;margin:34px 0 10px;padding-bottom:4px;border-bottom:1px solid var(--line)}
+h3{font-size:15px;margin:18px 0 6px}
+.meta{color:var(--muted);font-size:13px}
+.caution{border-left:5px solid var(--warn);background:var(--warnbg);padding:10px 14px;margin:14px 0;border-radius:2px}
+.caution strong{color:var(--warn)}
+.caution ul{margin:4px 0 0 18px;padding:0}
+.cards{display:grid;grid-template-columns:repeat(auto-fit,minmax(170px,1fr));gap:10px;margin:14px 0}
+.card{background:var(--panel);border:1px solid var(--line);border-radius:4px;padding:10px 12px}
+.card .label{font-size:12px;color:var(--muted);text-transform:uppercase;letter-spacing:.05em}
+.card .value{font-size:24px;font-weight:700;font-variant-numeric:tabular-nums}
+.card .sub{font-size:12px;color:var(--muted)}
+.plot{width:100%;min-height:360px;border:1px solid var(--line);border-radius:4px}
+.caption{font-size:13px;color:var(--muted);margin:6px 0 0}
+.table-wrap{overflow-x:auto}
+table{border-collapse:collapse;width:100%;font-size:14px;font-variant-numeric:tabular-nums;margin:4px 0 8px}
+th,td{text-align:left;padding:5px 10px;border-bottom:1px solid var(--line);vertical-align:top}
+th{background:var(--panel);font-weight:600}
+td.hash,code{font-family:ui-monospace,SFMono-Regular,Menlo,Consolas,monospace;font-size:12.5px;word-break:break-all}
+dl.kv{display:grid;grid-template-columns:repeat(auto-fit,minmax(260px,1fr));gap:2px 18px;margin:4px 0}
+dl.kv div{display:flex;gap:8px;border-bottom:1px dotted var(--line);padding:3px 0}
+dl.kv dt{color:var(--muted);min-width:150px}
+dl.kv dd{margin:0;font-variant-numeric:tabular-nums}
+.warnings li{margin:2px 0}
+.none{color:var(--muted);font-style:italic}
+.noplot{padding:24px;color:var(--warn)}
+footer{margin-top:40px;font-size:12px;color:var(--muted);border-top:1px solid var(--line);padding-top:10px}
+@media print{.plot{break-inside:avoid}}
+`;
+
+/** The `<script>` that loads plotly.js: a relative file, or the inlined source. */
+export function plotlyScriptTag(
+  context: Pick<CaseHtmlContext, "plotlySrc" | "plotlyInline">,
+): string {
+  if (context.plotlySrc !== null) {
+    return `<script src="${escapeHtml(context.plotlySrc)}"></script>`;
+  }
+  if (context.plotlyInline === undefined) {
+    throw new Error("Cannot inline plotly.js: no source was given");
+  }
+  return `<script>${inlineScriptSource(context.plotlyInline)}</script>`;
+}
+
+/**
+ * The script that draws the plots whose specs are in the JSON block
+ * `#hotfield-plots`, then sets `data-plots-ready` on `<body>` ("true", or
+ * "missing" when plotly.js could not be loaded).
+ */
+export const DRAW_PLOTS_SCRIPT = `(function(){
+var specs=JSON.parse(document.getElementById("hotfield-plots").textContent);
+var body=document.body;
+if(typeof Plotly==="undefined"){
+  specs.forEach(function(s){var el=document.getElementById(s.id);if(el){el.innerHTML='<p class="noplot">The plots need plotly.js ('+s.asset+'), which was not found next to this report.</p>';}});
+  body.setAttribute("data-plots-ready","missing");return;
+}
+Promise.all(specs.map(function(s){return Plotly.newPlot(s.id,s.figure.data,s.figure.layout,s.config);}))
+  .then(function(){body.setAttribute("data-plots-ready","true");},
+        function(e){body.setAttribute("data-plots-ready","error");throw e;});
+})();`;
+
+/** One plot for the page. */
+export interface PagePlot {
+  id: string;
+  figure: { data: unknown[]; layout: unknown };
+  config?: Record<string, unknown>;
+}
+
+/** The data block and draw script for a page's plots. */
+export function plotScripts(plots: PagePlot[], asset: string): string {
+  const specs = plots.map((p) => ({
+    id: p.id,
+    figure: p.figure,
+    config: p.config ?? PLOT_CONFIG,
+    asset,
+  }));
+  return `<script type="application/json" id="hotfield-plots">${jsonForScript(specs)}</script>\n` +
+    `<script>${DRAW_PLOTS_SCRIPT}</script>`;
+}
+
+function placementRow(label: string, p: ReportPlacement): string[] {
+  return [
+    label,
+    fmt(p.count, 0),
+    fmt(p.per_mm2, 2),
+    pct(p.coverage),
+    px(p.center_px),
+    p.center_um ? `${p.center_um[0].toFixed(0)}, ${p.center_um[1].toFixed(0)}` : "–",
+  ];
+}
+
+/**
+ * Renders the HTML report of one case.
+ *
+ * @param result The engine result of the case.
+ * @param context Where plotly.js comes from, the generation time, version and options.
+ * @returns A complete HTML document.
+ *
+ * @example Names from input are escaped
+ * ```ts
+ * import { renderCaseHtml } from "./report_html.ts";
+ * const grid = { x0Um: 0, y0Um: 0, strideUm: 10, nx: 0, ny: 0 };
+ * const result = {
+ *   report: {
+ *     schema: "hotfield.report/1", case: "<b>QVT</b>",
+ *     window: { shape: "circle", area_mm2: 2.37, diameter_um: 1737.1 },
+ *     settings: { stride_um: 50, min_coverage: 0.95, min_score: 0, count_labels: ["mitotic figure"] },
+ *     valid_area_mm2: 0, figures: { total: 0, counted: 0, outside_valid: 0, below_score: 0 },
+ *     hotspot: null,
+ *     distribution: { positions: 0, min: null, q1: null, median: null, q3: null, max: null, mean: null },
+ *     fields: [], classification: null, warnings: ["No admissible window position"],
+ *   },
+ *   prepared: { caseId: "QVT", slide: { id: "QVT", mppX: 0.25, mppY: 0.25 }, validPx: [], excludePx: [], fields: [] },
+ *   window: { shape: "circle", areaMm2: 2.37, diameterUm: 1737.1 },
+ *   map: { grid, counts: new Int32Array(0), admissible: new Uint8Array(0), coverage: new Float32Array(0), minCoverage: 0.95, positions: 0 },
+ *   hotspot: null, top: [], bestFields: [], bestFieldWindow: null,
+ *   caseData: { sources: [] },
+ * };
+ * const html = renderCaseHtml(result as never, {
+ *   plotlySrc: "../assets/plotly.min.js", generatedAt: null, version: "0.1.0", options: {},
+ * });
+ * if (html.includes("<b>QVT</b>") || !html.includes("&lt;b&gt;QVT&lt;/b&gt;")) throw new Error();
+ * ```
+ */
+export function renderCaseHtml(result: CaseResult, context: CaseHtmlContext): string {
+  const r = result.report;
+  const id = escapeHtml(r.case);
+  const mapFig = countMapFigure(result);
+  const distFig = distributionFigure(result);
+  const c = r.classification;
+  const u = r.uncertainty ?? null;
+  const h = r.hotspot;
+  const parts: string[] = [];
+  parts.push(`<!doctype html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="generator" content="hotfield ${escapeHtml(context.version)}">
+<title>Mitotic count report: ${id}</title>
+<style>${REPORT_CSS}</style>
+${plotlyScriptTag(context)}
+</head>
+<body>
+<main>
+<header class="top">
+<div class="kicker">hotfield · standardized-area mitotic count</div>
+<h1>Case ${id}</h1>
+<div class="meta">hotfield ${escapeHtml(context.version)}${
+    context.generatedAt ? ` · generated ${escapeHtml(context.generatedAt)}` : ""
+  } · window ${escapeHtml(windowWords(result.window))}</div>
+</header>
+<aside class="caution" role="note"><strong>Read with care.</strong><ul>${
+    REPORT_CAUTIONS.map((s) => `<li>${escapeHtml(s)}</li>`).join("")
+  }</ul></aside>`);
+
+  // Headline figures.
+  const cards: [string, string, string][] = [
+    [
+      "hotspot count",
+      h ? fmt(h.count, 0) : "none",
+      h ? `figures in ${escapeHtml(result.window.areaMm2)} mm²` : "no admissible position",
+    ],
+    ["per mm²", h ? fmt(h.per_mm2, 2) : "–", "hotspot density"],
+    ["valid area", `${fmt(r.valid_area_mm2, 2)}`, "mm² of tissue counted over"],
+    ["positions", fmt(r.distribution.positions, 0), "admissible window centres"],
+  ];
+  if (c) {
+    cards.push([
+      "class",
+      escapeHtml(c.class),
+      `${escapeHtml(c.scheme)}${c.tier ? `, tier ${escapeHtml(c.tier)}` : ""}`,
+    ]);
+  }
+  if (u && Array.isArray(u.count_ci95)) {
+    cards.push([
+      "95% limits",
+      `${fmt(u.count_ci95[0], 1)}–${fmt(u.count_ci95[1], 1)}`,
+      "exact Poisson, hotspot count",
+    ]);
+  }
+  parts.push(
+    `<section class="cards" aria-label="key figures">${
+      cards.map(([l, v, s]) =>
+        `<div class="card"><div class="label">${l}</div><div class="value">${v}</div>` +
+        `<div class="sub">${s}</div></div>`
+      ).join("")
+    }</section>`,
+  );
+
+  if (!h) {
+    const why = r.warnings.length > 0
+      ? `<ul class="warnings">${r.warnings.map((w) => `<li>${escapeHtml(w)}</li>`).join("")}</ul>`
+      : "";
+    parts.push(
+      `<aside class="caution" role="alert"><strong>No window of the standard area could be placed.</strong> ` +
+        `The case has no admissible position${why ? ":" : "."}${why}</aside>`,
+    );
+  }
+
+  parts.push(`<section id="map-section"><h2>Count map</h2>
+<div id="plot-map" class="plot" style="min-height:${(mapFig.layout.height as number) + 2}px"></div>
+<p class="caption">${escapeHtml(mapFig.caption)}</p></section>`);
+  parts.push(`<section id="distribution-section"><h2>Distribution of window counts</h2>
+<div id="plot-distribution" class="plot" style="min-height:${
+    (distFig.layout.height as number) + 2
+  }px"></div>
+<p class="caption">${escapeHtml(distFig.caption)}</p></section>`);
+
+  // Numbers.
+  parts.push(`<section id="numbers"><h2>Numbers</h2><h3>Hotspot and top windows</h3>`);
+  const placements: string[][] = [];
+  if (h) placements.push(placementRow("hotspot", h));
+  (r.top ?? []).forEach((p, i) => placements.push(placementRow(`top ${p.rank ?? i + 1}`, p)));
+  (r.best_fields?.fields ?? []).forEach((p, i) =>
+    placements.push(placementRow(`best field ${p.rank ?? i + 1}`, p))
+  );
+  parts.push(
+    placements.length > 0
+      ? table(
+        ["window", "count", "per mm²", "coverage", "centre (px)", "centre (µm)"],
+        placements,
+      )
+      : `<p class="none">No window placed.</p>`,
+  );
+  if (r.best_fields) {
+    parts.push(`<p class="caption">${escapeHtml(r.best_fields.guarantee)}</p>`);
+  }
+
+  const d = r.distribution;
+  parts.push(`<h3>Distribution over admissible positions</h3>`);
+  parts.push(
+    table(["positions", "min", "Q1", "median", "Q3", "max", "mean"], [[
+      fmt(d.positions, 0),
+      fmt(d.min),
+      fmt(d.q1),
+      fmt(d.median),
+      fmt(d.q3),
+      fmt(d.max),
+      fmt(d.mean, 2),
+    ]]),
+  );
+  if (d.quantile_method) {
+    parts.push(`<p class="caption">Quartiles: ${escapeHtml(d.quantile_method)}.</p>`);
+  }
+
+  parts.push(`<h3>Readers' fields</h3>`);
+  parts.push(
+    r.fields.length > 0
+      ? table(
+        [
+          "reader",
+          "kind",
+          "centre (px)",
+          "count",
+          "coverage",
+          "percentile",
+          "short of hotspot",
+          "scaled to window",
+        ],
+        r.fields.map((f) => [
+          escapeHtml(readerName(f.reader)),
+          escapeHtml(f.kind ?? "point"),
+          px(f.center_px),
+          fmt(f.count, 0),
+          pct(f.coverage),
+          fmt(f.percentile, 1),
+          fmt(f.shortfall ?? null, 0),
+          fmt(f.count_scaled_to_window ?? null, 1),
+        ]),
+      )
+      : `<p class="none">No reader marked a field in this case.</p>`,
+  );
+
+  parts.push(`<h3>Classification</h3>`);
+  if (c) {
+    const kv: [string, string][] = [
+      ["scheme", escapeHtml(c.scheme)],
+      ["cut-off", `${escapeHtml(c.cutoff_rule ?? "≥")} ${fmt(c.cutoff)}`],
+      ["cut-off basis", escapeHtml(c.cutoff_basis ?? "–")],
+      ["count needed in this window", fmt(cutoffCount(c), 0)],
+      ["class", escapeHtml(c.class)],
+      ["tier", escapeHtml(c.tier ?? "–")],
+      ["positions at or above", pct(c.fraction_at_or_above)],
+    ];
+    parts.push(keyValues(kv));
+    for (const key of ["definition", "note"]) {
+      if (typeof c[key] === "string") {
+        parts.push(`<p class="caption">${escapeHtml(c[key])}</p>`);
+      }
+    }
+  } else {
+    parts.push(`<p class="none">No grading scheme was chosen, so the case was not classified.</p>`);
+  }
+  if (u) {
+    parts.push(`<h3>Uncertainty</h3>`);
+    parts.push(keyValues([
+      ["hotspot count, 95% limits", `${fmt(u.count_ci95?.[0], 2)} – ${fmt(u.count_ci95?.[1], 2)}`],
+      ["per mm², 95% limits", `${fmt(u.per_mm2_ci95?.[0], 2)} – ${fmt(u.per_mm2_ci95?.[1], 2)}`],
+      ["chance of the other side", fmt(u.p_other_side, 3)],
+      ["scan test p", fmt(u.scan_p, 3)],
+      ["simulations", fmt(u.simulations, 0)],
+    ]));
+  }
+
+  parts.push(`<h3>Warnings</h3>`);
+  parts.push(
+    r.warnings.length > 0
+      ? `<ul class="warnings">${r.warnings.map((w) => `<li>${escapeHtml(w)}</li>`).join("")}</ul>`
+      : `<p class="none">None.</p>`,
+  );
+  parts.push(`</section>`);
+
+  // Inputs and settings.
+  const inputs = r.inputs ?? result.caseData?.sources ?? [];
+  const f = r.figures;
+  parts.push(`<section id="inputs"><h2>Inputs and settings</h2>`);
+  parts.push(
+    inputs.length > 0
+      ? table(
+        ["kind", "file", "sha256"],
+        inputs.map((s) => [escapeHtml(s.kind), escapeHtml(s.path), escapeHtml(s.sha256)]),
+      ).replace(/<td>([0-9a-f]{64})<\/td>/g, '<td class="hash">$1</td>')
+      : `<p class="none">No input files recorded.</p>`,
+  );
+  const mpp = r.mpp ?? [result.prepared.slide.mppX, result.prepared.slide.mppY];
+  parts.push(keyValues([
+    ["slide", escapeHtml(result.prepared.slide.id)],
+    ["µm per pixel (x, y)", `${fmt(mpp[0], 4)}, ${fmt(mpp[1], 4)}`],
+    ["figures read", fmt(f.total, 0)],
+    ["figures counted", fmt(f.counted, 0)],
+    ["outside the valid region", fmt(f.outside_valid, 0)],
+    ["below the score threshold", fmt(f.below_score, 0)],
+    ["stride", `${fmt(r.settings.stride_um)} µm`],
+    ["minimum coverage", pct(r.settings.min_coverage, 0)],
+    ["minimum score", fmt(r.settings.min_score)],
+    ["counted labels", escapeHtml(r.settings.count_labels.join(", "))],
+  ]));
+  if (f.by_label) {
+    parts.push(
+      table(
+        ["label", "points"],
+        Object.keys(f.by_label).sort().map((k) => [escapeHtml(k), fmt(f.by_label![k], 0)]),
+      ),
+    );
+  }
+  const optionKeys = Object.keys(context.options).sort();
+  if (optionKeys.length > 0) {
+    parts.push(`<h3>Options of this run</h3>`);
+    parts.push(keyValues(
+      optionKeys.map((
+        k,
+      ) => [escapeHtml(k), `<code>${escapeHtml(stableStringify(context.options[k]))}</code>`]),
+    ));
+  }
+  if (r.map?.discretization) {
+    parts.push(`<p class="caption">${escapeHtml(r.map.discretization)}</p>`);
+  }
+  parts.push(`</section>`);
+  parts.push(
+    `<footer>Report schema ${escapeHtml(r.schema)} · hotfield ${
+      escapeHtml(context.version)
+    }. Counts are exact for the annotations given; they are only as good as those annotations.</footer>
+</main>
+${
+      plotScripts([
+        { id: "plot-map", figure: { data: mapFig.data, layout: mapFig.layout } },
+        { id: "plot-distribution", figure: { data: distFig.data, layout: distFig.layout } },
+      ], context.plotlySrc ?? "inline")
+    }
+</body>
+</html>
+`,
+  );
+  return parts.join("\n");
+}
