@@ -458,6 +458,12 @@ class GeometryReader {
         }`,
       );
     }
+    if (Array.isArray(raw[0]) && typeof raw[0][0] === "number") {
+      throw this.fail(
+        TypeError,
+        `${this.at}${where}: Polygon "coordinates" must be an array of rings, each an array of positions (RFC 7946 §3.1.6): found an array of positions (one level of brackets missing?)`,
+      );
+    }
     return raw.map((r, k) => this.ring(r, `${where} ring ${k}`));
   }
 
@@ -468,6 +474,12 @@ class GeometryReader {
         `${this.at}: MultiPolygon "coordinates" must be an array of polygons (RFC 7946 §3.1.7): found ${
           describe(raw)
         }`,
+      );
+    }
+    if (Array.isArray(raw[0]) && Array.isArray(raw[0][0]) && typeof raw[0][0][0] === "number") {
+      throw this.fail(
+        TypeError,
+        `${this.at}: MultiPolygon "coordinates" must be an array of polygons, each an array of rings (RFC 7946 §3.1.7): found the coordinates of a single Polygon (use "type": "Polygon", or add one level of brackets)`,
       );
     }
     return raw.map((poly, k) => this.polygon(poly, ` polygon ${k}`));

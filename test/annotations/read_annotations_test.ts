@@ -383,3 +383,53 @@ Deno.test("parseAnnotations() results do not depend on the ring's start vertex",
     parse(fc([tissue, feature("field", { type: "Polygon", coordinates: [r] })])).fields[0].centerPx;
   assert.deepEqual(f(ring), f(rotated));
 });
+
+Deno.test("parseAnnotations() explains Polygon and MultiPolygon coordinates one level off", () => {
+  assert.throws(() => parse(fc([feature("tissue", { type: "Polygon", coordinates: SQUARE[0] })])), {
+    name: "TypeError",
+    message:
+      /feature 0: Polygon "coordinates" must be an array of rings.*one level of brackets missing\?/,
+  });
+  assert.throws(
+    () => parse(fc([feature("tissue", { type: "MultiPolygon", coordinates: SQUARE })])),
+    {
+      name: "TypeError",
+      message:
+        /feature 0: MultiPolygon "coordinates" must be an array of polygons.*found the coordinates of a single Polygon/,
+    },
+  );
+});
+
+Deno.test("parseAnnotations() warns about a feature with an empty geometry", () => {
+  const a = parse(fc([tissue, feature("exclude", { type: "MultiPolygon", coordinates: [] })]));
+  assert.equal(a.exclude.length, 0);
+  assert.deepEqual(a.warnings, [
+    "QVT-24-001.geojson: 1 feature(s) have an empty geometry and were ignored (features 1)",
+  ]);
+});
+
+Deno.test("parseAnnotations() warns about region features reaching beyond the slide", () => {
+  const a = parse(fc([tissue], { mpp: 0.25, width: 50, height: 50 }));
+  assert.deepEqual(a.warnings, [
+    "QVT-24-001.geojson: 1 region feature(s) reach beyond the slide's 50 × 50 px (features 0)",
+  ]);
+});
+
+Deno.test("parseAnnotations() rejects properties, labels and readers of the wrong type", () => {
+  const pt = { type: "Point", coordinates: [1, 2] };
+  assert.throws(
+    () => parse(fc([tissue, { type: "Feature", properties: "figure", geometry: pt }])),
+    {
+      name: "TypeError",
+      message: /feature 1 has "properties" that are not an object: found "figure"/,
+    },
+  );
+  assert.throws(() => parse(fc([tissue, feature("figure", pt, { label: 3 })])), {
+    name: "TypeError",
+    message: /feature 1 \(role "figure"\) has a "label" that is not a string: found 3/,
+  });
+  assert.throws(() => parse(fc([tissue, feature("field", pt, { reader: ["a"] })])), {
+    name: "TypeError",
+    message: /feature 1 \(role "field"\) has a "reader" that is not a string: found \["a"\]/,
+  });
+});

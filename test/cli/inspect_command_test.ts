@@ -185,3 +185,17 @@ Deno.test("hotfield inspect counts repeated --count-label options", async () => 
   assert.equal(r.code, 0, r.stderr);
   assert.equal(JSON.parse(r.stdout).figures.counted, 6);
 });
+
+Deno.test("hotfield inspect fails cleanly on a mask whose size disagrees with its mpp", async () => {
+  // QVT-24-011: slide 2048 × 1024 px at 0.5 µm/px = 1024 × 512 µm; its 64 × 32 mask fits 16 µm/px,
+  // so 8 µm/px (512 × 256 µm) disagrees.
+  const r = await cli([
+    join(FIXTURES, "QVT-24-011.geojson"),
+    "--tissue-mask",
+    join(FIXTURES, "QVT-24-011.tissue.png"),
+    "--mask-mpp",
+    "8",
+  ]);
+  assertCleanFailure(r, "QVT-24-011.tissue.png");
+  assert.match(r.stderr, /mask mpp of about 16 µm\/px would fit/);
+});
