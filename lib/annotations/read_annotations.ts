@@ -130,7 +130,9 @@ export function parseAnnotations(
     throw fail(
       SyntaxError,
       where
-        ? `not valid JSON: line ${where.line}, column ${where.column}: ${where.problem}`
+        ? `not valid JSON: line ${where.line}, column ${where.column}: ${where.problem}${
+          csvHint(file, text)
+        }`
         : `not valid JSON: ${(e as Error).message}`,
     );
   }
@@ -167,6 +169,13 @@ export function parseAnnotations(
     );
   }
   const warnings: string[] = [];
+  const nested = (fc.properties as Record<string, unknown> | null | undefined)?.slide;
+  if (fc.slide === undefined && nested !== undefined && options.slide?.mpp === undefined) {
+    throw fail(
+      TypeError,
+      'the "slide" member is inside the collection\'s "properties"; hotfield reads it at the top level, beside "type" and "features"',
+    );
+  }
   const merged = mergeSlideMembers(fc.slide, options.slide);
   warnings.push(...merged.warnings);
   const slide = parseSlideInfo(merged.member, { what: WHAT, fileName: file });
@@ -322,6 +331,16 @@ type Fail = (
   Cls: typeof TypeError | typeof RangeError | typeof SyntaxError,
   detail: string,
 ) => Error;
+
+function csvHint(file: string, text: string): string {
+  const first = text.trimStart()[0];
+  if (
+    /\.(csv|tsv|txt)$/i.test(file) || (first !== "{" && first !== "[" && /^[^\n]*[,;\t]/.test(text))
+  ) {
+    return " (this looks like a CSV: figure points in a CSV go with --figures FILE.csv beside the annotation GeoJSON)";
+  }
+  return "";
+}
 
 function listSome(xs: number[]): string {
   return xs.slice(0, 5).join(", ") + (xs.length > 5 ? ", ..." : "");

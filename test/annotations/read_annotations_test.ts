@@ -433,3 +433,24 @@ Deno.test("parseAnnotations() rejects properties, labels and readers of the wron
     message: /feature 1 \(role "field"\) has a "reader" that is not a string: found \["a"\]/,
   });
 });
+
+Deno.test("parseAnnotations() says when a CSV was given as the annotation file", () => {
+  assert.throws(() => parseAnnotations("x,y\n1,2\n", { fileName: "QVT-24-001.figures.csv" }), {
+    name: "SyntaxError",
+    message:
+      /not valid JSON: line 1, column 1: expected a value, found "x" \(this looks like a CSV: figure points in a CSV go with --figures FILE\.csv/,
+  });
+});
+
+Deno.test("parseAnnotations() points to a slide member nested in the collection's properties", () => {
+  const text = JSON.stringify({
+    type: "FeatureCollection",
+    properties: { slide: { mpp: 0.25 } },
+    features: [tissue],
+  });
+  assert.throws(() => parse(text), {
+    name: "TypeError",
+    message:
+      /the "slide" member is inside the collection's "properties"; hotfield reads it at the top level/,
+  });
+});
