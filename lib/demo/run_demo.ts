@@ -31,16 +31,14 @@ import { generateDemoCohort } from "./demo_cohort.ts";
  * @param dir The folder (e.g. data/demo).
  * @returns One case input per case.
  *
- * @example One GeoJSON, one case
+ * @example The committed demo folder holds eight cases
  * ```ts
  * import { demoCaseInputs } from "./run_demo.ts";
- * const dir = Deno.makeTempDirSync();
- * Deno.writeTextFileSync(`${dir}/QVT-24-001.geojson`, "{}");
- * const inputs = await demoCaseInputs(dir);
- * if (inputs.length !== 1 || !inputs[0].annotationsPath?.endsWith("QVT-24-001.geojson")) {
+ * import { fileURLToPath } from "node:url";
+ * const inputs = await demoCaseInputs(fileURLToPath(new URL("../../data/demo/", import.meta.url)));
+ * if (inputs.length !== 8 || !inputs[6].tissueMaskPath?.endsWith("QVT-24-007.tissue.png")) {
  *   throw new Error();
  * }
- * Deno.removeSync(dir, { recursive: true });
  * ```
  */
 export async function demoCaseInputs(dir: string): Promise<CaseInput[]> {
@@ -72,7 +70,20 @@ export interface RunDemoOptions {
   print?: (line: string) => void;
 }
 
-/** One case's line of the demo summary, e.g. `QVT-24-001  28 in 2.37 mm²  11.81/mm²  above`. */
+/**
+ * One case's line of the demo summary: case id, hotspot count, per mm² and
+ * class, or why no window fits.
+ *
+ * @example A case with no admissible window
+ * ```ts
+ * import { summaryLine } from "./run_demo.ts";
+ * import type { CaseResult } from "../count/engine_types.ts";
+ * const line = summaryLine({
+ *   report: { case: "QVT-24-005", hotspot: null, valid_area_mm2: 0.83, window: { area_mm2: 2.37 } },
+ * } as unknown as CaseResult);
+ * if (!line.includes("no admissible 2.37 mm² window")) throw new Error(line);
+ * ```
+ */
 export function summaryLine(result: CaseResult): string {
   const r = result.report;
   const id = r.case.padEnd(11);
@@ -94,6 +105,19 @@ export function summaryLine(result: CaseResult): string {
  * Reads every demo case, builds its result and writes the outputs.
  *
  * @returns The results and the path to open (index.html or the folder).
+ *
+ * @example Reports of the demo cohort in a temporary folder (needs write permission)
+ * ```ts
+ * import { runDemo } from "./run_demo.ts";
+ * import { fileURLToPath } from "node:url";
+ * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
+ *   const outDir = Deno.makeTempDirSync();
+ *   const dataDir = fileURLToPath(new URL("../../data/demo/", import.meta.url));
+ *   const { results } = await runDemo({ dataDir, outDir, simulations: 0, print: () => {} });
+ *   if (results.length !== 8 || results[4].hotspot !== null) throw new Error();
+ *   Deno.removeSync(outDir, { recursive: true });
+ * }
+ * ```
  */
 export async function runDemo(
   options: RunDemoOptions = {},

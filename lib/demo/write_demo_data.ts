@@ -19,13 +19,15 @@ import { demoCohortFiles } from "./demo_files.ts";
  * @param seed Generator seed. @default DEMO_SEED
  * @returns The paths written.
  *
- * @example Writing into a temporary folder
+ * @example Writing into a temporary folder (needs write permission)
  * ```ts
  * import { writeDemoData } from "./write_demo_data.ts";
- * const dir = Deno.makeTempDirSync();
- * const paths = writeDemoData(dir);
- * if (!paths.some((p) => p.endsWith("README.md"))) throw new Error();
- * Deno.removeSync(dir, { recursive: true });
+ * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
+ *   const dir = Deno.makeTempDirSync();
+ *   const paths = writeDemoData(dir);
+ *   if (!paths.some((p) => p.endsWith("README.md"))) throw new Error();
+ *   Deno.removeSync(dir, { recursive: true });
+ * }
  * ```
  */
 export function writeDemoData(outDir: string, seed: number = DEMO_SEED): string[] {
