@@ -29,7 +29,10 @@ export function parseOptions(
       positionals,
     };
   } catch (e) {
-    throw new UsageError((e as Error).message.replace(/\. To specify.*$/s, ""));
+    // node:util appends multi-line advice; keep the first sentence.
+    throw new UsageError(
+      (e as Error).message.replace(/[.?]?\s*(Did you forget|To specify).*$/s, ""),
+    );
   }
 }
 
