@@ -8,13 +8,9 @@ import type { MultiPolygonPx, PolygonPx, RegionPart } from "../types.ts";
 import { inputError } from "../errors.ts";
 import { bandOf, buildBands, type EdgeBands } from "./_edges.ts";
 import { findContacts, tagEdges, type TaggedEdges } from "./_contacts.ts";
-import {
-  bboxOf,
-  boxesMeet,
-  intersectDisjointBoundaries,
-  subtractDisjointBoundaries,
-} from "./_ring_sets.ts";
-import { turfDifference, turfIntersect, turfUnion } from "./_turf.ts";
+import { bboxOf, boxesMeet } from "./_ring_sets.ts";
+import { intersectRegions, subtractRegions } from "./_pair_ops.ts";
+import { turfUnion } from "./_turf.ts";
 import { normalizeMultiPolygon } from "./normalize.ts";
 import { multiPolygonAreaPx2 } from "./planar_area.ts";
 
@@ -126,35 +122,13 @@ function splitByBox(
   return [near, far];
 }
 
-function boundariesMeet(a: MultiPolygonPx, b: MultiPolygonPx): boolean {
-  const t = tagEdges([...a, ...b], [...a.map(() => 0), ...b.map(() => 1)]);
-  return findContacts(t, "across", true).length > 0;
-}
-
-/** Drops holes of `a` that lie outside `box`: they cannot change a ∩ (anything inside box). */
-function dropFarHoles(a: MultiPolygonPx, box: [number, number, number, number]): MultiPolygonPx {
-  return a.map((p) => [p[0], ...p.slice(1).filter((h) => boxesMeet(bboxOf([[h]]), box))]);
-}
-
-function intersectRegions(a: MultiPolygonPx, b: MultiPolygonPx): MultiPolygonPx {
-  if (a.length === 0 || b.length === 0) return [];
-  const [an] = splitByBox(a, bboxOf(b));
-  const [bn] = splitByBox(b, bboxOf(an));
-  if (an.length === 0 || bn.length === 0) return [];
-  if (!boundariesMeet(an, bn)) return intersectDisjointBoundaries(an, bn);
-  return turfIntersect(dropFarHoles(an, bboxOf(bn)), dropFarHoles(bn, bboxOf(an)));
-}
-
-function subtractRegions(a: MultiPolygonPx, x: MultiPolygonPx): MultiPolygonPx {
+function subtractNear(a: MultiPolygonPx, x: MultiPolygonPx): MultiPolygonPx {
   if (a.length === 0 || x.length === 0) return a;
   const [xn] = splitByBox(x, bboxOf(a));
   if (xn.length === 0) return a;
   const [an, af] = splitByBox(a, bboxOf(xn));
   if (an.length === 0) return a;
-  const cut = boundariesMeet(an, xn)
-    ? turfDifference(an, dropFarHoles(xn, bboxOf(an)))
-    : subtractDisjointBoundaries(an, xn);
-  return [...cut, ...af];
+  return [...subtractRegions(an, xn), ...af];
 }
 
 /**
@@ -219,7 +193,7 @@ export function buildValidRegion(parts: ValidRegionParts): ValidRegion {
     tissue,
     tumour,
   );
-  const region = subtractRegions(base, exclude);
+  const region = subtractNear(base, exclude);
   const baseArea = multiPolygonAreaPx2(base);
   const validAreaPx2 = multiPolygonAreaPx2(region);
   return {
