@@ -49,18 +49,27 @@ export function cleanRing(ring: Ring): Ring | null {
  * ```
  */
 export function normalizePolygon(p: PolygonPx): PolygonPx {
+  return orientPolygon(p, false);
+}
+
+/**
+ * Like `normalizePolygon`, but with `keepZeroArea` a ring of zero net area
+ * with at least three distinct positions is kept as given (a bow-tie has net
+ * area 0 yet encloses two triangles; a union repairs it later).
+ */
+export function orientPolygon(p: PolygonPx, keepZeroArea: boolean): PolygonPx {
   if (p.length === 0) return [];
   const outer = cleanRing(p[0]);
   if (outer === null) return [];
   const a = ringAreaPx2(outer);
-  if (a === 0) return [];
-  const out: PolygonPx = [a > 0 ? outer : outer.reverse()];
+  if (a === 0 && !keepZeroArea) return [];
+  const out: PolygonPx = [a >= 0 ? outer : outer.reverse()];
   for (let i = 1; i < p.length; i++) {
     const h = cleanRing(p[i]);
     if (h === null) continue;
     const ha = ringAreaPx2(h);
-    if (ha === 0) continue;
-    out.push(ha < 0 ? h : h.reverse());
+    if (ha === 0 && !keepZeroArea) continue;
+    out.push(ha <= 0 ? h : h.reverse());
   }
   return out;
 }

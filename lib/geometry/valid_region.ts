@@ -11,7 +11,7 @@ import { findContacts, tagEdges, type TaggedEdges } from "./_contacts.ts";
 import { bboxOf, boxesMeet } from "./_ring_sets.ts";
 import { intersectRegions, subtractRegions } from "./_pair_ops.ts";
 import { turfUnion } from "./_turf.ts";
-import { normalizeMultiPolygon } from "./normalize.ts";
+import { orientPolygon } from "./normalize.ts";
 import { multiPolygonAreaPx2 } from "./planar_area.ts";
 
 /** The region parts of a case, by role. */
@@ -87,7 +87,11 @@ function unionRole(parts: RegionPart[], role: string, warnings: string[]): Multi
   const groups: number[] = [];
   const normalized: MultiPolygonPx[] = [];
   parts.forEach((part, i) => {
-    const mp = normalizeMultiPolygon(part.polygons);
+    const mp: MultiPolygonPx = [];
+    for (const p of part.polygons) {
+      const q = orientPolygon(p, true);
+      if (q.length > 0) mp.push(q);
+    }
     normalized.push(mp);
     for (const p of mp) {
       polys.push(p);

@@ -9,6 +9,7 @@
 import GeoJSONReader from "jsts/org/locationtech/jts/io/GeoJSONReader.js";
 import Centroid from "jsts/org/locationtech/jts/algorithm/Centroid.js";
 import OverlayOp from "jsts/org/locationtech/jts/operation/overlay/OverlayOp.js";
+import GeometryFactory from "jsts/org/locationtech/jts/geom/GeometryFactory.js";
 import type { BBoxPx, MultiPolygonPx, PolygonPx, Ring } from "../../lib/types.ts";
 import { type Random, seededRandom } from "../../lib/demo/random.ts";
 
@@ -87,19 +88,36 @@ export function jstsDifferenceArea(a: JstsGeometry, b: JstsGeometry): number {
   return OverlayOp.difference(a, b).getArea();
 }
 
+const factory = new GeometryFactory();
+
+/**
+ * Keeps the polygonal part of an overlay result: JSTS returns a
+ * GeometryCollection when an overlay also produces lines or points.
+ */
+function polygonal(g: JstsGeometry): JstsGeometry {
+  if (g.getGeometryType() !== "GeometryCollection") return g;
+  let out: JstsGeometry = factory.createPolygon();
+  for (let i = 0; i < g.getNumGeometries(); i++) {
+    const c = g.getGeometryN(i);
+    const t = c.getGeometryType();
+    if (t === "Polygon" || t === "MultiPolygon") out = OverlayOp.union(out, c);
+  }
+  return out;
+}
+
 /** JSTS union of geometries. */
 export function jstsUnion(a: JstsGeometry, b: JstsGeometry): JstsGeometry {
-  return OverlayOp.union(a, b);
+  return polygonal(OverlayOp.union(a, b));
 }
 
 /** JSTS intersection geometry. */
 export function jstsIntersection(a: JstsGeometry, b: JstsGeometry): JstsGeometry {
-  return OverlayOp.intersection(a, b);
+  return polygonal(OverlayOp.intersection(a, b));
 }
 
 /** JSTS difference geometry. */
 export function jstsDifference(a: JstsGeometry, b: JstsGeometry): JstsGeometry {
-  return OverlayOp.difference(a, b);
+  return polygonal(OverlayOp.difference(a, b));
 }
 
 /** Relative difference |a − b| / max(1, |b|). */

@@ -1,0 +1,277 @@
+import { strict as assert } from "node:assert";
+import fc from "fast-check";
+import { buildValidRegion } from "../../lib/geometry/valid_region.ts";
+import { multiPolygonAreaPx2, ringAreaPx2 } from "../../lib/geometry/planar_area.ts";
+import { createRegionIndex } from "../../lib/geometry/region_index.ts";
+import type { MultiPolygonPx, PolygonPx, RegionPart, Ring } from "../../lib/types.ts";
+import {
+  jstsDifference,
+  jstsIntersection,
+  jstsUnion,
+  randomPolygon,
+  relErr,
+  seededRandom,
+  starRing,
+  toJsts,
+} from "./_shapes.ts";
+
+const rect = (x0: number, y0: number, x1: number, y1: number): Ring => [
+  [x0, y0],
+  [x1, y0],
+  [x1, y1],
+  [x0, y1],
+  [x0, y0],
+];
+const part = (polygons: MultiPolygonPx, source: string): RegionPart => ({ polygons, source });
+
+/** JSTS 2.12.1 reference for V = ∪tissue ∩ ∪tumour − ∪exclude. */
+function jstsValidArea(tissue: PolygonPx[], tumour: PolygonPx[], exclude: PolygonPx[]): number {
+  // deno-lint-ignore no-explicit-any
+  const union = (ps: PolygonPx[]): any =>
+    ps.map((p) => toJsts([p])).reduce((a, b) => (a === null ? b : jstsUnion(a, b)), null);
+  let v = tissue.length > 0 ? union(tissue) : null;
+  if (tumour.length > 0) v = v === null ? union(tumour) : jstsIntersection(v, union(tumour));
+  if (exclude.length > 0) v = jstsDifference(v, union(exclude));
+  return v.getArea();
+}
+
+function checkNormalized(region: MultiPolygonPx): void {
+  for (const p of region) {
+    assert.ok(ringAreaPx2(p[0]) > 0, "outer ring positive");
+    for (const h of p.slice(1)) assert.ok(ringAreaPx2(h) < 0, "hole negative");
+  }
+}
+
+Deno.test("buildValidRegion() agrees with JSTS 2.12.1 on random tissue, tumour and exclusions", () => {
+  // reference: JSTS 2.12.1 OverlayOp union/intersection/difference + getArea(); tolerance 1e-9
+  // relative to the tissue area (both round crossing points to doubles once)
+  const rnd = seededRandom(2024);
+  for (let s = 0; s < 60; s++) {
+    const tissue: PolygonPx[] = [randomPolygon(rnd, 0, 0, 200, 80, 5)];
+    if (s % 3 === 0) tissue.push(randomPolygon(rnd, 150 + 100 * rnd(), 50, 120, 40, 2));
+    const tumour: PolygonPx[] = s % 5 === 4 ? [] : [
+      randomPolygon(
+        rnd,
+        150 * rnd() - 75,
+        150 * rnd() - 75,
+        60 + 120 * rnd(),
+        40,
+        s % 2 === 0 ? 2 : 0,
+      ),
+    ];
+    const exclude: PolygonPx[] = [];
+    for (let k = 0; k < s % 4; k++) {
+      exclude.push([starRing(rnd, 300 * rnd() - 150, 300 * rnd() - 150, 12, 10, 50)]);
+    }
+    const v = buildValidRegion({
+      tissue: tissue.map((p, i) => part([p], `QVT-24-00${s}.geojson feature ${i}`)),
+      tumour: tumour.map((p) => part([p], "tumour")),
+      exclude: exclude.map((p) => part([p], "exclude")),
+    });
+    const want = jstsValidArea(tissue, tumour, exclude);
+    const scale = v.tissueAreaPx2;
+    assert.ok(
+      Math.abs(v.validAreaPx2 - want) <= 1e-9 * scale,
+      `case ${s}: ${v.validAreaPx2} vs ${want}`,
+    );
+    assert.ok(Math.abs(multiPolygonAreaPx2(v.region) - v.validAreaPx2) <= 1e-9 * scale);
+    checkNormalized(v.region);
+    assert.ok(v.validAreaPx2 <= v.tissueAreaPx2 * (1 + 1e-12));
+    if (tumour.length > 0) assert.ok(v.validAreaPx2 <= v.tumourAreaPx2 * (1 + 1e-12));
+  }
+});
+
+Deno.test("buildValidRegion() handles a tumour crossing holes and the outline of a large tissue polygon", () => {
+  // the fast path (own overlay of crossing rings) against JSTS 2.12.1, tolerance 1e-9 relative
+  const rnd = seededRandom(77);
+  for (let s = 0; s < 12; s++) {
+    const outer = starRing(rnd, 0, 0, 2000, 700, 1000);
+    const holes: Ring[] = [];
+    for (let k = 0; k < 12; k++) {
+      const t = (2 * Math.PI * k) / 12;
+      holes.push(starRing(rnd, 400 * Math.cos(t), 400 * Math.sin(t), 30, 40, 90).reverse());
+    }
+    const tissue: PolygonPx = [outer, ...holes];
+    const tumour: PolygonPx = [starRing(rnd, 300 + 400 * rnd(), 200 * rnd(), 300, 200, 600)];
+    const exclude: PolygonPx[] = [[starRing(rnd, 500, 0, 20, 50, 150)], [
+      starRing(rnd, 0, 0, 20, 30, 80),
+    ]];
+    const v = buildValidRegion({
+      tissue: [part([tissue], "t")],
+      tumour: [part([tumour], "u")],
+      exclude: exclude.map((p) => part([p], "x")),
+    });
+    const want = jstsValidArea([tissue], [tumour], exclude);
+    assert.ok(relErr(v.validAreaPx2, want) < 1e-9, `case ${s}: ${v.validAreaPx2} vs ${want}`);
+    checkNormalized(v.region);
+  }
+});
+
+Deno.test("buildValidRegion() region agrees with brute-force point tests (fast-check)", () => {
+  fc.assert(
+    fc.property(fc.integer({ min: 0, max: 1e6 }), (seed) => {
+      const rnd = seededRandom(seed);
+      const tissue = randomPolygon(rnd, 0, 0, 100, 40, 3);
+      const tumour = randomPolygon(rnd, 60 * rnd() - 30, 60 * rnd() - 30, 80, 30, 1);
+      const ex: PolygonPx = [starRing(rnd, 50 * rnd() - 25, 50 * rnd() - 25, 10, 5, 30)];
+      const v = buildValidRegion({
+        tissue: [part([tissue], "t")],
+        tumour: [part([tumour], "u")],
+        exclude: [part([ex], "x")],
+      });
+      const tIdx = createRegionIndex([tissue]), uIdx = createRegionIndex([tumour]);
+      const xIdx = createRegionIndex([ex]), vIdx = createRegionIndex(v.region);
+      for (let i = 0; i < 300; i++) {
+        const x = 240 * rnd() - 120, y = 240 * rnd() - 120;
+        const want = tIdx.containsPoint(x, y) && uIdx.containsPoint(x, y) &&
+          !xIdx.containsPoint(x, y);
+        // points within rounding of a crossing may differ; random doubles essentially never are
+        assert.equal(vIdx.containsPoint(x, y), want, `(${x}, ${y})`);
+      }
+      assert.ok(
+        v.validAreaPx2 <= v.tissueAreaPx2 + 1e-9 && v.validAreaPx2 <= v.tumourAreaPx2 + 1e-9,
+      );
+    }),
+    { seed: 99, numRuns: 60 },
+  );
+});
+
+Deno.test("buildValidRegion() subtracts exclude polygons and keeps the unions", () => {
+  const v = buildValidRegion({
+    tissue: [part([[rect(0, 0, 100, 100)]], "a"), part([[rect(100, 0, 200, 100)]], "b")],
+    tumour: [],
+    exclude: [part([[rect(10, 10, 20, 20)]], "x1"), part([[rect(15, 15, 30, 30)]], "x2")],
+  });
+  // hand calculation: 20,000 − (100 + 225 − 25) = 19,700
+  assert.ok(Math.abs(v.validAreaPx2 - 19700) < 1e-9);
+  assert.ok(Math.abs(v.tissueAreaPx2 - 20000) < 1e-9);
+  assert.ok(Math.abs(v.excludedAreaPx2 - 300) < 1e-9);
+  assert.equal(v.tumour.length, 0);
+  assert.deepEqual(v.warnings, []);
+});
+
+Deno.test("buildValidRegion() uses the tumour alone when no tissue is given", () => {
+  const v = buildValidRegion({
+    tissue: [],
+    tumour: [part([[[...rect(0, 0, 10, 10)].reverse()]], "u")],
+    exclude: [part([[rect(8, 8, 12, 12)]], "x")],
+  });
+  assert.ok(Math.abs(v.validAreaPx2 - 96) < 1e-12);
+  assert.equal(v.tissueAreaPx2, 0);
+  checkNormalized(v.region);
+});
+
+Deno.test("buildValidRegion() repairs a bow-tie outline and warns with its source and place", () => {
+  // a bow-tie crossing itself at (50, 50): repaired into its two triangles of 2,500 px² each
+  const bow: Ring = [[0, 0], [100, 100], [100, 0], [0, 100], [0, 0]];
+  const v = buildValidRegion({
+    tissue: [part([[bow]], "QVT-24-003.geojson feature 2")],
+    tumour: [],
+    exclude: [],
+  });
+  assert.ok(Math.abs(v.validAreaPx2 - 5000) < 1e-9);
+  assert.equal(v.region.length, 2);
+  assert.equal(v.warnings.length, 1);
+  assert.match(v.warnings[0], /QVT-24-003\.geojson feature 2/);
+  assert.match(v.warnings[0], /near \(50, 50\) px/);
+  checkNormalized(v.region);
+});
+
+Deno.test("buildValidRegion() keeps touching polygons and vertex-touching holes without warnings", () => {
+  // two squares sharing an edge, and a polygon whose hole touches its outer ring at one vertex
+  const touchHole: PolygonPx = [rect(0, 0, 10, 10), [[0, 0], [5, 2], [2, 5], [0, 0]]];
+  const v = buildValidRegion({
+    tissue: [
+      part([[rect(20, 0, 30, 10)]], "a"),
+      part([[rect(30, 0, 40, 10)]], "b"),
+      part([touchHole], "c"),
+    ],
+    tumour: [],
+    exclude: [],
+  });
+  // hand calculation: 100 + 100 + (100 − 10.5); the hole triangle has area ½·|5·5 − 2·2| = 10.5
+  assert.ok(Math.abs(v.validAreaPx2 - 289.5) < 1e-9, String(v.validAreaPx2));
+  checkNormalized(v.region);
+});
+
+Deno.test("buildValidRegion() merges overlapping parts of one role", () => {
+  const v = buildValidRegion({
+    tissue: [part([[rect(0, 0, 10, 10)]], "a"), part([[rect(5, 0, 15, 10)]], "b")],
+    tumour: [part([[rect(-5, 2, 20, 4)]], "u")],
+    exclude: [],
+  });
+  assert.ok(Math.abs(v.tissueAreaPx2 - 150) < 1e-9);
+  assert.ok(Math.abs(v.validAreaPx2 - 30) < 1e-9);
+  assert.equal(v.warnings.length, 0);
+});
+
+Deno.test("buildValidRegion() is unchanged by start-vertex rotation, winding reversal and translation", () => {
+  const rnd = seededRandom(3);
+  const tissue = randomPolygon(rnd, 0, 0, 100, 50, 3);
+  const tumour = randomPolygon(rnd, 40, 10, 70, 30, 1);
+  const base = buildValidRegion({
+    tissue: [part([tissue], "t")],
+    tumour: [part([tumour], "u")],
+    exclude: [],
+  });
+  const move = (p: PolygonPx): PolygonPx =>
+    p.map((r) => {
+      const open = r.slice(0, -1);
+      const k = 5 % open.length;
+      const rot = [...open.slice(k), ...open.slice(0, k)];
+      return [...rot, rot[0]].map(([x, y]) => [x + 4096, y - 2048] as [number, number]).reverse();
+    });
+  const moved = buildValidRegion({
+    tissue: [part([move(tissue)], "t")],
+    tumour: [part([move(tumour)], "u")],
+    exclude: [],
+  });
+  // tolerance 1e-9 relative: translation changes rounding of crossing points only
+  assert.ok(relErr(moved.validAreaPx2, base.validAreaPx2) < 1e-9);
+});
+
+Deno.test("buildValidRegion() refuses a case with neither tissue nor tumour", () => {
+  assert.throws(
+    () =>
+      buildValidRegion({
+        tissue: [],
+        tumour: [],
+        exclude: [part([[rect(0, 0, 1, 1)]], "QVT-24-009.geojson feature 0")],
+      }),
+    {
+      name: "TypeError",
+      message:
+        'Cannot read case "QVT-24-009.geojson feature 0": has neither a tissue nor a tumour region with any area; at least one is needed',
+    },
+  );
+  assert.throws(
+    () => buildValidRegion({ tissue: [part([], "t")], tumour: [], exclude: [] }),
+    TypeError,
+  );
+});
+
+Deno.test("buildValidRegion() agrees with JSTS 2.12.1 on grid-aligned shapes with shared edges and corners", () => {
+  // degenerate contacts (collinear edges, shared vertices) take the general clipper;
+  // reference JSTS 2.12.1, tolerance 1e-9 relative (integer coordinates: results are exact)
+  const rnd = seededRandom(11);
+  const r = (n: number) => Math.floor(rnd() * n);
+  for (let s = 0; s < 40; s++) {
+    const boxes = (k: number): PolygonPx[] =>
+      Array.from({ length: k }, () => {
+        const x = r(20), y = r(20);
+        return [rect(x, y, x + 1 + r(10), y + 1 + r(10))];
+      });
+    const tissue = boxes(1 + r(3)), tumour = boxes(r(3)), exclude = boxes(r(3));
+    const v = buildValidRegion({
+      tissue: tissue.map((p, i) => part([p], `t${i}`)),
+      tumour: tumour.map((p, i) => part([p], `u${i}`)),
+      exclude: exclude.map((p, i) => part([p], `x${i}`)),
+    });
+    const want = jstsValidArea(tissue, tumour, exclude);
+    assert.ok(
+      Math.abs(v.validAreaPx2 - want) < 1e-9 * Math.max(1, want),
+      `case ${s}: ${v.validAreaPx2} vs ${want}`,
+    );
+    checkNormalized(v.region);
+  }
+});
