@@ -90,7 +90,7 @@ export interface CountMapFigureOptions {
    * @default 40000
    */
   maxCells?: number;
-  /** Plot height in CSS pixels. @default 640 */
+  /** Plot height in CSS pixels. @default from the region's aspect, 420 to 980 */
   height?: number;
 }
 
@@ -452,7 +452,7 @@ export function countMapFigure(
   const layout: Record<string, unknown> = {
     title: { text: `Count map: ${plotText(report.case)}`, x: 0, xanchor: "left" },
     font: FONT,
-    height: options.height ?? 640,
+    height: options.height ?? mapHeight(prepared.validPx, mpp, map),
     margin: { l: 70, r: 20, t: 50, b: 60 },
     paper_bgcolor: "#ffffff",
     plot_bgcolor: "#ececec",
@@ -484,6 +484,31 @@ export function countMapFigure(
     hoverlabel: { font: { family: FONT.family } },
   };
   return { data, layout, caption };
+}
+
+/** A plot height that suits the region's aspect at a plot area about 880 px wide. */
+function mapHeight(
+  region: MultiPolygonPx,
+  mpp: { mppX: number; mppY: number },
+  map: CaseResult["map"],
+): number {
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (const polygon of region) {
+    for (const [x, y] of polygon[0] ?? []) {
+      minX = Math.min(minX, x * mpp.mppX);
+      maxX = Math.max(maxX, x * mpp.mppX);
+      minY = Math.min(minY, y * mpp.mppY);
+      maxY = Math.max(maxY, y * mpp.mppY);
+    }
+  }
+  if (!(maxX > minX && maxY > minY)) {
+    const g = map.grid;
+    minX = g.x0Um, maxX = g.x0Um + Math.max(1, g.nx - 1) * g.strideUm;
+    minY = g.y0Um, maxY = g.y0Um + Math.max(1, g.ny - 1) * g.strideUm;
+  }
+  const aspect = (maxY - minY) / (maxX - minX);
+  const h = Math.round(880 * (Number.isFinite(aspect) && aspect > 0 ? aspect : 0.75)) + 170;
+  return Math.min(980, Math.max(420, h));
 }
 
 /** "2.37 mm² circle, 1737.1 µm across" style description of a window. */
@@ -793,10 +818,10 @@ export function cohortFigure(results: readonly Pick<CaseResult, "report">[]): Pl
     }]
   );
   const layout: Record<string, unknown> = {
-    title: { text: "Hotspot counts by case", x: 0 },
+    title: { text: "Hotspot counts by case", x: 0, y: 0.985, yanchor: "top" },
     font: FONT,
-    height: 560,
-    margin: { l: 70, r: 20, t: 50, b: 90 },
+    height: 580,
+    margin: { l: 70, r: 20, t: 95, b: 90 },
     grid: { rows: 2, columns: 1, pattern: "independent", roworder: "top to bottom" },
     xaxis: { type: "category", tickangle: -30, automargin: true },
     xaxis2: { type: "category", tickangle: -30, automargin: true, matches: "x" },
@@ -805,7 +830,7 @@ export function cohortFigure(results: readonly Pick<CaseResult, "report">[]): Pl
     annotations,
     paper_bgcolor: "#ffffff",
     plot_bgcolor: "#ffffff",
-    legend: { orientation: "h", x: 0, y: 1.08, xanchor: "left", yanchor: "bottom" },
+    legend: { orientation: "h", x: 0, y: 1.03, xanchor: "left", yanchor: "bottom" },
     bargap: 0.35,
   };
   return {

@@ -1,0 +1,123 @@
+/**
+ * Opens written reports in headless Chromium (Debian package `chromium`) and
+ * checks that the plots render, nothing errs and nothing is fetched from the
+ * network; saves screenshots under test/output/.
+ */
+
+import { strict as assert } from "node:assert";
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join, resolve } from "node:path";
+import { pathToFileURL } from "node:url";
+import { writeOutputs } from "../../lib/report/write_outputs.ts";
+import { loadCase } from "../../lib/annotations/read_case.ts";
+import { buildCaseResult } from "../../lib/count/build_case_result.ts";
+import type { CaseResult } from "../../lib/count/engine_types.ts";
+import { fixtureResult } from "./_fixture.ts";
+import { type BrowserPage, evaluate, hasChromium, openBrowser, waitFor } from "./_cdp.ts";
+
+const inCi = Deno.env.get("CI") === "true";
+const available = hasChromium();
+if (!available && !inCi) {
+  console.log(
+    "browser_test.ts: /usr/bin/chromium not found, browser checks ignored. " +
+      "Install it with: apt-get install -y --no-install-recommends chromium",
+  );
+}
+
+const OUTPUT = resolve("test/output");
+
+async function checkPage(
+  page: BrowserPage,
+  file: string,
+  plots: number,
+  screenshot: string,
+): Promise<void> {
+  page.log.errors.length = 0;
+  page.log.requests.length = 0;
+  await page.send("Emulation.setDeviceMetricsOverride", {
+    width: 1280,
+    height: 900,
+    deviceScaleFactor: 1,
+    mobile: false,
+  });
+  await page.send("Page.navigate", { url: pathToFileURL(file).href });
+  const state = await waitFor(page, "document.body && document.body.dataset.plotsReady", 60000);
+  assert.equal(state, "true", `plots of ${file} did not render: ${page.log.errors.join("; ")}`);
+  const svgs = await evaluate(
+    page,
+    "document.querySelectorAll('.js-plotly-plot .main-svg').length",
+  );
+  assert.ok(Number(svgs) >= plots, `expected plot nodes in ${file}, found ${svgs}`);
+  const drawn = await evaluate(
+    page,
+    "document.querySelectorAll('.js-plotly-plot').length",
+  );
+  assert.equal(drawn, plots, `plots drawn in ${file}`);
+  assert.deepEqual(page.log.errors, [], `console errors in ${file}`);
+  const offline = page.log.requests.filter((u) => !u.startsWith("file:") && !u.startsWith("data:"));
+  assert.deepEqual(offline, [], `network requests from ${file}`);
+  const height = Number(await evaluate(page, "document.documentElement.scrollHeight"));
+  await page.send("Emulation.setDeviceMetricsOverride", {
+    width: 1280,
+    height: Math.min(Math.max(900, height), 8000),
+    deviceScaleFactor: 1,
+    mobile: false,
+  });
+  await new Promise((r) => setTimeout(r, 400));
+  const shot = await page.send("Page.captureScreenshot", { format: "png" });
+  mkdirSync(OUTPUT, { recursive: true });
+  const bytes = Uint8Array.from(atob(shot.data as string), (c) => c.charCodeAt(0));
+  writeFileSync(join(OUTPUT, screenshot), bytes);
+  // PNG signature (ISO/IEC 15948, §5.2).
+  assert.deepEqual([...bytes.slice(0, 8)], [137, 80, 78, 71, 13, 10, 26, 10]);
+}
+
+async function demoResult(name: string, scheme: string): Promise<CaseResult> {
+  const caseData = await loadCase({ annotationsPath: `data/demo/${name}.geojson` });
+  return buildCaseResult(caseData, { scheme, simulations: 99 });
+}
+
+Deno.test({
+  name: "report.html and index.html render their plots offline in headless Chromium",
+  ignore: !available && !inCi,
+  sanitizeResources: false,
+  sanitizeOps: false,
+  async fn() {
+    assert.ok(available, "CI needs /usr/bin/chromium: apt-get install -y chromium");
+    const dir = mkdtempSync(join(tmpdir(), "hotfield-browser-"));
+    const page = await openBrowser();
+    try {
+      const results = [
+        await demoResult("QVT-24-006", "canine-mct-2tier"),
+        await demoResult("QVT-24-005", "canine-mct-2tier"),
+        fixtureResult({ readers: ['<img src=x onerror="alert(1)">', "</script>&"] }),
+      ];
+      writeOutputs(results, dir, { generatedAt: "2026-01-01T00:00:00Z" });
+      await checkPage(page, join(dir, "QVT-24-006", "report.html"), 2, "report_QVT-24-006.png");
+      await checkPage(page, join(dir, "QVT-24-005", "report.html"), 2, "report_QVT-24-005.png");
+      await checkPage(page, join(dir, "QVT-24-901", "report.html"), 2, "report_fixture.png");
+      // The hostile reader name is shown as text, never run.
+      const hostile = await evaluate(
+        page,
+        "document.body.innerText.includes('<img src=x onerror=\"alert(1)\">')",
+      );
+      assert.equal(hostile, true);
+      assert.equal(await evaluate(page, "document.querySelectorAll('main img').length"), 0);
+      await checkPage(page, join(dir, "index.html"), 1, "index.png");
+
+      const alone = mkdtempSync(join(tmpdir(), "hotfield-browser-alone-"));
+      writeOutputs([results[0]], alone, {
+        formats: ["html"],
+        standalone: true,
+        generatedAt: null,
+      });
+      rmSync(join(alone, "assets"), { recursive: true, force: true });
+      await checkPage(page, join(alone, "QVT-24-006", "report.html"), 2, "report_standalone.png");
+      rmSync(alone, { recursive: true, force: true });
+    } finally {
+      await page.close();
+      rmSync(dir, { recursive: true, force: true });
+    }
+  },
+});
