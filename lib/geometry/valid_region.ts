@@ -7,7 +7,7 @@
 import type { MultiPolygonPx, PolygonPx, RegionPart } from "../types.ts";
 import { inputError } from "../errors.ts";
 import { bandOf, buildBands, type EdgeBands } from "./_edges.ts";
-import { findContacts, tagEdges, type TaggedEdges } from "./_contacts.ts";
+import { type Contact, findContacts, tagEdges, type TaggedEdges } from "./_contacts.ts";
 import { bboxOf, boxesMeet } from "./_ring_sets.ts";
 import { intersectRegions, subtractRegions } from "./_pair_ops.ts";
 import { turfUnion } from "./_turf.ts";
@@ -48,15 +48,17 @@ function fmt(v: number): string {
 }
 
 /**
- * Ring nesting of polygons whose edges do not meet is consistent (outer rings
- * at even depth, holes at odd depth, counting the rings around each ring).
+ * Ring nesting of polygons whose edges meet at most at shared vertices is
+ * consistent: outer rings at even depth, holes at odd depth, counting the
+ * rings around the midpoint of each ring's first edge (a point on no other
+ * ring). False also when that midpoint lies on another ring.
  */
 function nestingIsConsistent(t: TaggedEdges, polys: PolygonPx[]): boolean {
   const bands: EdgeBands = buildBands(t);
   let rid = 0;
   for (const p of polys) {
     for (let r = 0; r < p.length; r++, rid++) {
-      const x = p[r][0][0], y = p[r][0][1];
+      const x = (p[r][0][0] + p[r][1][0]) / 2, y = (p[r][0][1] + p[r][1][1]) / 2;
       const k = bandOf(bands, y);
       let parity = 0;
       for (let s = bands.start[k], f = bands.start[k + 1]; s < f; s++) {
@@ -66,13 +68,88 @@ function nestingIsConsistent(t: TaggedEdges, polys: PolygonPx[]): boolean {
         if ((ay > y) !== (by > y)) {
           const ax = t.x0[i], bx = t.x1[i];
           const cr = (bx - ax) * (y - ay) - (by - ay) * (x - ax);
+          if (cr === 0) return false;
           if ((cr > 0) === (by > ay)) parity ^= 1;
-        }
+        } else if (ay === y && by === y) return false;
       }
       if (parity !== (r === 0 ? 0 : 1)) return false;
     }
   }
   return true;
+}
+
+/** Whether a contact is two edges sharing an end point (and nothing else known yet). */
+function isVertexContact(t: TaggedEdges, c: Contact): boolean {
+  const at = (e: number) =>
+    (t.x0[e] === c.x && t.y0[e] === c.y) || (t.x1[e] === c.x && t.y1[e] === c.y);
+  return at(c.a) && at(c.b);
+}
+
+/**
+ * At each shared vertex, the rings passing through must only touch. Every
+ * ring has the solid side on its right (outer rings clockwise on screen,
+ * holes anticlockwise); each pass through the vertex covers a wedge of solid.
+ * Returns the contacts at vertices where they do (crossings, overlaps).
+ */
+function badVertexTouches(t: TaggedEdges, contacts: Contact[]): Contact[] {
+  const byVertex = new Map<string, Contact[]>();
+  for (const c of contacts) {
+    const key = `${c.x},${c.y}`;
+    const list = byVertex.get(key);
+    if (list === undefined) byVertex.set(key, [c]);
+    else list.push(c);
+  }
+  const bad: Contact[] = [];
+  const TWO_PI = 2 * Math.PI;
+  for (const list of byVertex.values()) {
+    const vx = list[0].x, vy = list[0].y;
+    const passes = new Map<number, [number, number]>(); // in-edge → [start, length] of its wedge
+    for (const c of list) {
+      for (const e of [c.a, c.b]) {
+        const m = t.ringEdges[t.ring[e]];
+        const first = e - t.pos[e];
+        let inE: number, outE: number;
+        if (t.x1[e] === vx && t.y1[e] === vy) {
+          inE = e;
+          outE = first + (t.pos[e] + 1) % m;
+        } else {
+          outE = e;
+          inE = first + (t.pos[e] + m - 1) % m;
+        }
+        if (passes.has(inE)) continue;
+        const start = Math.atan2(t.y1[outE] - vy, t.x1[outE] - vx);
+        const end = Math.atan2(t.y0[inE] - vy, t.x0[inE] - vx);
+        let len = end - start;
+        if (len <= 0) len += TWO_PI;
+        passes.set(inE, [start, len]);
+      }
+    }
+    // sweep once around the vertex: the number of solid wedges covering each
+    // sector may vary by at most one (0/1 for touching pieces, 1/2 where a
+    // hole touches its outer ring); any more means overlap or a crossing
+    const events: [number, number][] = [];
+    let count = 0;
+    for (const [start, len] of passes.values()) {
+      events.push([start, 1]);
+      let end = start + len;
+      if (end > Math.PI) {
+        end -= TWO_PI;
+        count++; // the wedge covers the sweep's starting angle −π
+      }
+      events.push([end, -1]);
+    }
+    events.sort((p, q) => p[0] - q[0]);
+    let lo = count, hi = count, ok = true;
+    for (let i = 0; i < events.length; i++) {
+      if (i > 0 && events[i][0] === events[i - 1][0]) ok = false; // edges along each other
+      count += events[i][1];
+      if (count < lo) lo = count;
+      if (count > hi) hi = count;
+    }
+    if (hi - lo > 1) ok = false;
+    if (!ok) bad.push(list[0]);
+  }
+  return bad;
 }
 
 /**
@@ -101,9 +178,12 @@ function unionRole(parts: RegionPart[], role: string, warnings: string[]): Multi
   if (polys.length === 0) return [];
   const tagged = tagEdges(polys, groups);
   const contacts = findContacts(tagged, "all", false);
-  if (contacts.length === 0 && nestingIsConsistent(tagged, polys)) return polys;
+  // polygons that only touch at shared vertices (as traced masks do) need no union
+  const bad = contacts.filter((c) => !isVertexContact(tagged, c));
+  if (bad.length === 0) bad.push(...badVertexTouches(tagged, contacts));
+  if (bad.length === 0 && nestingIsConsistent(tagged, polys)) return polys;
   const warned = new Set<number>();
-  for (const c of contacts) {
+  for (const c of bad) {
     const g = tagged.group[c.a];
     if (g !== tagged.group[c.b] || warned.has(g)) continue;
     warned.add(g);
@@ -147,19 +227,25 @@ function subtractNear(a: MultiPolygonPx, x: MultiPolygonPx): MultiPolygonPx {
  * accepted and the result is normalized (outer rings positive shoelace area,
  * holes negative) with polygons that do not overlap (they may touch).
  *
- * **Self-intersecting outlines are repaired, not rejected:** such a part
- * (e.g. a bow-tie) is replaced by the planar union of its own area, which
- * keeps every area the outline encloses (a bow-tie becomes its two
+ * **Self-intersecting outlines are repaired, not rejected:** when a part's
+ * outline crosses itself (e.g. a bow-tie), runs back along itself, or its
+ * polygons overlap, the role is replaced by the planar union of its parts,
+ * which keeps every area the outline encloses (a bow-tie becomes its two
  * triangles), and a warning names the part's `source` and the approximate
- * position of the crossing in pixels. Outlines that touch themselves at a
- * point are treated the same way.
+ * position of the problem in pixels. Rings that merely touch at a shared
+ * vertex without crossing (a hole touching its outer ring, or traced mask
+ * pieces meeting corner to corner) are valid and kept as they are.
+ * Overlapping parts of one role are united without a warning.
  *
- * Speed: planar set operations are skipped wherever they cannot change the
- * result: a role whose outlines meet nowhere needs no union, polygons whose
- * bounding boxes miss the other operand are passed through or dropped, and
+ * Speed: planar set operations are avoided wherever they cannot change the
+ * result. A role whose outlines meet nowhere needs no union; polygons whose
+ * bounding boxes miss the other operand are passed through or dropped;
  * operands whose boundaries do not meet are combined ring by ring (one
- * point-in-region test per ring). Boundary contacts are found with a grid of
- * edges in about O(n).
+ * point-in-region test per ring); and when they do meet, only the rings
+ * involved are clipped, by splitting them at their crossings and keeping the
+ * pieces inside every other ring's constraint (one midpoint test per piece).
+ * The general clipper is used only for degenerate contacts (shared edges,
+ * vertices on edges). Contacts are found with a grid of edges in about O(n).
  *
  * @param parts Tissue, tumour and exclude parts as read.
  * @returns The region, the unions, their areas (px²) and warnings.

@@ -135,7 +135,9 @@ const DY = [0, 1, 0, -1];
  * different polygons (at such a corner the contour turns towards the tissue
  * pixel it came along, so the two polygons share just that vertex). Each
  * 4-connected component gives one polygon: its outer boundary and its holes
- * (background enclosed by it, of any connectivity). Runs of collinear pixel
+ * (the background it encloses; background is thereby 8-connected, so
+ * enclosed background pixels touching diagonally form one hole whose ring
+ * passes their shared corner twice). Runs of collinear pixel
  * edges are merged into single edges. Mask pixel (i, j) covers
  * `[originX + i·scaleX, originX + (i+1)·scaleX] × [originY + j·scaleY, …]` in
  * slide pixels; polygons are normalized (outer rings positive shoelace area

@@ -191,6 +191,22 @@ Deno.test("buildValidRegion() keeps touching polygons and vertex-touching holes 
   });
   // hand calculation: 100 + 100 + (100 − 10.5); the hole triangle has area ½·|5·5 − 2·2| = 10.5
   assert.ok(Math.abs(v.validAreaPx2 - 289.5) < 1e-9, String(v.validAreaPx2));
+  assert.deepEqual(v.warnings, []);
+  // corner-to-corner pieces (as a traced mask gives) are valid too
+  const diag = buildValidRegion({
+    tissue: [part([[rect(0, 0, 1, 1)], [rect(1, 1, 2, 2)]], "mask.png")],
+    tumour: [],
+    exclude: [],
+  });
+  assert.deepEqual(diag.warnings, []);
+  assert.equal(diag.region.length, 2);
+  // a hole crossing its outer ring at a vertex is not a mere touch: repaired, with a warning
+  const crossing = buildValidRegion({
+    tissue: [part([[rect(0, 0, 10, 10), [[0, 0], [-2, 5], [5, 2], [0, 0]]]], "bad")],
+    tumour: [],
+    exclude: [],
+  });
+  assert.equal(crossing.warnings.length, 1);
   checkNormalized(v.region);
 });
 
