@@ -35,6 +35,10 @@ import { seededRandom } from "../demo/random.ts";
 /** Least and greatest number of simulations accepted. */
 export const SCAN_SIMULATIONS_MIN = 19;
 export const SCAN_SIMULATIONS_MAX = 100_000;
+const DEFAULT_WORK_BUDGET = 1_500_000;
+const DEFAULT_MAX_RECT_POSITIONS = 250_000;
+/** Side of the sampling cells for rectangles, µm (rounded to whole scanned strides). */
+const RECT_CELL_UM = 100;
 
 /** What {@linkcode scanTest} reads. */
 export interface ScanTestInput {
@@ -55,11 +59,17 @@ export interface ScanTestOptions {
   /** Seed of the generator. @default 1 */
   seed?: number;
   /**
-   * Work budget per simulation (position × stencil-row visits); larger grids
-   * are scanned at every k-th position.
-   * @default 4_000_000
+   * Circles: work budget per simulation (position × stencil-row visits);
+   * larger grids are scanned at every k-th position.
+   * @default 1_500_000
    */
   workBudget?: number;
+  /**
+   * Rectangles: most positions scanned; larger grids are scanned at every
+   * k-th position.
+   * @default 250_000
+   */
+  maxRectPositions?: number;
 }
 
 /** Result of {@linkcode scanTest}. */
@@ -72,8 +82,8 @@ export interface ScanTestResult {
   seed: number;
   /** Number of simulations whose maximum was ≥ observed. */
   atLeastObserved: number;
-  /** Maximum window count of every simulation. */
-  simulatedMax: Int32Array;
+  /** Maximum window count of every simulation (fractional for circles, see notes). */
+  simulatedMax: Float64Array;
   /** Every k-th grid position was scanned (1 = all). */
   gridStep: number;
   /** Plain words: statistic and approximations. */
@@ -133,20 +143,22 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
   const isRect = window.shape === "rect";
   const halfW = isRect ? window.widthUm / 2 : window.diameterUm / 2;
   const halfH = isRect ? window.heightUm / 2 : window.diameterUm / 2;
-  const rowsPerPosition = isRect ? 2 : 2 * Math.floor(halfH / s) + 1;
-  const budget = options.workBudget ?? 4_000_000;
+  // Scanned positions: every step-th grid centre along x and y (a sub-lattice
+  // of stride S), chosen so one simulation stays within the work budget and,
+  // for rectangles, the difference array stays small enough for the cache.
+  const budget = options.workBudget ?? DEFAULT_WORK_BUDGET;
+  const maxRectPositions = options.maxRectPositions ?? DEFAULT_MAX_RECT_POSITIONS;
   let step = 1;
-  while ((nx / step) * (ny / step) * rowsPerPosition > budget) step++;
+  const cost = (k: number) =>
+    isRect
+      ? (nx / k) * (ny / k) / maxRectPositions
+      : (nx / k) * (ny / k) * (2 * Math.floor(halfH / (s * k)) + 1) / budget;
+  while (cost(step) > 1) step++;
+  const S = s * step;
   const mx = Math.ceil(nx / step);
   const my = Math.ceil(ny / step);
-  if (step > 1) {
-    warnings.push(
-      `Scan test: the grid of ${nx} × ${ny} positions was scanned at every ${step}th position ` +
-        `(${mx} × ${my}) to keep it fast`,
-    );
-  }
 
-  // Evaluated positions (sub-lattice) and the observed maximum on them.
+  // Observed maximum on the scanned positions.
   const evalAdmissible = new Uint8Array(mx * my);
   let observed = 0;
   for (let jj = 0; jj < my; jj++) {
@@ -159,82 +171,69 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
     }
   }
 
-  // Cells centred on grid nodes, covering V's bounding box.
+  // Cells over V's bounding box. Rectangles: side m·S with edges on scanned
+  // nodes (about 100 µm). Circles: side S centred on scanned nodes (a point
+  // then counts at its node).
   const bbox = regionBBox(input.validUm);
-  const kx0 = Math.floor((bbox[0] - grid.x0Um) / s + 0.5);
-  const kx1 = Math.floor((bbox[2] - grid.x0Um) / s + 0.5);
-  const ky0 = Math.floor((bbox[1] - grid.y0Um) / s + 0.5);
-  const ky1 = Math.floor((bbox[3] - grid.y0Um) / s + 0.5);
-  const cw = Math.max(1, kx1 - kx0 + 1);
-  const ch = Math.max(1, ky1 - ky0 + 1);
-  const cellX0 = grid.x0Um + (kx0 - 0.5) * s;
-  const cellY0 = grid.y0Um + (ky0 - 0.5) * s;
-  const area = cellAreas(input.validUm, cellX0, cellY0, s, cw, ch, 8);
+  const m = isRect ? Math.max(1, Math.round(RECT_CELL_UM / S)) : 1;
+  const C = m * S;
+  let cellX0: number, cellY0: number, kx0: number, ky0: number;
+  if (isRect) {
+    kx0 = Math.floor((bbox[0] - grid.x0Um) / S);
+    ky0 = Math.floor((bbox[1] - grid.y0Um) / S);
+    cellX0 = grid.x0Um + kx0 * S;
+    cellY0 = grid.y0Um + ky0 * S;
+  } else {
+    kx0 = Math.floor((bbox[0] - grid.x0Um) / S + 0.5);
+    ky0 = Math.floor((bbox[1] - grid.y0Um) / S + 0.5);
+    cellX0 = grid.x0Um + (kx0 - 0.5) * S;
+    cellY0 = grid.y0Um + (ky0 - 0.5) * S;
+  }
+  const cw = Math.max(1, Math.ceil((bbox[2] - cellX0) / C));
+  const ch = Math.max(1, Math.ceil((bbox[3] - cellY0) / C));
+  const area = cellAreas(input.validUm, cellX0, cellY0, C, cw, ch, 8);
   const alias = buildAlias(area);
 
-  const simulatedMax = new Int32Array(simulations);
+  const simulatedMax = new Float64Array(simulations);
   const random = seededRandom(seed);
   let atLeast = 0;
   if (n === 0 || alias === null) {
     // Nothing to place: every simulated maximum is 0.
     atLeast = observed <= 0 ? simulations : 0;
   } else if (isRect) {
-    const diff = new Int32Array((mx + 1) * (my + 1));
-    const w1 = mx + 1;
+    const simulate = rectSimulator({
+      alias,
+      weights: area,
+      cw,
+      ch,
+      m,
+      kx0,
+      ky0,
+      mx,
+      my,
+      halfX: halfW / S,
+      halfY: halfH / S,
+      evalAdmissible,
+      n,
+    });
     for (let sim = 0; sim < simulations; sim++) {
-      diff.fill(0);
-      for (let q = 0; q < n; q++) {
-        const cell = drawCell(alias, random);
-        const cy = (cell / cw) | 0;
-        const cx = cell - cy * cw;
-        const x = cellX0 + (cx + random()) * s - grid.x0Um;
-        const y = cellY0 + (cy + random()) * s - grid.y0Um;
-        // Closed window: |x − centre| ≤ W/2 → centre index range [lo, hi].
-        let ilo = Math.ceil((x - halfW) / s);
-        let ihi = Math.floor((x + halfW) / s);
-        let jlo = Math.ceil((y - halfH) / s);
-        let jhi = Math.floor((y + halfH) / s);
-        if (ilo < 0) ilo = 0;
-        if (jlo < 0) jlo = 0;
-        if (ihi > nx - 1) ihi = nx - 1;
-        if (jhi > ny - 1) jhi = ny - 1;
-        if (ilo > ihi || jlo > jhi) continue;
-        const a = Math.ceil(ilo / step), b = Math.floor(ihi / step);
-        const c = Math.ceil(jlo / step), d = Math.floor(jhi / step);
-        if (a > b || c > d) continue;
-        diff[c * w1 + a]++;
-        diff[c * w1 + b + 1]--;
-        diff[(d + 1) * w1 + a]--;
-        diff[(d + 1) * w1 + b + 1]++;
-      }
-      // 2-D prefix sums give the count at every evaluated position.
-      let max = 0;
-      for (let jj = 0; jj < my; jj++) {
-        let run = 0;
-        for (let ii = 0; ii < mx; ii++) {
-          const k = jj * w1 + ii;
-          run += diff[k];
-          const v = run + (jj > 0 ? diff[k - w1] : 0);
-          diff[k] = v;
-          if (evalAdmissible[jj * mx + ii] && v > max) max = v;
-        }
-      }
+      const max = simulate(random);
       simulatedMax[sim] = max;
       if (max >= observed) atLeast++;
     }
   } else {
-    // Circle: stencil of grid nodes within the radius, row prefix sums over cells.
-    const r = halfW;
-    const reach = Math.floor(r / s);
-    const half = new Int32Array(2 * reach + 1);
-    for (let dj = -reach; dj <= reach; dj++) {
-      half[dj + reach] = Math.floor(Math.sqrt(Math.max(0, r * r - dj * s * dj * s)) / s + 1e-9);
-    }
+    // Circle: a point counts at its cell's node; the window holds the nodes
+    // within a distance threshold (half-widths per row). No threshold gives
+    // exactly the circle's area, so the count is interpolated between the
+    // largest inner and smallest outer disk of whole rings:
+    // v = v_in + w·(v_out − v_in) with w matching the area.
+    const st = diskStencils(halfW / S);
+    const reach = st.reach, hIn = st.halfIn, hOut = st.halfOut, wRing = st.weight;
     const cellCounts = new Int32Array(cw * ch);
     const prefix = new Int32Array(ch * (cw + 1));
+    const drawCounts = cellCountSampler(area, alias, n);
     for (let sim = 0; sim < simulations; sim++) {
-      cellCounts.fill(0);
-      for (let q = 0; q < n; q++) cellCounts[drawCell(alias, random)]++;
+      drawCounts(cellCounts, random);
       for (let cy = 0; cy < ch; cy++) {
         let run = 0;
         const base = cy * (cw + 1);
@@ -246,23 +245,28 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
       }
       let max = 0;
       for (let jj = 0; jj < my; jj++) {
-        const j = jj * step;
         for (let ii = 0; ii < mx; ii++) {
           if (!evalAdmissible[jj * mx + ii]) continue;
-          const i = ii * step;
-          const ci = i - kx0;
-          let v = 0;
+          const ci = ii - kx0;
+          let vIn = 0, vOut = 0;
           for (let dj = -reach; dj <= reach; dj++) {
-            const cy = j + dj - ky0;
+            const cy = jj + dj - ky0;
             if (cy < 0 || cy >= ch) continue;
-            const h = half[dj + reach];
-            let lo = ci - h, hi = ci + h;
+            const base = cy * (cw + 1);
+            const ho = hOut[dj + reach];
+            let lo = ci - ho, hi = ci + ho;
             if (lo < 0) lo = 0;
             if (hi > cw - 1) hi = cw - 1;
-            if (lo > hi) continue;
-            const base = cy * (cw + 1);
-            v += prefix[base + hi + 1] - prefix[base + lo];
+            if (lo <= hi) vOut += prefix[base + hi + 1] - prefix[base + lo];
+            const h = hIn[dj + reach];
+            if (h < 0) continue;
+            lo = ci - h;
+            hi = ci + h;
+            if (lo < 0) lo = 0;
+            if (hi > cw - 1) hi = cw - 1;
+            if (lo <= hi) vIn += prefix[base + hi + 1] - prefix[base + lo];
           }
+          const v = vIn + wRing * (vOut - vIn);
           if (v > max) max = v;
         }
       }
@@ -270,7 +274,6 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
       if (max >= observed) atLeast++;
     }
   }
-  for (let sim = 0; n === 0 && sim < simulations; sim++) simulatedMax[sim] = 0;
   return {
     p: (1 + atLeast) / (1 + simulations),
     observed,
@@ -282,10 +285,230 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
     method:
       "Monte Carlo scan test: statistic = maximum admissible window count on the fixed-size " +
       `window grid; ${simulations} simulations of ${n} figures placed uniformly over V ` +
-      `(cells of ${s} µm weighted by the area of V in each, uniform within a cell)` +
-      (isRect ? "" : "; circle counts at cell nodes (error up to half a stride)") +
-      (step > 1 ? `; every ${step}th grid position scanned` : ""),
+      `(cells of ${round(S, 3)} µm weighted by the area of V in each, uniform within a cell)` +
+      (isRect
+        ? ""
+        : `; circle counts at cell nodes, interpolated between two node disks to the window's area`) +
+      (step > 1 ? `; every ${step}th grid position along x and y scanned (${mx} × ${my})` : ""),
     warnings,
+  };
+}
+
+function round(x: number, digits: number): number {
+  const f = 10 ** digits;
+  return Math.round(x * f) / f;
+}
+
+/**
+ * Draws multinomial(n, w) cell counts. Cell counts are drawn as independent Poisson(n·w_c) variates (w_c = the
+ * cell's share of V's area) and then made to total exactly n: surplus figures
+ * are removed uniformly at random, missing ones added by the alias method, so
+ * the counts are multinomial(n, w) as for n independent uniform figures.
+ */
+function cellCountSampler(
+  weights: Float64Array,
+  alias: AliasTable,
+  n: number,
+): (counts: Int32Array, random: () => number) => void {
+  const nCells = weights.length;
+  // Poisson means per cell, split into pieces of at most 500 so e^−λ stays > 0.
+  let total = 0;
+  for (let c = 0; c < nCells; c++) total += weights[c];
+  const cells: number[] = [];
+  for (let c = 0; c < nCells; c++) if (weights[c] > 0) cells.push(c);
+  const lam = new Float64Array(cells.length);
+  const pieces = new Int32Array(cells.length);
+  const expNeg = new Float64Array(cells.length);
+  for (let q = 0; q < cells.length; q++) {
+    const l = (n * weights[cells[q]]) / total;
+    pieces[q] = Math.max(1, Math.ceil(l / 500));
+    lam[q] = l / pieces[q];
+    expNeg[q] = Math.exp(-lam[q]);
+  }
+  const { prob, alias: other } = alias;
+  return (counts, random) => {
+    counts.fill(0);
+    let drawn = 0;
+    for (let q = 0; q < cells.length; q++) {
+      const l = lam[q];
+      let k = 0;
+      for (let piece = pieces[q]; piece > 0; piece--) {
+        // Inversion: smallest j with F(j) ≥ u.
+        const u = random();
+        let p = expNeg[q];
+        let f = p;
+        let j = 0;
+        while (u > f && j < 100000) {
+          j++;
+          p *= l / j;
+          f += p;
+        }
+        k += j;
+      }
+      counts[cells[q]] = k;
+      drawn += k;
+    }
+    if (drawn > n) removeUniformly(counts, drawn, drawn - n, random);
+    for (; drawn < n; drawn++) {
+      const u = random() * nCells;
+      const i = u | 0;
+      counts[u - i < prob[i] ? i : other[i]]++;
+    }
+  };
+}
+
+/**
+ * One simulation of the rectangle statistic: cell counts, then cell by cell
+ * (row-major, so the difference array is written nearly in order) each
+ * figure gets a uniform spot in its cell (on a 256 × 256 sub-grid) and adds 1
+ * to the block of scanned positions whose closed window holds it. Positions
+ * are in scanned-lattice units (node i at x0 + i·S).
+ */
+function rectSimulator(o: {
+  alias: AliasTable;
+  weights: Float64Array;
+  cw: number;
+  ch: number;
+  m: number;
+  kx0: number;
+  ky0: number;
+  mx: number;
+  my: number;
+  halfX: number;
+  halfY: number;
+  evalAdmissible: Uint8Array;
+  n: number;
+}): (random: () => number) => number {
+  const { alias, weights, cw, ch, m, kx0, ky0, mx, my, halfX, halfY, evalAdmissible, n } = o;
+  const w1 = mx + 1;
+  const diff = new Int32Array(w1 * (my + 1));
+  const nCells = cw * ch;
+  const cellCounts = new Int32Array(nCells);
+  const scale = m / 256;
+  const drawCounts = cellCountSampler(weights, alias, n);
+  return (random) => {
+    diff.fill(0);
+    drawCounts(cellCounts, random);
+    let bits = 0, left = 0;
+    for (let cy = 0; cy < ch; cy++) {
+      const yBase = ky0 + cy * m;
+      for (let cx = 0; cx < cw; cx++) {
+        let k = cellCounts[cy * cw + cx];
+        if (k === 0) continue;
+        const xBase = kx0 + cx * m;
+        for (; k > 0; k--) {
+          // A spot on a 256 × 256 sub-grid of the cell (8 bits per axis;
+          // one 32-bit draw serves two figures).
+          if (left === 0) {
+            bits = (random() * 4294967296) >>> 0;
+            left = 2;
+          }
+          const x = xBase + ((bits & 0xff) + 0.5) * scale;
+          const y = yBase + (((bits >>> 8) & 0xff) + 0.5) * scale;
+          bits >>>= 16;
+          left--;
+          // Closed window: |x − node| ≤ W/2 → node range [lo, hi].
+          let ilo = Math.ceil(x - halfX);
+          let ihi = Math.floor(x + halfX);
+          let jlo = Math.ceil(y - halfY);
+          let jhi = Math.floor(y + halfY);
+          if (ilo < 0) ilo = 0;
+          if (jlo < 0) jlo = 0;
+          if (ihi > mx - 1) ihi = mx - 1;
+          if (jhi > my - 1) jhi = my - 1;
+          if (ilo > ihi || jlo > jhi) continue;
+          diff[jlo * w1 + ilo]++;
+          diff[jlo * w1 + ihi + 1]--;
+          diff[(jhi + 1) * w1 + ilo]--;
+          diff[(jhi + 1) * w1 + ihi + 1]++;
+        }
+      }
+    }
+    // In-place 2-D prefix sums give the count at every scanned position.
+    let max = 0;
+    for (let jj = 0; jj < my; jj++) {
+      let run = 0;
+      for (let ii = 0; ii < mx; ii++) {
+        const k = jj * w1 + ii;
+        run += diff[k];
+        const v = run + (jj > 0 ? diff[k - w1] : 0);
+        diff[k] = v;
+        if (v > max && evalAdmissible[jj * mx + ii]) max = v;
+      }
+    }
+    return max;
+  };
+}
+
+/**
+ * Removes `remove` of the `total` figures in `counts`, each subset of that
+ * size equally likely: distinct ranks in [0, total), then one sweep.
+ */
+function removeUniformly(
+  counts: Int32Array,
+  total: number,
+  remove: number,
+  random: () => number,
+): void {
+  const chosen = new Set<number>();
+  while (chosen.size < remove) chosen.add(Math.floor(random() * total));
+  const ranks = [...chosen].sort((a, b) => a - b);
+  let r = 0, before = 0;
+  for (let c = 0; c < counts.length && r < ranks.length; c++) {
+    const k = counts[c];
+    let drop = 0;
+    while (r < ranks.length && ranks[r] < before + k) {
+      drop++;
+      r++;
+    }
+    counts[c] = k - drop;
+    before += k;
+  }
+}
+
+/**
+ * Two disks of grid nodes around a circle of radius `radiusNodes` (in node
+ * spacings): the largest whole-ring disk with at most π·r² nodes and the
+ * smallest with at least that many, as half-widths per row offset (−1: row
+ * empty), and the weight w with n_in + w·(n_out − n_in) = π·r².
+ */
+function diskStencils(radiusNodes: number): {
+  reach: number;
+  halfIn: Int32Array;
+  halfOut: Int32Array;
+  weight: number;
+} {
+  const target = Math.PI * radiusNodes * radiusNodes;
+  const lim = Math.floor(radiusNodes) + 2;
+  const d2s: number[] = [];
+  for (let a = -lim; a <= lim; a++) for (let b = -lim; b <= lim; b++) d2s.push(a * a + b * b);
+  d2s.sort((x, y) => x - y);
+  // Whole rings: the count of nodes with d² ≤ t for each distinct t.
+  let inD2 = -1, inN = 0, outD2 = 0, outN = 0;
+  for (let k = 0; k < d2s.length; k++) {
+    if (k + 1 < d2s.length && d2s[k + 1] === d2s[k]) continue;
+    if (k + 1 <= target) {
+      inD2 = d2s[k];
+      inN = k + 1;
+    } else {
+      outD2 = d2s[k];
+      outN = k + 1;
+      break;
+    }
+  }
+  const reach = Math.floor(Math.sqrt(outD2));
+  const rowHalf = (d2: number) => {
+    const half = new Int32Array(2 * reach + 1);
+    for (let dj = -reach; dj <= reach; dj++) {
+      half[dj + reach] = d2 - dj * dj < 0 ? -1 : Math.floor(Math.sqrt(d2 - dj * dj) + 1e-9);
+    }
+    return half;
+  };
+  return {
+    reach,
+    halfIn: rowHalf(inD2),
+    halfOut: rowHalf(outD2),
+    weight: outN === inN ? 0 : (target - inN) / (outN - inN),
   };
 }
 
@@ -398,10 +621,4 @@ function buildAlias(weights: Float64Array): AliasTable | null {
     }
   }
   return { prob, alias, n };
-}
-
-function drawCell(t: AliasTable, random: () => number): number {
-  const u = random() * t.n;
-  const i = u | 0;
-  return u - i < t.prob[i] ? i : t.alias[i];
 }
