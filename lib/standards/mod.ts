@@ -7,6 +7,23 @@
 export type * from "./scheme_types.ts";
 export { getScheme, listSchemes } from "./list_schemes.ts";
 export {
+  convertCount,
+  digitalFieldArea,
+  type DigitalFieldOptions,
+  type FieldOfView,
+  fieldOfView,
+  type FieldOfViewOptions,
+  fieldsForArea,
+  MAX_FIELD_DIAMETER_MM,
+} from "./field_of_view.ts";
+export {
+  NOTTINGHAM_REFERENCE_FIELD_MM2,
+  type NottinghamCutoffs,
+  nottinghamCutoffs,
+  nottinghamScore,
+  nottinghamTable,
+} from "./nottingham.ts";
+export {
   areaFactor,
   basisAreaMm2,
   classifyCounts,
