@@ -1,0 +1,469 @@
+/**
+ * `deno task bench`: speed and memory of hotfield on an invented slide at
+ * whole-slide scale (lib/demo/bench_slide.ts: 30 × 20 mm at 0.25 µm/px,
+ * 250,000 figure candidates, a tissue outline of ~20,000 vertices with 40
+ * holes), in one run, with the targets beside each figure.
+ *
+ * Writes the slide to bench/output/ (gitignored) and the table to stdout and
+ * bench/output/results.md. Times on a shared 2-core machine are noisy: read
+ * the ratios measured in the same run rather than single times.
+ *
+ * Options: `--seed N` (slide seed, default 2024), `--quick` (one repeat of
+ * everything, fewer Turf windows), `--skip-process` (no CLI runs).
+ *
+ * @module
+ */
+
+import { existsSync, mkdirSync, rmSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { parseArgs } from "node:util";
+import booleanPointInPolygon from "@turf/boolean-point-in-polygon";
+import { benchSlideGeoJson, generateBenchSlide } from "../lib/demo/bench_slide.ts";
+
+const ROOT = join(import.meta.dirname ?? ".", "..");
+const OUT = join(ROOT, "bench", "output");
+
+interface Row {
+  step: string;
+  value: string;
+  target: string;
+  verdict: "PASS" | "MISS" | "info" | "n/a";
+  note: string;
+}
+
+const rows: Row[] = [];
+const log = (s: string) => console.error(s);
+
+function ms(v: number): string {
+  return v >= 1000 ? `${(v / 1000).toFixed(2)} s` : `${v.toFixed(v < 10 ? 2 : 0)} ms`;
+}
+
+function add(
+  step: string,
+  value: string,
+  target: string,
+  pass: boolean | null,
+  note = "",
+): void {
+  const verdict = pass === null ? (target === "" ? "info" : "n/a") : pass ? "PASS" : "MISS";
+  rows.push({ step, value, target, verdict, note });
+  log(
+    `  ${step}: ${value}${target ? ` (target ${target}: ${verdict})` : ""}${
+      note ? ` — ${note}` : ""
+    }`,
+  );
+}
+
+function missing(step: string, target: string, why: string): void {
+  rows.push({ step, value: "not available", target, verdict: "n/a", note: why });
+  log(`  ${step}: not available (${why})`);
+}
+
+/** Best of `n` runs of `fn`, in ms; returns the last result too. */
+function best<T>(n: number, fn: () => T): { ms: number; all: number[]; result: T } {
+  const all: number[] = [];
+  let result!: T;
+  for (let k = 0; k < n; k++) {
+    const t = performance.now();
+    result = fn();
+    all.push(performance.now() - t);
+  }
+  return { ms: Math.min(...all), all, result };
+}
+
+async function bestAsync<T>(
+  n: number,
+  fn: () => Promise<T>,
+): Promise<{ ms: number; all: number[]; result: T }> {
+  const all: number[] = [];
+  let result!: T;
+  for (let k = 0; k < n; k++) {
+    const t = performance.now();
+    result = await fn();
+    all.push(performance.now() - t);
+  }
+  return { ms: Math.min(...all), all, result };
+}
+
+function runsNote(all: number[]): string {
+  return all.length > 1 ? `best of ${all.length}: ${all.map(ms).join(", ")}` : "1 run";
+}
+
+/** Imports a module, or null (with the reason) when it is not there yet. */
+async function optional<T>(load: () => Promise<T>): Promise<T | { missing: string }> {
+  try {
+    return await load();
+  } catch (e) {
+    return { missing: (e as Error).message.split("\n")[0] };
+  }
+}
+
+function isMissing(m: unknown): m is { missing: string } {
+  return typeof m === "object" && m !== null && "missing" in m;
+}
+
+// ---------------------------------------------------------------------------
+// Whole-process runs of the CLI, under GNU time when present.
+
+const GNU_TIME = "/usr/bin/time";
+
+async function runProcess(
+  args: string[],
+): Promise<{ wallMs: number; rssMb: number | null; code: number; stderr: string }> {
+  const useTime = existsSync(GNU_TIME);
+  const deno = Deno.execPath();
+  const cmd = useTime
+    ? new Deno.Command(GNU_TIME, { args: ["-v", deno, "run", "-A", ...args], cwd: ROOT })
+    : new Deno.Command(deno, { args: ["run", "-A", ...args], cwd: ROOT });
+  const t = performance.now();
+  const out = await cmd.output();
+  const wallMs = performance.now() - t;
+  const stderr = new TextDecoder().decode(out.stderr);
+  const m = /Maximum resident set size \(kbytes\): (\d+)/.exec(stderr);
+  return { wallMs, rssMb: m ? Number(m[1]) / 1024 : null, code: out.code, stderr };
+}
+
+async function processRows(
+  label: string,
+  file: string,
+  repeats: number,
+  reportVariants: [string, string[]][],
+): Promise<void> {
+  const cliPresent = existsSync(join(ROOT, "lib", "cli.ts")) &&
+    existsSync(join(ROOT, "lib", "cli", "inspect_command.ts"));
+  if (!cliPresent) {
+    missing(`hotfield inspect --json (${label}), whole process`, "< 2 s", "CLI not present");
+  } else {
+    const runs = [];
+    for (let k = 0; k < repeats; k++) {
+      runs.push(await runProcess(["lib/cli.ts", "inspect", "--json", file]));
+    }
+    if (runs.some((r) => r.code !== 0)) {
+      missing(
+        `hotfield inspect --json (${label}), whole process`,
+        "< 2 s",
+        `exit ${runs[0].code}: ${lastLine(runs[0].stderr)}`,
+      );
+    } else {
+      const wall = Math.min(...runs.map((r) => r.wallMs));
+      const rss = maxRss(runs);
+      add(
+        `hotfield inspect --json (${label}), whole process`,
+        ms(wall),
+        "< 2 s",
+        wall < 2000,
+        `${runsNote(runs.map((r) => r.wallMs))}; peak RSS ${rss}`,
+      );
+    }
+  }
+  if (!existsSync(join(ROOT, "lib", "cli", "report_command.ts"))) {
+    missing(
+      `hotfield report (${label}), whole process`,
+      "< 2 s, < 1 GB",
+      "report command not present",
+    );
+    return;
+  }
+  for (const [name, extra] of reportVariants) {
+    const outDir = join(OUT, `report_${label.replace(/\W+/g, "_")}`);
+    const runs = [];
+    for (let k = 0; k < 1; k++) {
+      rmSync(outDir, { recursive: true, force: true });
+      runs.push(await runProcess(["lib/cli.ts", "report", file, "--out", outDir, ...extra]));
+    }
+    const step = `hotfield report (${label}, ${name}), whole process`;
+    if (runs.some((r) => r.code !== 0)) {
+      missing(step, "< 2 s, < 1 GB", `exit ${runs[0].code}: ${lastLine(runs[0].stderr)}`);
+      continue;
+    }
+    const wall = Math.min(...runs.map((r) => r.wallMs));
+    const rssValues = runs.map((r) => r.rssMb).filter((v): v is number => v !== null);
+    const rssOk = rssValues.length === 0 ? true : Math.max(...rssValues) < 1024;
+    add(
+      step,
+      `${ms(wall)}, peak RSS ${maxRss(runs)}`,
+      "< 2 s, < 1 GB",
+      wall < 2000 && rssOk,
+      runsNote(runs.map((r) => r.wallMs)),
+    );
+  }
+}
+
+function maxRss(runs: { rssMb: number | null }[]): string {
+  const v = runs.map((r) => r.rssMb).filter((x): x is number => x !== null);
+  return v.length === 0
+    ? "n/a (no /usr/bin/time; Debian package time)"
+    : `${Math.max(...v).toFixed(0)} MB`;
+}
+
+function lastLine(s: string): string {
+  const lines = s.trim().split("\n").filter((l) =>
+    !/^\s/.test(l) && !l.startsWith("Command being")
+  );
+  return lines[0] ?? "";
+}
+
+// ---------------------------------------------------------------------------
+
+async function main(): Promise<void> {
+  const { values } = parseArgs({
+    args: Deno.args,
+    options: {
+      seed: { type: "string" },
+      quick: { type: "boolean" },
+      "skip-process": { type: "boolean" },
+    },
+  });
+  const seed = values.seed === undefined ? 2024 : Number(values.seed);
+  const quick = values.quick === true;
+  const reps = quick ? 1 : 3;
+  mkdirSync(OUT, { recursive: true });
+  const started = new Date();
+
+  log("Generating the benchmark slide …");
+  const gen = best(1, () => generateBenchSlide(seed));
+  const slide = gen.result;
+  const file = join(OUT, "bench_slide.geojson");
+  const fileTissue = join(OUT, "bench_slide_tissue_only.geojson");
+  const text = benchSlideGeoJson(slide);
+  writeFileSync(file, text);
+  writeFileSync(fileTissue, benchSlideGeoJson(slide, { tissueOnly: true }));
+  const holes = slide.tissue.length - 1;
+  add(
+    "generate slide (seeded)",
+    ms(gen.ms),
+    "",
+    null,
+    `${slide.figures.xPx.length} candidates, tissue ring ${
+      slide.tissue[0].length - 1
+    } vertices, ${holes} holes, ` +
+      `${(text.length / 1e6).toFixed(1)} MB GeoJSON`,
+  );
+
+  if (!values["skip-process"]) {
+    log("Whole-process runs …");
+    // A report run takes long enough that one run each is a fair figure.
+    await processRows("full", file, reps, [["defaults", []], ["--best-n 0", ["--best-n", "0"]]]);
+    await processRows("tissue only", fileTissue, quick ? 1 : 2, [["defaults", []]]);
+  }
+
+  log("In-process steps …");
+  const annotations = await optional(() => import("../lib/annotations/mod.ts"));
+  const geometry = await optional(() => import("../lib/geometry/mod.ts"));
+  const count = await optional(() => import("../lib/count/mod.ts"));
+  const stats = await optional(() => import("../lib/stats/mod.ts"));
+
+  if (isMissing(annotations) || typeof annotations.loadCase !== "function") {
+    missing(
+      "read case (loadCase)",
+      "",
+      isMissing(annotations) ? annotations.missing : "no loadCase",
+    );
+    return finish(started);
+  }
+  const read = await bestAsync(reps, () => annotations.loadCase({ annotationsPath: file }));
+  const caseData = read.result;
+  add("read case (loadCase: file, parse, checks)", ms(read.ms), "", null, runsNote(read.all));
+
+  if (isMissing(geometry) || typeof geometry.buildValidRegion !== "function") {
+    missing("valid region", "", isMissing(geometry) ? geometry.missing : "no buildValidRegion");
+  } else {
+    const vr = best(reps, () =>
+      geometry.buildValidRegion({
+        tissue: caseData.tissue,
+        tumour: caseData.tumour,
+        exclude: caseData.exclude,
+      }));
+    add("valid region (tissue ∩ tumour − exclude)", ms(vr.ms), "", null, runsNote(vr.all));
+    if (typeof geometry.createRegionIndex === "function") {
+      const { xPx, yPx } = caseData.figures;
+      const pip = best(
+        reps,
+        () => geometry.createRegionIndex(vr.result.region).containsPoints(xPx, yPx),
+      );
+      let inside = 0;
+      for (const v of pip.result) inside += v;
+      add(
+        `point-in-region, ${xPx.length} points (index + query)`,
+        ms(pip.ms),
+        "",
+        null,
+        `${inside} inside; ${runsNote(pip.all)}`,
+      );
+    } else missing("point-in-region", "", "no createRegionIndex");
+  }
+
+  if (isMissing(count) || typeof count.computeCountMap !== "function") {
+    missing("count map", "", isMissing(count) ? count.missing : "no computeCountMap");
+    return finish(started);
+  }
+  const prep = best(reps, () => count.prepareCase(caseData, {}));
+  const prepared = prep.result;
+  add(
+    "prepare case (valid region, tallies, µm plane)",
+    ms(prep.ms),
+    "",
+    null,
+    `${prepared.xUm.length} counted figures; ${runsNote(prep.all)}`,
+  );
+  const window = count.makeWindow({});
+  const cm = best(reps, () => count.computeCountMap(prepared, window, {}));
+  const map = cm.result;
+  const cells = map.grid.nx * map.grid.ny;
+  add(
+    "count map (counts + coverage, every grid centre)",
+    ms(cm.ms),
+    "",
+    null,
+    `${map.grid.nx} × ${map.grid.ny} = ${cells} centres at ${map.grid.strideUm} µm, ${map.positions} admissible; ${
+      runsNote(cm.all)
+    }`,
+  );
+
+  if (typeof count.findHotspot === "function") {
+    const hs = best(reps, () => count.findHotspot(prepared, map));
+    add(
+      "exact hotspot step",
+      ms(hs.ms),
+      "< 300 ms",
+      hs.ms < 300,
+      `count ${hs.result?.count ?? "none"}; ${runsNote(hs.all)}`,
+    );
+  } else missing("exact hotspot step", "< 300 ms", "no findHotspot");
+
+  if (typeof count.summarizeDistribution === "function") {
+    const ds = best(reps, () => count.summarizeDistribution(map));
+    add("distribution (five numbers, histogram)", ms(ds.ms), "", null, runsNote(ds.all));
+  } else missing("distribution", "", "no summarizeDistribution");
+
+  // Count map against a per-window loop of Turf point-in-polygon tests.
+  const sample = quick ? 5 : 20;
+  const admissible: number[] = [];
+  for (let k = 0; k < map.admissible.length; k++) if (map.admissible[k]) admissible.push(k);
+  if (admissible.length === 0 || window.shape !== "rect") {
+    missing("count map vs Turf loop", "≥ 100×", "no admissible rectangle window");
+  } else {
+    const { xUm, yUm } = prepared;
+    const hw = window.widthUm / 2, hh = window.heightUm / 2;
+    let agree = 0;
+    const chosen = Array.from(
+      { length: sample },
+      (_, s) => admissible[Math.floor((s + 0.5) * admissible.length / sample)],
+    );
+    const t = performance.now();
+    for (const k of chosen) {
+      const i = k % map.grid.nx, j = Math.floor(k / map.grid.nx);
+      const cx = map.grid.x0Um + i * map.grid.strideUm, cy = map.grid.y0Um + j * map.grid.strideUm;
+      const poly = {
+        type: "Polygon" as const,
+        coordinates: [[[cx - hw, cy - hh], [cx + hw, cy - hh], [cx + hw, cy + hh], [
+          cx - hw,
+          cy + hh,
+        ], [
+          cx - hw,
+          cy - hh,
+        ]]],
+      };
+      let n = 0;
+      // Turf's test includes the boundary by default, as hotfield's closed windows do.
+      for (let f = 0; f < xUm.length; f++) if (booleanPointInPolygon([xUm[f], yUm[f]], poly)) n++;
+      if (n === map.counts[k]) agree++;
+    }
+    const perWindow = (performance.now() - t) / sample;
+    const extrapolated = perWindow * cells;
+    const ratio = extrapolated / cm.ms;
+    add(
+      "count map vs per-window Turf point-in-polygon loop",
+      `${ratio.toFixed(0)}× faster`,
+      "≥ 100×",
+      ratio >= 100,
+      `Turf ${ms(perWindow)} per window × ${cells} centres ≈ ${ms(extrapolated)} vs ${
+        ms(cm.ms)
+      }; ` +
+        `${sample} sampled windows, ${agree}/${sample} counts agree with the map`,
+    );
+  }
+
+  if (isMissing(stats) || typeof stats.scanTest !== "function") {
+    missing(
+      "scan test, 999 simulations",
+      "< 10 s",
+      isMissing(stats) ? stats.missing : "no scanTest",
+    );
+  } else {
+    const st = best(1, () =>
+      stats.scanTest(
+        { validUm: prepared.validUm, totalCount: prepared.xUm.length, map, window },
+        { simulations: 999, seed: 1 },
+      ));
+    add(
+      "scan test, 999 Monte Carlo simulations",
+      ms(st.ms),
+      "< 10 s",
+      st.ms < 10_000,
+      `p = ${st.result.p.toFixed(4)}, grid step ${st.result.gridStep}; 1 run`,
+    );
+  }
+
+  // Tissue-only variant: the region is the tissue alone.
+  const readT = await annotations.loadCase({ annotationsPath: fileTissue });
+  const prepT = count.prepareCase(readT, {});
+  const cmT = best(reps, () => count.computeCountMap(prepT, window, {}));
+  add(
+    "count map, tissue-only variant",
+    ms(cmT.ms),
+    "",
+    null,
+    `${prepT.xUm.length} counted figures, ${cmT.result.positions} admissible; ${runsNote(cmT.all)}`,
+  );
+  if (typeof count.findHotspot === "function") {
+    const hsT = best(reps, () => count.findHotspot(prepT, cmT.result));
+    add(
+      "exact hotspot step, tissue-only variant",
+      ms(hsT.ms),
+      "< 300 ms",
+      hsT.ms < 300,
+      runsNote(hsT.all),
+    );
+  }
+  // How the hotspot step scales with the number of counted figures: the
+  // same slide counting only high-scoring figures.
+  if (typeof count.findHotspot === "function") {
+    const prepHi = count.prepareCase(caseData, { minScore: 0.9 });
+    const cmHi = count.computeCountMap(prepHi, window, {});
+    const hsHi = best(reps, () => count.findHotspot(prepHi, cmHi));
+    add(
+      "exact hotspot step, only score ≥ 0.9 counted",
+      ms(hsHi.ms),
+      "",
+      null,
+      `${prepHi.xUm.length} counted figures, hotspot count ${hsHi.result?.count ?? "none"}; ${
+        runsNote(hsHi.all)
+      }`,
+    );
+  }
+  finish(started);
+}
+
+function finish(started: Date): void {
+  const lines = [
+    `# hotfield benchmark`,
+    "",
+    `Run ${started.toISOString()}, Deno ${Deno.version.deno}, ${navigator.hardwareConcurrency} cores. ` +
+    "Invented slide from lib/demo/bench_slide.ts (30 × 20 mm at 0.25 µm/px, 120,000 × 80,000 px). " +
+    "Times on a shared machine are noisy; compare ratios within one run.",
+    "",
+    "| step | measured | target | verdict | notes |",
+    "| --- | --- | --- | --- | --- |",
+    ...rows.map((r) =>
+      `| ${r.step} | ${r.value} | ${r.target || "—"} | ${r.verdict} | ${r.note} |`
+    ),
+    "",
+  ];
+  const md = lines.join("\n");
+  writeFileSync(join(OUT, "results.md"), md);
+  console.log(md);
+  console.log(`Written to ${join("bench", "output", "results.md")}`);
+}
+
+await main();
