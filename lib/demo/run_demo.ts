@@ -106,11 +106,13 @@ export function summaryLine(result: CaseResult): string {
  *
  * @returns The results and the path to open (index.html or the folder).
  *
- * @example Reports of the demo cohort in a temporary folder (needs write permission)
+ * @example Reports of the demo cohort in a temporary folder (needs write and env permission)
  * ```ts
  * import { runDemo } from "./run_demo.ts";
  * import { fileURLToPath } from "node:url";
- * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
+ * const granted = async (name: "write" | "env") =>
+ *   (await Deno.permissions.query({ name })).state === "granted";
+ * if (await granted("write") && await granted("env")) {
  *   const outDir = Deno.makeTempDirSync();
  *   const dataDir = fileURLToPath(new URL("../../data/demo/", import.meta.url));
  *   const { results } = await runDemo({ dataDir, outDir, simulations: 0, print: () => {} });

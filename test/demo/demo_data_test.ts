@@ -11,7 +11,7 @@ import { parse } from "csv-parse/sync";
 import { DEMO_SEED, generateDemoCohort } from "../../lib/demo/demo_cohort.ts";
 import { writeDemoData } from "../../lib/demo/write_demo_data.ts";
 import { loadCase, readCaseFile } from "../../lib/annotations/mod.ts";
-import { demoCaseInputs } from "../../lib/demo/run_demo.ts";
+import { demoCaseInputs, runDemo } from "../../lib/demo/run_demo.ts";
 
 const DEMO_DIR = join(import.meta.dirname!, "..", "..", "data", "demo");
 
@@ -127,4 +127,30 @@ Deno.test("loadCase() reads every demo case without warnings", async () => {
   assert.equal(mask.maskMpp, 16);
   const csv = await readCaseFile(join(DEMO_DIR, "QVT-24-008.case.json"));
   assert.ok(csv.figuresPath?.endsWith("QVT-24-008.figures.csv"));
+});
+
+Deno.test("runDemo() writes a report per demo case and names what to open", async () => {
+  const outDir = Deno.makeTempDirSync();
+  try {
+    const lines: string[] = [];
+    const { results, open } = await runDemo({
+      dataDir: DEMO_DIR,
+      outDir,
+      simulations: 0,
+      print: (l) => lines.push(l),
+    });
+    assert.equal(results.length, 8);
+    assert.equal(lines.length, 8);
+    // QVT-24-005 is built so that valid tissue is smaller than 2.37 mm².
+    const small = results.find((r) => r.report.case === "QVT-24-005")!;
+    assert.ok(small.report.valid_area_mm2 < 2.37);
+    assert.equal(small.report.hotspot, null);
+    assert.match(lines[4], /no admissible/);
+    for (const r of results) {
+      assert.ok(Deno.statSync(join(outDir, r.report.case, "report.json")).isFile);
+    }
+    assert.ok(open === join(outDir, "index.html") || open === outDir);
+  } finally {
+    Deno.removeSync(outDir, { recursive: true });
+  }
 });
