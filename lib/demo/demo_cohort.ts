@@ -97,6 +97,8 @@ export interface DemoCase {
   figuresCsv?: DemoFigureRow[];
   /** Tissue given as a PNG mask instead of polygons. */
   tissueMask?: DemoMask;
+  /** For a mask case: the tissue polygons the mask was rasterized from (px). */
+  maskDrawnFrom?: PolygonPx[];
 }
 
 // ---------------------------------------------------------------------------
@@ -690,6 +692,6 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
     scheme: r.scheme,
     annotations: { type: "FeatureCollection", slide, features },
     ...(figuresCsv ? { figuresCsv } : {}),
-    ...(tissueMask ? { tissueMask } : {}),
+    ...(tissueMask ? { tissueMask, maskDrawnFrom: tissue } : {}),
   };
 }
