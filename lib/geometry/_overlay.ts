@@ -134,7 +134,10 @@ export function intersectCrossingRings(
           if (parity[r] === 0) touched.push(r);
           parity[r] ^= 1;
         }
-      } else if (ay === my && by === my) return null;
+      } else if (ay === my && by === my) {
+        const ax = x0[e], bx = x1[e];
+        if ((mx >= ax && mx <= bx) || (mx >= bx && mx <= ax)) return null;
+      }
     }
     let insideOuters = 0, insideHoles = 0;
     for (const r of touched) {

@@ -20,6 +20,7 @@
 
 import type { MultiPolygonPx, PolygonPx, Ring } from "../types.ts";
 import { findContacts, tagEdges } from "./_contacts.ts";
+import { buildBands, classifyPoint, flattenEdges } from "./_edges.ts";
 import { assembleRings, bboxOf, boxesMeet, intersectDisjointBoundaries } from "./_ring_sets.ts";
 import { intersectCrossingRings } from "./_overlay.ts";
 import { turfIntersect } from "./_turf.ts";
@@ -103,19 +104,77 @@ export function intersectPolygons(a: PolygonPx, b: PolygonPx): MultiPolygonPx {
   return result;
 }
 
-/** A ∩ B for normalized, non-overlapping regions, pair by pair of polygons. */
+/**
+ * A ∩ B for normalized, non-overlapping regions. Boundary contacts between A
+ * and B are found once; a polygon of A that meets no boundary of B and holds
+ * no ring of B inside its box is wholly inside or outside B (one point test);
+ * the others are intersected pair by pair with the polygons of B near them.
+ */
 export function intersectRegions(a: MultiPolygonPx, b: MultiPolygonPx): MultiPolygonPx {
   const out: MultiPolygonPx = [];
   if (a.length === 0 || b.length === 0) return out;
-  const bb = b.map((p) => bboxOf([p]));
-  for (const p of a) {
-    const pb = bboxOf([p]);
-    for (let j = 0; j < b.length; j++) {
-      if (!boxesMeet(pb, bb[j])) continue;
-      for (const piece of intersectPolygons(p, b[j])) out.push(piece);
+  const boxA = bboxOf(a), boxB = bboxOf(b);
+  const an = a.filter((p) => boxesMeet(bboxOf([p]), boxB));
+  const bn = b.filter((p) => boxesMeet(bboxOf([p]), boxA));
+  if (an.length === 0 || bn.length === 0) return out;
+  const bb = bn.map((p) => bboxOf([p]));
+  if (an.length * bn.length <= 4) {
+    for (const p of an) {
+      const pb = bboxOf([p]);
+      for (let j = 0; j < bn.length; j++) {
+        if (boxesMeet(pb, bb[j])) {
+          for (const piece of intersectPolygons(p, bn[j])) out.push(piece);
+        }
+      }
     }
+    return out;
+  }
+  const tagged = tagEdges([...an, ...bn], [...an.map(() => 0), ...bn.map(() => 1)]);
+  const ringPoly: number[] = [];
+  [...an, ...bn].forEach((p, i) => p.forEach(() => ringPoly.push(i)));
+  const touched = new Uint8Array(an.length + bn.length);
+  for (const c of findContacts(tagged, "across", false)) {
+    touched[ringPoly[tagged.ring[c.a]]] = 1;
+    touched[ringPoly[tagged.ring[c.b]]] = 1;
+  }
+  const bBands = buildBands(flattenEdges(bn));
+  const ringBoxes = bn.map((p) => p.map((r) => bboxOf([[r]])));
+  for (let i = 0; i < an.length; i++) {
+    const p = an[i];
+    const pb = bboxOf([p]);
+    const near: number[] = [];
+    let ringsInside = false;
+    for (let j = 0; j < bn.length; j++) {
+      if (!boxesMeet(pb, bb[j])) continue;
+      near.push(j);
+      for (const rb of ringBoxes[j]) {
+        if (rb[0] >= pb[0] && rb[1] >= pb[1] && rb[2] <= pb[2] && rb[3] <= pb[3]) {
+          ringsInside = true;
+        }
+      }
+    }
+    if (near.length === 0) continue;
+    if (!touched[i] && !ringsInside) {
+      // no boundary of B meets p and none lies within it: p is inside B or outside it
+      if (classifyRingAgainst(bBands, p[0]) === 1) out.push(p);
+      continue;
+    }
+    if (!touched[i]) {
+      for (const piece of intersectDisjointBoundaries([p], near.map((j) => bn[j]))) out.push(piece);
+      continue;
+    }
+    for (const j of near) for (const piece of intersectPolygons(p, bn[j])) out.push(piece);
   }
   return out;
+}
+
+/** 1 when the ring (meeting no edge of the banded region) lies inside it, else 0. */
+function classifyRingAgainst(bands: ReturnType<typeof buildBands>, r: Ring): 0 | 1 {
+  for (let k = 0; k < r.length - 1; k++) {
+    const c = classifyPoint(bands, r[k][0], r[k][1]);
+    if (c !== 2) return c;
+  }
+  return 0;
 }
 
 /** A − X for normalized, non-overlapping regions. */

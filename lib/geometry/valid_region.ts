@@ -70,7 +70,11 @@ function nestingIsConsistent(t: TaggedEdges, polys: PolygonPx[]): boolean {
           const cr = (bx - ax) * (y - ay) - (by - ay) * (x - ax);
           if (cr === 0) return false;
           if ((cr > 0) === (by > ay)) parity ^= 1;
-        } else if (ay === y && by === y) return false;
+        } else if (ay === y && by === y) {
+          // a horizontal edge on the test line matters only if it holds the point
+          const ax = t.x0[i], bx = t.x1[i];
+          if ((x >= ax && x <= bx) || (x >= bx && x <= ax)) return false;
+        }
       }
       if (parity !== (r === 0 ? 0 : 1)) return false;
     }
