@@ -213,7 +213,7 @@ const RECIPES: CaseRecipe[] = [
     tumourType: MCT,
     scheme: "canine-mct-2tier",
     shows:
-      "A clearly low count: sparse figures and one weak focus, far below 7 in 2.37 mm wherever the window is placed; apoptotic bodies and pyknotic nuclei must not be counted.",
+      "A clearly low count: sparse figures and one weak focus, far below 7 in 2.37 mm² wherever the window is placed; apoptotic bodies and pyknotic nuclei must not be counted.",
     mpp: 0.252,
     slideMm: [20, 14],
     tissue: { cxMm: 10, cyMm: 7, rxMm: 6, ryMm: 4.5, rotation: -0.2, vertices: 420, holes: 3 },

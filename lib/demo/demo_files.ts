@@ -224,8 +224,16 @@ ${rows.join("\n")}
 The figures are drawn from a few Gaussian foci of varying strength over a
 uniform background, plus lookalikes (apoptotic bodies, pyknotic and
 hyperchromatic nuclei), some candidates inside excluded zones and some in
-tissue outside the tumour outline. Counts that follow from them are whatever
-hotfield computes; they were not set by hand.
+tissue outside the tumour outline. The recipes were tuned so that each case
+shows what the table says; the exact counts are whatever hotfield computes.
+
+"7 figures in 2.37 mm²" is the mitotic-count criterion of the two-tier grade
+of canine cutaneous mast cell tumours (Kiupel et al., *Vet Pathol*
+2011;48(1):147-155: ≥ 7 mitotic figures in 10 high-power fields), with ten
+fields taken as the standard 2.37 mm² (Meuten, Moore & George, *Vet Pathol*
+2016;53(1):7-9). \`deno task demo\` classifies the mast cell tumours with
+\`canine-mct-2tier\`, QVT-24-007 with \`canine-sts\` and QVT-24-008 with
+\`canine-mammary\`. hotfield supports, never replaces, a pathologist's grade.
 
 ## Regenerate
 
