@@ -9,21 +9,24 @@
  * null, the same total N of figures is placed uniformly over the valid region
  * V, the maximum is recomputed, and p = (1 + #sims ≥ observed) / (1 + sims).
  *
- * Approximations, chosen for speed (999 simulations of 250,000 figures in a
- * few seconds):
- * - V is rasterized into square cells of the grid stride, centred on grid
- *   nodes, with the area of V in each cell (exact along x, 8 sample rows per
- *   cell along y). A simulated figure picks a cell with probability
- *   proportional to that area (Walker's alias method) and then a uniform spot
- *   in the whole cell, so near V's boundary a figure may land just outside V.
+ * Approximations, chosen for speed (999 simulations of 250,000 figures in
+ * seconds, not minutes):
+ * - V is rasterized into square cells of about 100 µm (whole multiples or
+ *   fractions of the scanned stride), with the area of V in each cell (exact
+ *   along x, 8 sample rows per cell along y). Cell counts are multinomial with
+ *   probabilities proportional to those areas (drawn as Poisson counts and
+ *   corrected to the exact total N); within a cell a figure is uniform over
+ *   the whole cell, so near V's boundary it may land up to a cell outside V.
  * - Rectangular windows: simulated counts are exact for the simulated points
- *   (each point adds 1 to the block of grid positions whose closed window
- *   holds it; 2-D prefix sums).
- * - Circular windows: a simulated point counts at its cell's grid node, and a
- *   window holds the nodes within its radius (error up to half a stride).
- * - On very large grids only every k-th grid position (in x and y) is
- *   scanned, for the observed and the simulated maxima alike; `gridStep`
- *   reports k.
+ *   (each point, placed on a 256 × 256 sub-grid of its cell, adds 1 to the
+ *   block of grid positions whose closed window holds it; 2-D prefix sums).
+ * - Circular windows: a simulated point counts at its cell's node, and the
+ *   count is interpolated between the two node disks whose sizes bracket the
+ *   circle's area (so the simulated window has the window's area; the
+ *   simulated maximum may be fractional).
+ * - On large grids only every k-th grid position (in x and y) is scanned,
+ *   for the observed and the simulated maxima alike; `gridStep` reports k.
+ *   The observed statistic is then the maximum over those positions.
  *
  * @module
  */
@@ -37,8 +40,8 @@ export const SCAN_SIMULATIONS_MIN = 19;
 export const SCAN_SIMULATIONS_MAX = 100_000;
 const DEFAULT_WORK_BUDGET = 1_500_000;
 const DEFAULT_MAX_RECT_POSITIONS = 250_000;
-/** Side of the sampling cells for rectangles, µm (rounded to whole scanned strides). */
-const RECT_CELL_UM = 100;
+/** Side of the sampling cells, µm (rounded to whole strides or whole fractions of one). */
+const CELL_UM = 100;
 
 /** What {@linkcode scanTest} reads. */
 export interface ScanTestInput {
@@ -150,9 +153,9 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
   const maxRectPositions = options.maxRectPositions ?? DEFAULT_MAX_RECT_POSITIONS;
   let step = 1;
   const cost = (k: number) =>
-    isRect
-      ? (nx / k) * (ny / k) / maxRectPositions
-      : (nx / k) * (ny / k) * (2 * Math.floor(halfH / (s * k)) + 1) / budget;
+    isRect ? (nx / k) * (ny / k) / maxRectPositions : (nx / k) * (ny / k) *
+      (2 * Math.floor(halfH / ((s * k) / Math.max(1, Math.ceil((s * k) / CELL_UM)))) + 1) /
+      budget;
   while (cost(step) > 1) step++;
   const S = s * step;
   const mx = Math.ceil(nx / step);
@@ -171,23 +174,29 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
     }
   }
 
-  // Cells over V's bounding box. Rectangles: side m·S with edges on scanned
-  // nodes (about 100 µm). Circles: side S centred on scanned nodes (a point
-  // then counts at its node).
+  // Cells over V's bounding box, about 100 µm: for rectangles m scanned
+  // strides (m may be a fraction 1/q of a large stride) with edges on nodes;
+  // for circles F = S/q centred on the nodes of a lattice of spacing F that
+  // holds the scanned nodes (a point then counts at its node).
   const bbox = regionBBox(input.validUm);
-  const m = isRect ? Math.max(1, Math.round(RECT_CELL_UM / S)) : 1;
+  const q = Math.max(1, Math.ceil(S / CELL_UM));
+  const m = isRect ? (S <= CELL_UM ? Math.max(1, Math.round(CELL_UM / S)) : 1 / q) : 1 / q;
   const C = m * S;
   let cellX0: number, cellY0: number, kx0: number, ky0: number;
   if (isRect) {
-    kx0 = Math.floor((bbox[0] - grid.x0Um) / S);
-    ky0 = Math.floor((bbox[1] - grid.y0Um) / S);
-    cellX0 = grid.x0Um + kx0 * S;
-    cellY0 = grid.y0Um + ky0 * S;
+    // kx0, ky0: the cells' origin in scanned-lattice units.
+    const cx0 = Math.floor((bbox[0] - grid.x0Um) / C);
+    const cy0 = Math.floor((bbox[1] - grid.y0Um) / C);
+    cellX0 = grid.x0Um + cx0 * C;
+    cellY0 = grid.y0Um + cy0 * C;
+    kx0 = cx0 * m;
+    ky0 = cy0 * m;
   } else {
-    kx0 = Math.floor((bbox[0] - grid.x0Um) / S + 0.5);
-    ky0 = Math.floor((bbox[1] - grid.y0Um) / S + 0.5);
-    cellX0 = grid.x0Um + (kx0 - 0.5) * S;
-    cellY0 = grid.y0Um + (ky0 - 0.5) * S;
+    // kx0, ky0: index of the first cell's node on the fine lattice (spacing C).
+    kx0 = Math.floor((bbox[0] - grid.x0Um) / C + 0.5);
+    ky0 = Math.floor((bbox[1] - grid.y0Um) / C + 0.5);
+    cellX0 = grid.x0Um + (kx0 - 0.5) * C;
+    cellY0 = grid.y0Um + (ky0 - 0.5) * C;
   }
   const cw = Math.max(1, Math.ceil((bbox[2] - cellX0) / C));
   const ch = Math.max(1, Math.ceil((bbox[3] - cellY0) / C));
@@ -227,7 +236,7 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
     // exactly the circle's area, so the count is interpolated between the
     // largest inner and smallest outer disk of whole rings:
     // v = v_in + w·(v_out − v_in) with w matching the area.
-    const st = diskStencils(halfW / S);
+    const st = diskStencils(halfW / C);
     const reach = st.reach, hIn = st.halfIn, hOut = st.halfOut, wRing = st.weight;
     const cellCounts = new Int32Array(cw * ch);
     const prefix = new Int32Array(ch * (cw + 1));
@@ -247,10 +256,10 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
       for (let jj = 0; jj < my; jj++) {
         for (let ii = 0; ii < mx; ii++) {
           if (!evalAdmissible[jj * mx + ii]) continue;
-          const ci = ii - kx0;
+          const ci = ii * q - kx0;
           let vIn = 0, vOut = 0;
           for (let dj = -reach; dj <= reach; dj++) {
-            const cy = jj + dj - ky0;
+            const cy = jj * q + dj - ky0;
             if (cy < 0 || cy >= ch) continue;
             const base = cy * (cw + 1);
             const ho = hOut[dj + reach];
@@ -285,7 +294,7 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
     method:
       "Monte Carlo scan test: statistic = maximum admissible window count on the fixed-size " +
       `window grid; ${simulations} simulations of ${n} figures placed uniformly over V ` +
-      `(cells of ${round(S, 3)} µm weighted by the area of V in each, uniform within a cell)` +
+      `(cells of ${round(C, 3)} µm weighted by the area of V in each, uniform within a cell)` +
       (isRect
         ? ""
         : `; circle counts at cell nodes, interpolated between two node disks to the window's area`) +
