@@ -24,6 +24,7 @@ import { buildBands, classifyPoint, flattenEdges } from "./_edges.ts";
 import { assembleRings, bboxOf, boxesMeet, intersectDisjointBoundaries } from "./_ring_sets.ts";
 import { intersectCrossingRings } from "./_overlay.ts";
 import { turfIntersect } from "./_turf.ts";
+import { ringAreaPx2 } from "./planar_area.ts";
 
 type BBox = [number, number, number, number];
 
@@ -181,13 +182,40 @@ function classifyRingAgainst(bands: ReturnType<typeof buildBands>, r: Ring): 0 |
 export function subtractRegions(a: MultiPolygonPx, x: MultiPolygonPx): MultiPolygonPx {
   if (a.length === 0 || x.length === 0) return a;
   const box = unionBox(bboxOf(a), bboxOf(x));
-  // the complement of X inside a rectangle around everything: one polygon with
-  // X's outer rings as holes, plus X's holes as islands
-  const frame: PolygonPx = [rectRing(box, 5 * margin(box))];
+  // A ∩ the complement of X in a rectangle around everything
+  return intersectRegions(a, complementIn(x, box, 5 * margin(box)));
+}
+
+/** The complement of X inside the rectangle `box` grown by `grow` (X well inside it). */
+function complementIn(x: MultiPolygonPx, box: BBox, grow: number): MultiPolygonPx {
+  const frame: PolygonPx = [rectRing(box, grow)];
   const islands: MultiPolygonPx = [];
   for (const p of x) {
     frame.push([...p[0]].reverse());
     for (let i = 1; i < p.length; i++) islands.push([[...p[i]].reverse()]);
   }
-  return intersectRegions(a, [frame, ...islands]);
+  return [frame, ...islands];
+}
+
+/**
+ * A ∪ B for normalized regions that are each non-overlapping, as
+ * R − ((R − A) ∩ (R − B)) for a rectangle R around both (two slightly
+ * different rectangles, so that their edges never meet).
+ */
+export function unionRegions(a: MultiPolygonPx, b: MultiPolygonPx): MultiPolygonPx {
+  if (a.length === 0) return b;
+  if (b.length === 0) return a;
+  const box = unionBox(bboxOf(a), bboxOf(b));
+  const m = margin(box);
+  const y = intersectRegions(complementIn(a, box, m), complementIn(b, box, 2 * m));
+  // y holds the smaller frame as an outer ring; every other ring of y, reversed, bounds A ∪ B
+  const frameArea = (box[2] - box[0] + 2 * m) * (box[3] - box[1] + 2 * m);
+  const rings: Ring[] = [];
+  for (const p of y) {
+    for (let i = 0; i < p.length; i++) {
+      if (i === 0 && ringAreaPx2(p[0]) >= frameArea * (1 - 1e-9)) continue;
+      rings.push([...p[i]].reverse());
+    }
+  }
+  return assembleRings(rings);
 }

@@ -9,7 +9,7 @@ import { inputError } from "../errors.ts";
 import { bandOf, buildBands, type EdgeBands } from "./_edges.ts";
 import { type Contact, findContacts, tagEdges, type TaggedEdges } from "./_contacts.ts";
 import { bboxOf, boxesMeet } from "./_ring_sets.ts";
-import { intersectRegions, subtractRegions } from "./_pair_ops.ts";
+import { intersectRegions, subtractRegions, unionRegions } from "./_pair_ops.ts";
 import { turfUnion } from "./_turf.ts";
 import { orientPolygon } from "./normalize.ts";
 import { multiPolygonAreaPx2 } from "./planar_area.ts";
@@ -157,11 +157,12 @@ function badVertexTouches(t: TaggedEdges, contacts: Contact[]): Contact[] {
 }
 
 /**
- * Union of the parts of one role. Parts whose outlines neither touch nor
- * cross (themselves or each other) and do not nest wrongly are kept as they
- * are; otherwise the whole role goes through a planar union, which also
- * repairs self-intersections. Each part whose own outline crosses or touches
- * itself gets a warning.
+ * Union of the parts of one role. Parts whose outlines meet at most at
+ * shared vertices (without crossing) and nest consistently are kept as they
+ * are. Parts that are valid on their own but overlap each other are united
+ * one by one. Otherwise (a part crossing, folding back on or overlapping
+ * itself) the whole role goes through the general planar union, which
+ * repairs self-intersections, and each such part gets a warning.
  */
 function unionRole(parts: RegionPart[], role: string, warnings: string[]): MultiPolygonPx {
   const polys: PolygonPx[] = [];
@@ -187,6 +188,21 @@ function unionRole(parts: RegionPart[], role: string, warnings: string[]): Multi
   if (bad.length === 0) bad.push(...badVertexTouches(tagged, contacts));
   if (bad.length === 0 && nestingIsConsistent(tagged, polys)) return polys;
   const warned = new Set<number>();
+  const selfBad = bad.some((c) => tagged.group[c.a] === tagged.group[c.b]);
+  if (!selfBad) {
+    // parts that are valid on their own but overlap each other: unite them one by one
+    let okParts = true;
+    normalized.forEach((mp, i) => {
+      if (okParts && mp.length > 1) {
+        okParts = nestingIsConsistent(tagEdges(mp, mp.map(() => i)), mp);
+      }
+    });
+    if (okParts) {
+      let u: MultiPolygonPx = [];
+      for (const mp of normalized) u = unionRegions(u, mp);
+      return u;
+    }
+  }
   for (const c of bad) {
     const g = tagged.group[c.a];
     if (g !== tagged.group[c.b] || warned.has(g)) continue;
@@ -239,7 +255,8 @@ function subtractNear(a: MultiPolygonPx, x: MultiPolygonPx): MultiPolygonPx {
  * position of the problem in pixels. Rings that merely touch at a shared
  * vertex without crossing (a hole touching its outer ring, or traced mask
  * pieces meeting corner to corner) are valid and kept as they are.
- * Overlapping parts of one role are united without a warning.
+ * Overlapping parts of one role are united without a warning (as
+ * R − ((R − A) ∩ (R − B)) with the same ring-by-ring clipping as below).
  *
  * Speed: planar set operations are avoided wherever they cannot change the
  * result. A role whose outlines meet nowhere needs no union; polygons whose

@@ -291,3 +291,35 @@ Deno.test("buildValidRegion() agrees with JSTS 2.12.1 on grid-aligned shapes wit
     checkNormalized(v.region);
   }
 });
+
+Deno.test("buildValidRegion() handles holes crossing holes, and exclusions with holes", () => {
+  // reference: JSTS 2.12.1 overlay areas; tolerance 1e-9 relative
+  const rnd = seededRandom(404);
+  for (let s = 0; s < 20; s++) {
+    // tissue and tumour outers far apart from each other's boundary; only their holes cross
+    const tissue: PolygonPx = [
+      starRing(rnd, 0, 0, 60, 900, 1000),
+      starRing(rnd, 0, 0, 30, 100, 200).reverse(),
+    ];
+    const tumour: PolygonPx = [
+      starRing(rnd, 0, 0, 40, 500, 600),
+      starRing(rnd, 80 + 60 * rnd(), 40 * rnd(), 25, 80, 180).reverse(),
+    ];
+    // an exclusion ring with a hole (the hole stays counted), crossing the tumour's outline
+    const exclude: PolygonPx = [
+      starRing(rnd, 550, 0, 30, 100, 150),
+      starRing(rnd, 550, 0, 12, 20, 40).reverse(),
+    ];
+    const v = buildValidRegion({
+      tissue: [part([tissue], "t")],
+      tumour: [part([tumour], "u")],
+      exclude: [part([exclude], "x")],
+    });
+    const want = jstsValidArea([tissue], [tumour], [exclude]);
+    assert.ok(relErr(v.validAreaPx2, want) < 1e-9, `case ${s}: ${v.validAreaPx2} vs ${want}`);
+    checkNormalized(v.region);
+    const idx = createRegionIndex(v.region);
+    // the exclusion's hole stays in V wherever the tumour covers it
+    assert.equal(idx.containsPoint(550, 0), createRegionIndex([tumour]).containsPoint(550, 0));
+  }
+});
