@@ -334,25 +334,59 @@ function cellCountSampler(
     lam[q] = l / pieces[q];
     expNeg[q] = Math.exp(-lam[q]);
   }
+  // Most cells lie wholly inside V and share one mean: for it, a table of the
+  // Poisson distribution function with a guide table (Chen & Asau's indexed
+  // search) replaces the term-by-term inversion.
+  let full = 0;
+  for (let q = 0; q < cells.length; q++) if (lam[q] > full) full = lam[q];
+  const isFull = new Uint8Array(cells.length);
+  for (let q = 0; q < cells.length; q++) {
+    if (pieces[q] === 1 && Math.abs(lam[q] - full) <= 1e-9 * full) isFull[q] = 1;
+  }
+  const cdf: number[] = [];
+  if (full > 0 && full <= 500) {
+    let p = Math.exp(-full), f = p;
+    cdf.push(f);
+    for (let j = 1; f < 1 - 1e-15 && j < 100000; j++) {
+      p *= full / j;
+      f += p;
+      cdf.push(f);
+    }
+    cdf[cdf.length - 1] = Infinity; // the last entry catches the remaining tail
+  }
+  const table = new Float64Array(cdf);
+  const guideSize = 256;
+  const guide = new Int32Array(guideSize);
+  for (let g = 0, k = 0; g < guideSize && table.length > 0; g++) {
+    while (table[k] < g / guideSize) k++;
+    guide[g] = k;
+  }
+  const useTable = table.length > 0;
   const { prob, alias: other } = alias;
   return (counts, random) => {
     counts.fill(0);
     let drawn = 0;
     for (let q = 0; q < cells.length; q++) {
-      const l = lam[q];
       let k = 0;
-      for (let piece = pieces[q]; piece > 0; piece--) {
-        // Inversion: smallest j with F(j) ≥ u.
+      if (useTable && isFull[q]) {
         const u = random();
-        let p = expNeg[q];
-        let f = p;
-        let j = 0;
-        while (u > f && j < 100000) {
-          j++;
-          p *= l / j;
-          f += p;
+        k = guide[(u * guideSize) | 0];
+        while (u > table[k]) k++;
+      } else {
+        const l = lam[q];
+        for (let piece = pieces[q]; piece > 0; piece--) {
+          // Inversion: smallest j with F(j) ≥ u.
+          const u = random();
+          let p = expNeg[q];
+          let f = p;
+          let j = 0;
+          while (u > f && j < 100000) {
+            j++;
+            p *= l / j;
+            f += p;
+          }
+          k += j;
         }
-        k += j;
       }
       counts[cells[q]] = k;
       drawn += k;
@@ -395,6 +429,17 @@ function rectSimulator(o: {
   const cellCounts = new Int32Array(nCells);
   const scale = m / 256;
   const drawCounts = cellCountSampler(weights, alias, n);
+  // Node offsets of the window range for each of the 256 sub-grid spots.
+  const whole = Number.isInteger(m) && Number.isInteger(kx0) && Number.isInteger(ky0);
+  const loX = new Int32Array(256), hiX = new Int32Array(256);
+  const loY = new Int32Array(256), hiY = new Int32Array(256);
+  for (let b = 0; b < 256; b++) {
+    const u = (b + 0.5) * scale;
+    loX[b] = Math.ceil(u - halfX);
+    hiX[b] = Math.floor(u + halfX);
+    loY[b] = Math.ceil(u - halfY);
+    hiY[b] = Math.floor(u + halfY);
+  }
   return (random) => {
     diff.fill(0);
     drawCounts(cellCounts, random);
@@ -412,15 +457,25 @@ function rectSimulator(o: {
             bits = (random() * 4294967296) >>> 0;
             left = 2;
           }
-          const x = xBase + ((bits & 0xff) + 0.5) * scale;
-          const y = yBase + (((bits >>> 8) & 0xff) + 0.5) * scale;
+          const bx = bits & 0xff, by = (bits >>> 8) & 0xff;
           bits >>>= 16;
           left--;
-          // Closed window: |x − node| ≤ W/2 → node range [lo, hi].
-          let ilo = Math.ceil(x - halfX);
-          let ihi = Math.floor(x + halfX);
-          let jlo = Math.ceil(y - halfY);
-          let jhi = Math.floor(y + halfY);
+          // Closed window: |x − node| ≤ W/2 → node range [lo, hi]; with whole
+          // cell origins the offsets come from tables, else computed.
+          let ilo: number, ihi: number, jlo: number, jhi: number;
+          if (whole) {
+            ilo = xBase + loX[bx];
+            ihi = xBase + hiX[bx];
+            jlo = yBase + loY[by];
+            jhi = yBase + hiY[by];
+          } else {
+            const x = xBase + (bx + 0.5) * scale;
+            const y = yBase + (by + 0.5) * scale;
+            ilo = Math.ceil(x - halfX);
+            ihi = Math.floor(x + halfX);
+            jlo = Math.ceil(y - halfY);
+            jhi = Math.floor(y + halfY);
+          }
           if (ilo < 0) ilo = 0;
           if (jlo < 0) jlo = 0;
           if (ihi > mx - 1) ihi = mx - 1;
