@@ -172,11 +172,29 @@ export function findContacts(
   // counting pass, then fill (CSR)
   const counts = new Uint32Array(nx * ny + 1);
   const { x0, y0, x1, y1 } = t;
-  for (let e = 0; e < n; e++) {
-    const ia = cellX(x0[e] < x1[e] ? x0[e] : x1[e]), ib = cellX(x0[e] < x1[e] ? x1[e] : x0[e]);
-    const ja = cellY(y0[e] < y1[e] ? y0[e] : y1[e]), jb = cellY(y0[e] < y1[e] ? y1[e] : y0[e]);
-    for (let j = ja; j <= jb; j++) for (let i = ia; i <= ib; i++) counts[j * nx + i]++;
-  }
+  // the cells an edge passes, row by row (its x-range within each row, widened
+  // by one cell against rounding), so long slanted edges do not fill their box
+  const visit = (e: number, f: (c: number) => void) => {
+    const ax = x0[e], ay = y0[e], bx = x1[e], by = y1[e];
+    const ja = cellY(ay < by ? ay : by), jb = cellY(ay < by ? by : ay);
+    if (ja === jb || ax === bx) {
+      const ia = cellX(ax < bx ? ax : bx), ib = cellX(ax < bx ? bx : ax);
+      for (let j = ja; j <= jb; j++) for (let i = ia; i <= ib; i++) f(j * nx + i);
+      return;
+    }
+    const k = (bx - ax) / (by - ay);
+    const ylo = ay < by ? ay : by, yhi = ay < by ? by : ay;
+    for (let j = ja; j <= jb; j++) {
+      const r0 = t.minY + j * ch, r1 = r0 + ch;
+      const ya = r0 > ylo ? r0 : ylo, yb = r1 < yhi ? r1 : yhi;
+      const xa = ax + (ya - ay) * k, xb = ax + (yb - ay) * k;
+      let ia = cellX(xa < xb ? xa : xb) - 1, ib = cellX(xa < xb ? xb : xa) + 1;
+      if (ia < 0) ia = 0;
+      if (ib > nx - 1) ib = nx - 1;
+      for (let i = ia; i <= ib; i++) f(j * nx + i);
+    }
+  };
+  for (let e = 0; e < n; e++) visit(e, (c) => counts[c]++);
   const start = new Uint32Array(nx * ny + 1);
   let total = 0;
   for (let c = 0; c < nx * ny; c++) {
@@ -186,11 +204,7 @@ export function findContacts(
   start[nx * ny] = total;
   const ids = new Uint32Array(total);
   const fill = start.slice(0, nx * ny);
-  for (let e = 0; e < n; e++) {
-    const ia = cellX(x0[e] < x1[e] ? x0[e] : x1[e]), ib = cellX(x0[e] < x1[e] ? x1[e] : x0[e]);
-    const ja = cellY(y0[e] < y1[e] ? y0[e] : y1[e]), jb = cellY(y0[e] < y1[e] ? y1[e] : y0[e]);
-    for (let j = ja; j <= jb; j++) for (let i = ia; i <= ib; i++) ids[fill[j * nx + i]++] = e;
-  }
+  for (let e = 0; e < n; e++) visit(e, (c) => ids[fill[c]++] = e);
   const g = t.group;
   for (let c = 0; c < nx * ny; c++) {
     const s = start[c], f = start[c + 1];

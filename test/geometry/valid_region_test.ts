@@ -323,3 +323,27 @@ Deno.test("buildValidRegion() handles holes crossing holes, and exclusions with 
     assert.equal(idx.containsPoint(550, 0), createRegionIndex([tumour]).containsPoint(550, 0));
   }
 });
+
+Deno.test("buildValidRegion() finds crossings of long slanted edges with a fine outline", () => {
+  // a 3000-vertex wavy disk against a 7-spike star whose edges span the whole disk;
+  // reference JSTS 2.12.1, tolerance 1e-9 relative
+  const disk: Ring = [];
+  for (let i = 0; i < 3000; i++) {
+    const t = (2 * Math.PI * i) / 3000, r = 1000 * (1 + 0.05 * Math.sin(40 * t));
+    disk.push([r * Math.cos(t), r * Math.sin(t)]);
+  }
+  disk.push(disk[0]);
+  const star: Ring = [];
+  for (let i = 0; i < 14; i++) {
+    const t = (Math.PI * i) / 7 + 0.1, r = i % 2 === 0 ? 1400 : 90;
+    star.push([30 + r * Math.cos(t), -20 + r * Math.sin(t)]);
+  }
+  star.push(star[0]);
+  const v = buildValidRegion({
+    tissue: [part([[disk]], "t")],
+    tumour: [part([[star]], "u")],
+    exclude: [],
+  });
+  const want = jstsValidArea([[disk]], [[star]], []);
+  assert.ok(relErr(v.validAreaPx2, want) < 1e-9, `${v.validAreaPx2} vs ${want}`);
+});
