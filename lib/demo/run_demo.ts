@@ -8,9 +8,9 @@
  * to stdout, then the path of `out/demo/index.html` (or of the folder when no
  * HTML index was written).
  *
- * The reports depend only on the inputs and options, so the same data give
- * the same bytes; `SOURCE_DATE_EPOCH`, when set, is left in the environment
- * for any writer that stamps a date.
+ * The reports depend only on the inputs and options; the one date they show
+ * (in the HTML) is taken by the report writer from `SOURCE_DATE_EPOCH` when
+ * it is set, so a rerun with it set gives the same bytes.
  *
  * @module
  */

@@ -131,6 +131,9 @@ Deno.test("loadCase() reads every demo case without warnings", async () => {
 
 Deno.test("runDemo() writes a report per demo case and names what to open", async () => {
   const outDir = Deno.makeTempDirSync();
+  const savedEpoch = Deno.env.get("SOURCE_DATE_EPOCH");
+  // A fixed generation time (reproducible-builds.org convention), read by the report writer.
+  Deno.env.set("SOURCE_DATE_EPOCH", "1700000000");
   try {
     const lines: string[] = [];
     const { results, open } = await runDemo({
@@ -150,7 +153,16 @@ Deno.test("runDemo() writes a report per demo case and names what to open", asyn
       assert.ok(Deno.statSync(join(outDir, r.report.case, "report.json")).isFile);
     }
     assert.ok(open === join(outDir, "index.html") || open === outDir);
+    if (open.endsWith("index.html")) {
+      // hand calculation: 1700000000 s after 1970-01-01 is 2023-11-14T22:13:20Z
+      assert.ok(
+        readFileSync(open, "utf8").includes("2023-11-14"),
+        "index.html shows the fixed date",
+      );
+    }
   } finally {
+    if (savedEpoch === undefined) Deno.env.delete("SOURCE_DATE_EPOCH");
+    else Deno.env.set("SOURCE_DATE_EPOCH", savedEpoch);
     Deno.removeSync(outDir, { recursive: true });
   }
 });
