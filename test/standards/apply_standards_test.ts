@@ -84,3 +84,38 @@ Deno.test("applyStandards() rejects an unknown scheme and bad simulations", () =
     RangeError,
   );
 });
+
+Deno.test("applyStandards() on the engine's count map: scan test of a planted focus", async () => {
+  // Uses the engine (computeCountMap, makeWindow) on an invented 8 × 6 mm case:
+  // 300 uniform figures plus 40 in a 500 µm focus.
+  const { computeCountMap } = await import("../../lib/count/compute_count_map.ts");
+  const { makeWindow } = await import("../../lib/count/make_window.ts");
+  const { seededRandom } = await import("../../lib/demo/random.ts");
+  const random = seededRandom(11);
+  const xs: number[] = [], ys: number[] = [];
+  for (let i = 0; i < 300; i++) xs.push(random() * 8000), ys.push(random() * 6000);
+  for (let i = 0; i < 40; i++) xs.push(5000 + random() * 500), ys.push(3000 + random() * 500);
+  const validUm = [[[[0, 0], [8000, 0], [8000, 6000], [0, 6000], [0, 0]]]] as [
+    number,
+    number,
+  ][][][];
+  const prepared = { validUm, xUm: new Float64Array(xs), yUm: new Float64Array(ys) };
+  const window = makeWindow({});
+  const map = computeCountMap(prepared as unknown as PreparedCase, window, { strideUm: 50 });
+  let max = 0;
+  for (let k = 0; k < map.counts.length; k++) {
+    if (map.admissible[k] && map.counts[k] > max) max = map.counts[k];
+  }
+  const report = {
+    window: { shape: "rect", area_mm2: 2.37, width_um: 1777.6, height_um: 1333.2 },
+    hotspot: { center_px: [0, 0], count: max, coverage: 1, per_mm2: max / 2.37 },
+    distribution: { positions: map.positions, min: 0, q1: 10, median: 14, q3: 18, max, mean: 14 },
+  } as unknown as ReportJson;
+  const r = applyStandards(
+    { report, prepared: prepared as unknown as PreparedCase, map, window },
+    { schemeId: "canine-mct-2tier", simulations: 99, seed: 1 },
+  );
+  assert.equal(r.uncertainty.scan_p, 0.01);
+  assert.equal(r.classification.class, "above");
+  assert.equal(r.classification.tier, "high");
+});
