@@ -9,14 +9,8 @@
 import type { CaseResult } from "../count/engine_types.ts";
 import { escapeHtml } from "./html_escape.ts";
 import { cohortFigure, cutoffCount } from "./plots.ts";
-import {
-  type CaseHtmlContext,
-  fmt,
-  plotlyScriptTag,
-  plotScripts,
-  REPORT_CAUTIONS,
-  REPORT_CSS,
-} from "./report_html.ts";
+import { type CaseHtmlContext, REPORT_CAUTIONS, REPORT_CSS } from "./report_html.ts";
+import { fmt, plotlyScriptTag, plotScripts } from "./_page.ts";
 
 /** What the cohort page shows besides the results. */
 export interface CohortHtmlContext extends Omit<CaseHtmlContext, "options"> {

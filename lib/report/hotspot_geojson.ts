@@ -111,7 +111,21 @@ export function hotspotFeatureCollection(input: {
   return { type: "FeatureCollection", case: input.caseId, features };
 }
 
-/** Convenience: the collection for a whole {@linkcode CaseResult}. */
+/**
+ * The `hotspot.geojson` collection of a whole {@linkcode CaseResult}.
+ *
+ * @example A hotspot gives one feature
+ * ```ts
+ * import { caseHotspotGeoJson } from "./hotspot_geojson.ts";
+ * const p = { centerUm: [500, 500], centerPx: [1000, 1000], count: 3, coverage: 1, perMm2: 3 };
+ * const fc = caseHotspotGeoJson({
+ *   window: { shape: "rect", areaMm2: 1, widthUm: 1000, heightUm: 1000, aspect: [1, 1] },
+ *   hotspot: p, top: [], bestFields: [], bestFieldWindow: null,
+ *   prepared: { caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 } },
+ * } as never);
+ * if (fc.features.length !== 1) throw new Error();
+ * ```
+ */
 export function caseHotspotGeoJson(
   result: CaseResult,
 ): ReturnType<typeof hotspotFeatureCollection> {

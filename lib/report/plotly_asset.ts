@@ -23,13 +23,23 @@ export const PLOTLY_PACKAGE = "plotly.js-dist-min";
 const BUNDLE = "plotly.min.js";
 
 /**
- * Never called: a literal dynamic import makes Deno put the package in the
+ * The version of the installed `plotly.js-dist-min`, read from its
+ * `package.json`. The literal import also makes Deno put the package in the
  * module graph, so `deno run`, `deno test`, `deno jupyter` and `deno install`
- * cache it on a fresh machine. Importing only `package.json` avoids running
+ * cache it on a fresh machine; importing only `package.json` avoids running
  * plotly.js, which needs a browser window.
+ *
+ * @returns The version string, e.g. "4.1.2".
+ *
+ * @example The installed package is the pinned one
+ * ```ts
+ * import { PLOTLY_VERSION, plotlyPackageVersion } from "./plotly_asset.ts";
+ * if ((await plotlyPackageVersion()) !== PLOTLY_VERSION) throw new Error();
+ * ```
  */
-export function _ensureCachedByDeno(): Promise<unknown> {
-  return import("plotly.js-dist-min/package.json", { with: { type: "json" } });
+export async function plotlyPackageVersion(): Promise<string> {
+  const pkg = await import("plotly.js-dist-min/package.json", { with: { type: "json" } });
+  return (pkg.default as { version: string }).version;
 }
 
 function envGet(name: string): string | undefined {

@@ -77,7 +77,15 @@ const FONT = {
   color: "#1a1a1a",
 };
 
-/** Text for a plotly label: plotly.js reads tags and entities, so escape them. */
+/**
+ * Text for a plotly label: plotly.js reads tags and entities, so escape them.
+ *
+ * @example
+ * ```ts
+ * import { plotText } from "./plots.ts";
+ * if (plotText("<b>reader</b>") !== "&lt;b&gt;reader&lt;/b&gt;") throw new Error();
+ * ```
+ */
 export function plotText(text: unknown): string {
   return escapeHtml(text);
 }
@@ -202,7 +210,16 @@ function ringsLineUm(rings: [number, number][][]): { x: (number | null)[]; y: (n
   return { x, y };
 }
 
-/** The readers of a case in order of first appearance, with their style. */
+/**
+ * The readers of a case in order of first appearance, with their colour and marker.
+ *
+ * @example Two readers, two styles
+ * ```ts
+ * import { readerStyles } from "./plots.ts";
+ * const m = readerStyles(["reader-a", "trainee-2", "reader-a"]);
+ * if (m.size !== 2 || m.get("reader-a")!.symbol === m.get("trainee-2")!.symbol) throw new Error();
+ * ```
+ */
 export function readerStyles(
   readers: readonly string[],
 ): Map<string, { color: string; symbol: string }> {
@@ -213,12 +230,31 @@ export function readerStyles(
   return styles;
 }
 
-/** Display name of a reader ("" in the file becomes "unnamed reader"). */
+/**
+ * Display name of a reader ("" in the file becomes "unnamed reader").
+ *
+ * @example
+ * ```ts
+ * import { readerName } from "./plots.ts";
+ * if (readerName("") !== "unnamed reader" || readerName("reader-a") !== "reader-a") throw new Error();
+ * ```
+ */
 export function readerName(reader: string): string {
   return reader === "" ? "unnamed reader" : reader;
 }
 
-/** Count threshold of the classification for a window of the map (count ≥ this meets it). */
+/**
+ * Count threshold of the classification for a window of the map (a count at
+ * or above it meets the cut-off): `min_count_for_window`, else
+ * `cutoff_for_window`, else `cutoff`; null without a classification.
+ *
+ * @example
+ * ```ts
+ * import { cutoffCount } from "./plots.ts";
+ * const c = { scheme: "canine-mct-2tier", cutoff: 7, class: "below", fraction_at_or_above: 0, tier: "low", min_count_for_window: 7 };
+ * if (cutoffCount(c as never) !== 7 || cutoffCount(null) !== null) throw new Error();
+ * ```
+ */
 export function cutoffCount(c: ReportClassification | null | undefined): number | null {
   if (!c) return null;
   const min = c.min_count_for_window;
@@ -228,7 +264,16 @@ export function cutoffCount(c: ReportClassification | null | undefined): number 
   return Number.isFinite(c.cutoff) ? c.cutoff : null;
 }
 
-/** Words for the cut-off, e.g. "cut-off ≥ 7 per window (canine-mct-2tier)". */
+/**
+ * Words for the cut-off, e.g. "cut-off: ≥ 7 per window (canine-mct-2tier)"; "" without one.
+ *
+ * @example
+ * ```ts
+ * import { cutoffLabel } from "./plots.ts";
+ * const c = { scheme: "canine-mct-2tier", cutoff: 7, class: "below", fraction_at_or_above: 0, tier: "low" };
+ * if (cutoffLabel(c as never) !== "cut-off: ≥ 7 per window (canine-mct-2tier)") throw new Error();
+ * ```
+ */
 export function cutoffLabel(c: ReportClassification | null | undefined): string {
   const n = cutoffCount(c);
   if (!c || n === null) return "";
@@ -511,7 +556,16 @@ function mapHeight(
   return Math.min(980, Math.max(420, h));
 }
 
-/** "2.37 mm² circle, 1737.1 µm across" style description of a window. */
+/**
+ * A description of a window in words.
+ *
+ * @example
+ * ```ts
+ * import { windowWords } from "./plots.ts";
+ * const w = windowWords({ shape: "circle", areaMm2: 2.37, diameterUm: 1737.13 });
+ * if (w !== "2.37 mm² circle, 1737.1 µm across") throw new Error(w);
+ * ```
+ */
 export function windowWords(w: WindowShape): string {
   return w.shape === "circle"
     ? `${w.areaMm2} mm² circle, ${w.diameterUm.toFixed(1)} µm across`
@@ -577,7 +631,18 @@ function fieldTraces(
   return out;
 }
 
-/** Histogram of admissible window counts: index = count, value = number of positions. */
+/**
+ * Histogram of admissible window counts: index = count, value = number of positions.
+ *
+ * @example
+ * ```ts
+ * import { admissibleHistogram } from "./plots.ts";
+ * const h = admissibleHistogram({
+ *   map: { counts: new Int32Array([0, 2, 2, 5]), admissible: new Uint8Array([1, 1, 1, 0]) },
+ * } as never);
+ * if (h.join() !== "1,0,2") throw new Error(h.join());
+ * ```
+ */
 export function admissibleHistogram(result: Pick<CaseResult, "map">): number[] {
   const { counts, admissible } = result.map;
   const hist: number[] = [];
