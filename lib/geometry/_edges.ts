@@ -94,8 +94,11 @@ export function bandHi(b: EdgeBands, k: number): number {
   return k === b.bandCount - 1 ? b.edges.maxY : b.edges.minY + (k + 1) * b.bandHeight;
 }
 
-/** Buckets edges into bands; about `edgesPerBand` edge starts per band. */
-export function buildBands(edges: EdgeSet, edgesPerBand = 4): EdgeBands {
+/**
+ * Buckets edges into bands; about `edgesPerBand` edge starts per band. With
+ * `sortByMinX`, the ids within each band are ordered by the edges' smaller x.
+ */
+export function buildBands(edges: EdgeSet, edgesPerBand = 4, sortByMinX = false): EdgeBands {
   const n = edges.count;
   const span = edges.maxY - edges.minY;
   let bandCount = n === 0 || !(span > 0)
@@ -131,6 +134,24 @@ export function buildBands(edges: EdgeSet, edgesPerBand = 4): EdgeBands {
   const fill = b.start.slice(0, bandCount);
   for (let e = 0; e < n; e++) {
     for (let k = lo[e]; k <= hi[e]; k++) ids[fill[k]++] = e;
+  }
+  if (sortByMinX) {
+    const { x0, x1 } = edges;
+    const key = new Float64Array(n);
+    for (let e = 0; e < n; e++) key[e] = x0[e] < x1[e] ? x0[e] : x1[e];
+    // insertion sort per band: bands are short
+    for (let k = 0; k < bandCount; k++) {
+      const s = b.start[k], f = b.start[k + 1];
+      for (let p = s + 1; p < f; p++) {
+        const id = ids[p], v = key[id];
+        let q = p - 1;
+        while (q >= s && key[ids[q]] > v) {
+          ids[q + 1] = ids[q];
+          q--;
+        }
+        ids[q + 1] = id;
+      }
+    }
   }
   b.ids = ids;
   return b;

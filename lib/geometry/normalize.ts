@@ -13,7 +13,19 @@
 import type { MultiPolygonPx, PolygonPx, Ring } from "../types.ts";
 import { ringAreaPx2 } from "./planar_area.ts";
 
-/** Closes a ring and drops repeated consecutive positions; returns null when degenerate. */
+/**
+ * Closes a ring and drops repeated consecutive positions.
+ *
+ * @param ring Positions, closed or not.
+ * @returns A new closed ring, or null when fewer than three distinct positions remain.
+ *
+ * @example Repeats removed, ring closed
+ * ```ts
+ * import { cleanRing } from "./normalize.ts";
+ * const r = cleanRing([[0, 0], [1, 0], [1, 0], [1, 1]]);
+ * if (r === null || r.length !== 4 || r[3].join() !== "0,0") throw new Error(JSON.stringify(r));
+ * ```
+ */
 export function cleanRing(ring: Ring): Ring | null {
   const out: Ring = [];
   for (const p of ring) {
@@ -56,6 +68,18 @@ export function normalizePolygon(p: PolygonPx): PolygonPx {
  * Like `normalizePolygon`, but with `keepZeroArea` a ring of zero net area
  * with at least three distinct positions is kept as given (a bow-tie has net
  * area 0 yet encloses two triangles; a union repairs it later).
+ *
+ * @param p Outer ring first, then holes.
+ * @param keepZeroArea Keep rings whose signed area is exactly 0.
+ * @returns The oriented polygon, or `[]` when the outer ring is dropped.
+ *
+ * @example A bow-tie is kept for repair
+ * ```ts
+ * import { orientPolygon } from "./normalize.ts";
+ * const bow: [number, number][] = [[0, 0], [2, 2], [2, 0], [0, 2], [0, 0]];
+ * if (orientPolygon([bow], true).length !== 1) throw new Error();
+ * if (orientPolygon([bow], false).length !== 0) throw new Error();
+ * ```
  */
 export function orientPolygon(p: PolygonPx, keepZeroArea: boolean): PolygonPx {
   if (p.length === 0) return [];

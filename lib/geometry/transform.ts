@@ -50,7 +50,7 @@ export function scaleRegion(region: MultiPolygonPx, sx: number, sy: number): Mul
  * @returns `[minX, minY, maxX, maxY]`; for an empty region
  *   `[Infinity, Infinity, -Infinity, -Infinity]`.
  *
- * @example
+ * @example The box of a triangle
  * ```ts
  * import { regionBBox } from "./transform.ts";
  * const tri: [number, number][] = [[1, 2], [5, 2], [3, 7], [1, 2]];

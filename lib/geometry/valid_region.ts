@@ -269,7 +269,8 @@ function subtractNear(a: MultiPolygonPx, x: MultiPolygonPx): MultiPolygonPx {
  * vertices on edges). Contacts are found with a grid of edges in about O(n).
  *
  * @param parts Tissue, tumour and exclude parts as read.
- * @returns The region, the unions, their areas (px²) and warnings.
+ * @returns The region, the unions, their areas (px²) and warnings (also
+ *   when nothing is left to count: `region` is then `[]`).
  * @throws {TypeError} When neither a tissue nor a tumour part has any area.
  *
  * @example A tumour outline over tissue, minus a necrotic patch
@@ -307,6 +308,15 @@ export function buildValidRegion(parts: ValidRegionParts): ValidRegion {
   const region = subtractNear(base, exclude);
   const baseArea = multiPolygonAreaPx2(base);
   const validAreaPx2 = multiPolygonAreaPx2(region);
+  if (tissue.length > 0 && tumour.length > 0 && baseArea === 0) {
+    warnings.push(
+      "The tumour region does not overlap the tissue region, so no area is left to count",
+    );
+  } else if (baseArea > 0 && validAreaPx2 === 0) {
+    warnings.push(
+      "The exclude regions cover all of the counting region, so no area is left to count",
+    );
+  }
   return {
     region,
     tissue,

@@ -62,37 +62,78 @@ export interface OverlapIndex {
  * ```
  */
 export function createOverlapIndex(region: MultiPolygonPx): OverlapIndex {
-  const bands = buildBands(flattenEdges(region));
+  const bands = buildBands(flattenEdges(region), 4, true);
+  const e = bands.edges;
+  // per band, in min-x order: the smaller x of each edge and suffix sums of
+  // its signed height within the band, so that the edges wholly right of a
+  // rectangle are added in one step (each adds width × height)
+  const minX = new Float64Array(bands.ids.length);
+  const sufDy = new Float64Array(bands.ids.length + bands.bandCount);
+  for (let k = 0; k < bands.bandCount; k++) {
+    const s = bands.start[k], f = bands.start[k + 1];
+    const lo = bandLo(bands, k), hi = bandHi(bands, k);
+    let acc = 0;
+    for (let p = f - 1; p >= s; p--) {
+      const i = bands.ids[p];
+      minX[p] = e.x0[i] < e.x1[i] ? e.x0[i] : e.x1[i];
+      acc += clippedDy(e.y0[i], e.y1[i], lo, hi);
+      sufDy[p + k] = acc;
+    }
+    sufDy[f + k] = 0;
+  }
   return {
-    rect: (bbox) => rectWithBands(bands, bbox),
-    disk: (center, radius) => diskWithBands(bands, center, radius),
+    rect: (bbox) => rectWithSortedBands(bands, minX, sufDy, bbox),
+    disk: (center, radius) => diskWithBands(bands, center, radius, minX),
   };
 }
 
-function rectWithBands(b: EdgeBands, bbox: BBoxPx): number {
+/** Signed height of the part of an edge from y0 to y1 inside [lo, hi]. */
+function clippedDy(y0: number, y1: number, lo: number, hi: number): number {
+  const a = y0 < lo ? lo : y0 > hi ? hi : y0;
+  const b = y1 < lo ? lo : y1 > hi ? hi : y1;
+  return b - a;
+}
+
+function rectWithSortedBands(
+  b: EdgeBands,
+  minX: Float64Array,
+  sufDy: Float64Array,
+  bbox: BBoxPx,
+): number {
   const [X0, Y0, X1, Y1] = bbox;
   const e = b.edges;
   if (!(X1 > X0) || !(Y1 > Y0)) return 0;
   if (X1 <= e.minX || X0 >= e.maxX || Y1 <= e.minY || Y0 >= e.maxY) return 0;
   const { x0, y0, x1, y1 } = e;
   const ids = b.ids;
+  const w = X1 - X0;
   let sum = 0;
   const kEnd = bandOf(b, Y1);
   for (let k = bandOf(b, Y0); k <= kEnd; k++) {
     const blo = bandLo(b, k), bhi = bandHi(b, k);
     const lo = Y0 > blo ? Y0 : blo, hi = Y1 < bhi ? Y1 : bhi;
     if (!(hi > lo)) continue;
-    for (let s = b.start[k], t = b.start[k + 1]; s < t; s++) {
-      const i = ids[s];
+    const s = b.start[k], f = b.start[k + 1];
+    // first edge (in min-x order) wholly right of X1
+    let l = s, r = f;
+    while (l < r) {
+      const m = (l + r) >> 1;
+      if (minX[m] >= X1) r = m;
+      else l = m + 1;
+    }
+    const full = lo === blo && hi === bhi;
+    for (let p = s; p < (full ? l : f); p++) {
+      const i = ids[p];
       const ax = x0[i], bx = x1[i];
       if (ax <= X0 && bx <= X0) continue;
       sum += edgeBoxIntegral(ax, y0[i], bx, y1[i], X0, X1, lo, hi);
     }
+    if (full) sum += w * sufDy[l + k];
   }
   return sum;
 }
 
-function diskWithBands(b: EdgeBands, center: Vec2, r: number): number {
+function diskWithBands(b: EdgeBands, center: Vec2, r: number, minX?: Float64Array): number {
   if (!(r > 0)) return 0;
   const [cx, cy] = center;
   const e = b.edges;
@@ -112,6 +153,8 @@ function diskWithBands(b: EdgeBands, center: Vec2, r: number): number {
   const xl = cx - r, xr = cx + r, yl = cy - r, yr = cy + r;
   for (let k = kStart; k <= kEnd; k++) {
     for (let s = b.start[k], t = b.start[k + 1]; s < t; s++) {
+      // in min-x order nothing further along can reach the disk
+      if (minX !== undefined && minX[s] > xr) break;
       const i = ids[s];
       const ay = y0[i], by = y1[i];
       const emin = ay < by ? ay : by, emax = ay < by ? by : ay;
@@ -145,7 +188,14 @@ function diskWithBands(b: EdgeBands, center: Vec2, r: number): number {
  * ```
  */
 export function rectOverlapArea(region: MultiPolygonPx, rect: BBoxPx): number {
-  return rectWithBands(buildBands(flattenEdges(region), 64), rect);
+  const [X0, Y0, X1, Y1] = rect;
+  if (!(X1 > X0) || !(Y1 > Y0)) return 0;
+  const e = flattenEdges(region);
+  let sum = 0;
+  for (let i = 0; i < e.count; i++) {
+    sum += edgeBoxIntegral(e.x0[i], e.y0[i], e.x1[i], e.y1[i], X0, X1, Y0, Y1);
+  }
+  return sum;
 }
 
 /**

@@ -372,7 +372,7 @@ export interface MaskToRegionPartOptions extends MaskToPolygonsOptions {
  * @param options Scale, origin and the `source` to record.
  * @returns The region part.
  *
- * @example
+ * @example One mask pixel, 2 × 3 slide pixels
  * ```ts
  * import { maskToRegionPart } from "./read_mask.ts";
  * const part = maskToRegionPart({ width: 1, height: 1, data: new Uint8Array([1]) }, {

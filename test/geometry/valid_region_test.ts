@@ -347,3 +347,22 @@ Deno.test("buildValidRegion() finds crossings of long slanted edges with a fine 
   const want = jstsValidArea([[disk]], [[star]], []);
   assert.ok(relErr(v.validAreaPx2, want) < 1e-9, `${v.validAreaPx2} vs ${want}`);
 });
+
+Deno.test("buildValidRegion() warns when nothing is left to count", () => {
+  const apart = buildValidRegion({
+    tissue: [part([[rect(0, 0, 10, 10)]], "t")],
+    tumour: [part([[rect(20, 0, 30, 10)]], "u")],
+    exclude: [],
+  });
+  assert.deepEqual(apart.region, []);
+  assert.equal(apart.validAreaPx2, 0);
+  assert.match(apart.warnings[0], /does not overlap the tissue/);
+  const covered = buildValidRegion({
+    tissue: [part([[rect(0, 0, 10, 10)]], "t")],
+    tumour: [],
+    exclude: [part([[rect(-1, -1, 11, 11)]], "x")],
+  });
+  assert.equal(covered.validAreaPx2, 0);
+  assert.equal(covered.excludedAreaPx2, 100);
+  assert.match(covered.warnings[0], /cover all of the counting region/);
+});
