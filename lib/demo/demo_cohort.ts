@@ -279,7 +279,7 @@ const RECIPES: CaseRecipe[] = [
         figures: 4,
       },
     ],
-    foci: [{ u: 0.05, v: 0.12, sigmaUm: 420, n: 4 }],
+    foci: [{ u: 0.05, v: 0.12, sigmaUm: 420, n: 5 }],
     backgroundPerMm2: 0.8,
     outsidePerMm2: 0.2,
     lookalikes: 80,
@@ -337,7 +337,7 @@ const RECIPES: CaseRecipe[] = [
     figureStyle: "detector",
     fields: [
       { reader: "reader-a", u: 0.29, v: -0.14 },
-      { reader: "trainee-2", u: -0.32, v: 0.12, label: "first field examined" },
+      { reader: "trainee-2", u: -0.3, v: 0.05, label: "first field examined" },
     ],
   },
   {
@@ -463,12 +463,16 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
   });
   const holes: Ring[] = [];
   const placed: [number, number, number][] = [];
+  const keepClear = [...r.foci, ...r.fields].map((p) => [p.u, p.v]);
   for (let tries = 0; holes.length < r.tissue.holes && tries < 500; tries++) {
     const rad = 0.5 * Math.sqrt(random());
     const ang = 2 * Math.PI * random();
     const u = rad * Math.cos(ang), v = rad * Math.sin(ang);
     const size = 0.03 + 0.04 * random();
     if (placed.some(([pu, pv, ps]) => Math.hypot(pu - u, pv - v) < 1.4 * (ps + size))) continue;
+    // Keep holes off the foci and the readers' fields, so that a field lies
+    // in tumour unless a recipe means otherwise.
+    if (keepClear.some(([ku, kv]) => Math.hypot(ku - u, kv - v) < 0.2 + size)) continue;
     placed.push([u, v, size]);
     const ring = blobRing(frame, randomProfile(random, 0.3, 4), 28 + Math.floor(12 * random()), {
       u0: u,
