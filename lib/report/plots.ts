@@ -749,6 +749,17 @@ export function distributionFigure(result: CaseResult): PlotFigure {
     });
     n++;
   }
+  if (total === 0) {
+    annotations.push({
+      x: 0.5,
+      y: 0.5,
+      xref: "paper",
+      yref: "paper",
+      text: "No admissible window position",
+      showarrow: false,
+      font: { size: 16, color: "#8a4b00" },
+    });
+  }
   const layout: Record<string, unknown> = {
     title: { text: `Counts of all admissible windows: ${plotText(result.report.case)}`, x: 0 },
     font: FONT,
