@@ -19,7 +19,6 @@
 import type { CaseResult, Placement, WindowShape } from "../count/engine_types.ts";
 import type { ReportClassification } from "./report_types.ts";
 import type { MultiPolygonPx, PolygonPx } from "../types.ts";
-import { escapeHtml } from "./html_escape.ts";
 import { windowRingUm } from "./hotspot_geojson.ts";
 
 /** A plotly.js figure as plain data. */
@@ -78,16 +77,18 @@ const FONT = {
 };
 
 /**
- * Text for a plotly label: plotly.js reads tags and entities, so escape them.
+ * Text for a plotly label. plotly.js reads a few tags (`<b>`, `<br>`, `<a>`…)
+ * and the entities `&lt;`, `&gt;` and `&amp;` in labels, so those three
+ * characters are escaped; quotes are harmless outside a tag and stay as they are.
  *
  * @example
  * ```ts
  * import { plotText } from "./plots.ts";
- * if (plotText("<b>reader</b>") !== "&lt;b&gt;reader&lt;/b&gt;") throw new Error();
+ * if (plotText('<b>"reader" & co</b>') !== '&lt;b&gt;"reader" &amp; co&lt;/b&gt;') throw new Error();
  * ```
  */
 export function plotText(text: unknown): string {
-  return escapeHtml(text);
+  return String(text).replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;");
 }
 
 /** Options of {@linkcode countMapFigure}. */

@@ -104,6 +104,13 @@ Deno.test({
       );
       assert.equal(hostile, true);
       assert.equal(await evaluate(page, "document.querySelectorAll('main img').length"), 0);
+      // plotly.js shows the same names literally in its legend.
+      const legend = await evaluate(
+        page,
+        "[...document.querySelectorAll('#plot-map .legendtext')].map((t) => t.textContent)",
+      ) as string[];
+      assert.ok(legend.includes('field of <img src=x onerror="alert(1)">'), legend.join(" | "));
+      assert.ok(legend.includes("field of </script>&"), legend.join(" | "));
       await checkPage(page, join(dir, "index.html"), 1, "index.png");
 
       const alone = mkdtempSync(join(tmpdir(), "hotfield-browser-alone-"));

@@ -9,7 +9,7 @@ import { renderCaseHtml } from "../../lib/report/report_html.ts";
 import { renderCohortIndex } from "../../lib/report/cohort_index.ts";
 import { escapeHtml, jsonForScript } from "../../lib/report/html_escape.ts";
 import { findPlotlyPath, PLOTLY_PACKAGE, PLOTLY_VERSION } from "../../lib/report/plotly_asset.ts";
-import { countMapFigure, heatmapGrid } from "../../lib/report/plots.ts";
+import { countMapFigure, heatmapGrid, plotText } from "../../lib/report/plots.ts";
 import { caseHotspotGeoJson } from "../../lib/report/hotspot_geojson.ts";
 import { fixtureResult } from "./_fixture.ts";
 
@@ -83,8 +83,9 @@ Deno.test("renderCaseHtml() shows names from input as text, never markup", () =>
   assert.equal(specs.length, 2);
   const names = specs[0].figure.data.map((t) => t.name ?? "");
   // plotly.js reads tags and entities in labels, so labels carry escaped text.
-  assert.ok(names.includes(`field of ${escapeHtml(HOSTILE_READERS[0])}`), names.join(" | "));
-  assert.ok(names.includes(`excluded: ${escapeHtml(HOSTILE_REASON)}`));
+  assert.ok(names.includes(`field of ${plotText(HOSTILE_READERS[0])}`), names.join(" | "));
+  assert.ok(names.includes(`excluded: ${plotText(HOSTILE_REASON)}`));
+  assert.ok(!names.some((n) => n.includes("<")));
 });
 
 Deno.test("renderCohortIndex() escapes case ids and links folders by URL encoding", () => {
