@@ -197,17 +197,20 @@ export function writeOutputs(
         linkCsv: formats.has("csv"),
       }),
     ]);
-    if (!standalone) runFiles.unshift([join("assets", "plotly.min.js"), plotlyJs]);
   }
+  const assetFiles: [string, string][] = wantHtml && !standalone
+    ? [[join("assets", "plotly.min.js"), plotlyJs]]
+    : [];
 
-  // 2. Write: shared files first (reports reference the asset), then each case folder staged.
+  // 2. Write: the shared asset first (reports reference it), then each case folder
+  // staged, then the cohort files that link to the cases.
   try {
     mkdirSync(outDir, { recursive: true });
   } catch (e) {
     throw new Error(`Cannot create the output folder "${outDir}": ${(e as Error).message}`);
   }
   const written: string[] = [];
-  for (const [name, text] of runFiles) {
+  const writeRunFile = ([name, text]: [string, string]) => {
     const path = join(outDir, name);
     try {
       writeFileAtomic(path, text);
@@ -215,7 +218,8 @@ export function writeOutputs(
       throw new Error(`Cannot write "${path}": ${(e as Error).message}`);
     }
     written.push(path);
-  }
+  };
+  assetFiles.forEach(writeRunFile);
   for (const { id, files } of perCase) {
     const finalDir = join(outDir, id);
     const stage = join(outDir, `.${id}.staging-${Deno.pid}`);
@@ -234,5 +238,6 @@ export function writeOutputs(
     }
     for (const [name] of files) written.push(join(finalDir, name));
   }
+  runFiles.forEach(writeRunFile);
   return written;
 }
