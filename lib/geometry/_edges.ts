@@ -95,15 +95,18 @@ export function bandHi(b: EdgeBands, k: number): number {
 }
 
 /**
- * Buckets edges into bands; about `edgesPerBand` edge starts per band. With
- * `sortByMinX`, the ids within each band are ordered by the edges' smaller x.
+ * Buckets edges into bands of equal height: about `edgesPerBand` edge starts
+ * per band, but bands no lower than `minBandHeight`.
  */
-export function buildBands(edges: EdgeSet, edgesPerBand = 4, sortByMinX = false): EdgeBands {
+export function buildBands(edges: EdgeSet, edgesPerBand = 4, minBandHeight = 0): EdgeBands {
   const n = edges.count;
   const span = edges.maxY - edges.minY;
   let bandCount = n === 0 || !(span > 0)
     ? 1
     : Math.max(1, Math.min(1 << 16, Math.ceil(n / edgesPerBand)));
+  if (minBandHeight > 0 && span > 0) {
+    bandCount = Math.max(1, Math.min(bandCount, Math.floor(span / minBandHeight)));
+  }
   const bandHeight = bandCount === 1 ? (span > 0 ? span : 1) : span / bandCount;
   if (!(bandHeight > 0)) bandCount = 1;
   const b: EdgeBands = {
@@ -134,24 +137,6 @@ export function buildBands(edges: EdgeSet, edgesPerBand = 4, sortByMinX = false)
   const fill = b.start.slice(0, bandCount);
   for (let e = 0; e < n; e++) {
     for (let k = lo[e]; k <= hi[e]; k++) ids[fill[k]++] = e;
-  }
-  if (sortByMinX) {
-    const { x0, x1 } = edges;
-    const key = new Float64Array(n);
-    for (let e = 0; e < n; e++) key[e] = x0[e] < x1[e] ? x0[e] : x1[e];
-    // insertion sort per band: bands are short
-    for (let k = 0; k < bandCount; k++) {
-      const s = b.start[k], f = b.start[k + 1];
-      for (let p = s + 1; p < f; p++) {
-        const id = ids[p], v = key[id];
-        let q = p - 1;
-        while (q >= s && key[ids[q]] > v) {
-          ids[q + 1] = ids[q];
-          q--;
-        }
-        ids[q + 1] = id;
-      }
-    }
   }
   b.ids = ids;
   return b;

@@ -62,29 +62,62 @@ export interface OverlapIndex {
  * ```
  */
 export function createOverlapIndex(region: MultiPolygonPx): OverlapIndex {
-  const bands = buildBands(flattenEdges(region), 4, true);
-  const e = bands.edges;
-  // per band, in min-x order: the smaller x of each edge and suffix sums of
-  // its signed height within the band, so that the edges wholly right of a
-  // rectangle are added in one step (each adds width × height)
-  const minX = new Float64Array(bands.ids.length);
-  const sufDy = new Float64Array(bands.ids.length + bands.bandCount);
+  const edges = flattenEdges(region);
+  const n = edges.count;
+  const { x0, y0, x1, y1 } = edges;
+  // typical edge height and width (medians of a sample): bands no lower than an
+  // edge, and a width above which an edge is "wide"
+  const heights: number[] = [], widths: number[] = [];
+  const step = Math.max(1, Math.floor(n / 2048));
+  for (let i = 0; i < n; i += step) {
+    heights.push(Math.abs(y1[i] - y0[i]));
+    widths.push(Math.abs(x1[i] - x0[i]));
+  }
+  const median = (v: number[]) => (v.length === 0 ? 0 : v.sort((p, q) => p - q)[v.length >> 1]);
+  const bands = buildBands(edges, 4, median(heights));
+  const wideWidth = 8 * median(widths);
+  // per band: wide edges first (visited always), then narrow edges by min x,
+  // with suffix sums of their signed heights within the band, so that the
+  // narrow edges wholly right of a rectangle are added in one step
+  const ids = bands.ids;
+  const minX = new Float64Array(ids.length);
+  const narrowStart = new Uint32Array(bands.bandCount);
+  const sufDy = new Float64Array(ids.length + bands.bandCount);
   for (let k = 0; k < bands.bandCount; k++) {
     const s = bands.start[k], f = bands.start[k + 1];
+    const wide: number[] = [], narrow: number[] = [];
+    for (let p = s; p < f; p++) {
+      const i = ids[p];
+      (Math.abs(x1[i] - x0[i]) > wideWidth ? wide : narrow).push(i);
+    }
+    narrow.sort((p, q) => Math.min(x0[p], x1[p]) - Math.min(x0[q], x1[q]));
+    let p = s;
+    for (const i of wide) ids[p++] = i;
+    narrowStart[k] = p;
+    for (const i of narrow) ids[p++] = i;
     const lo = bandLo(bands, k), hi = bandHi(bands, k);
     let acc = 0;
-    for (let p = f - 1; p >= s; p--) {
-      const i = bands.ids[p];
-      minX[p] = e.x0[i] < e.x1[i] ? e.x0[i] : e.x1[i];
-      acc += clippedDy(e.y0[i], e.y1[i], lo, hi);
-      sufDy[p + k] = acc;
-    }
     sufDy[f + k] = 0;
+    for (let q = f - 1; q >= narrowStart[k]; q--) {
+      const i = ids[q];
+      minX[q] = x0[i] < x1[i] ? x0[i] : x1[i];
+      acc += clippedDy(y0[i], y1[i], lo, hi);
+      sufDy[q + k] = acc;
+    }
   }
+  const idx: SortedBands = { bands, minX, narrowStart, sufDy, wideWidth };
   return {
-    rect: (bbox) => rectWithSortedBands(bands, minX, sufDy, bbox),
-    disk: (center, radius) => diskWithBands(bands, center, radius, minX),
+    rect: (bbox) => rectSorted(idx, bbox),
+    disk: (center, radius) => diskSorted(idx, center, radius),
   };
+}
+
+interface SortedBands {
+  bands: EdgeBands;
+  minX: Float64Array;
+  narrowStart: Uint32Array;
+  sufDy: Float64Array;
+  wideWidth: number;
 }
 
 /** Signed height of the part of an edge from y0 to y1 inside [lo, hi]. */
@@ -94,17 +127,24 @@ function clippedDy(y0: number, y1: number, lo: number, hi: number): number {
   return b - a;
 }
 
-function rectWithSortedBands(
-  b: EdgeBands,
-  minX: Float64Array,
-  sufDy: Float64Array,
-  bbox: BBoxPx,
-): number {
+/** First position in [s, f) whose min x is ≥ v (min x ascending there). */
+function lowerBound(minX: Float64Array, s: number, f: number, v: number): number {
+  while (s < f) {
+    const m = (s + f) >> 1;
+    if (minX[m] >= v) f = m;
+    else s = m + 1;
+  }
+  return s;
+}
+
+function rectSorted(idx: SortedBands, bbox: BBoxPx): number {
   const [X0, Y0, X1, Y1] = bbox;
+  const b = idx.bands;
   const e = b.edges;
   if (!(X1 > X0) || !(Y1 > Y0)) return 0;
   if (X1 <= e.minX || X0 >= e.maxX || Y1 <= e.minY || Y0 >= e.maxY) return 0;
   const { x0, y0, x1, y1 } = e;
+  const { minX, narrowStart, sufDy } = idx;
   const ids = b.ids;
   const w = X1 - X0;
   let sum = 0;
@@ -113,29 +153,30 @@ function rectWithSortedBands(
     const blo = bandLo(b, k), bhi = bandHi(b, k);
     const lo = Y0 > blo ? Y0 : blo, hi = Y1 < bhi ? Y1 : bhi;
     if (!(hi > lo)) continue;
-    const s = b.start[k], f = b.start[k + 1];
-    // first edge (in min-x order) wholly right of X1
-    let l = s, r = f;
-    while (l < r) {
-      const m = (l + r) >> 1;
-      if (minX[m] >= X1) r = m;
-      else l = m + 1;
+    const s = b.start[k], ns = narrowStart[k], f = b.start[k + 1];
+    for (let p = s; p < ns; p++) {
+      const i = ids[p];
+      sum += edgeBoxIntegral(x0[i], y0[i], x1[i], y1[i], X0, X1, lo, hi);
     }
+    // narrow edges starting left of X0 − wideWidth end left of X0: they add nothing
+    const from = lowerBound(minX, ns, f, X0 - idx.wideWidth);
+    const right = lowerBound(minX, from, f, X1);
     const full = lo === blo && hi === bhi;
-    for (let p = s; p < (full ? l : f); p++) {
+    for (let p = from; p < (full ? right : f); p++) {
       const i = ids[p];
       const ax = x0[i], bx = x1[i];
       if (ax <= X0 && bx <= X0) continue;
       sum += edgeBoxIntegral(ax, y0[i], bx, y1[i], X0, X1, lo, hi);
     }
-    if (full) sum += w * sufDy[l + k];
+    if (full) sum += w * sufDy[right + k];
   }
   return sum;
 }
 
-function diskWithBands(b: EdgeBands, center: Vec2, r: number, minX?: Float64Array): number {
+function diskSorted(idx: SortedBands, center: Vec2, r: number): number {
   if (!(r > 0)) return 0;
   const [cx, cy] = center;
+  const b = idx.bands;
   const e = b.edges;
   if (cx + r <= e.minX || cx - r >= e.maxX || cy + r <= e.minY || cy - r >= e.maxY) return 0;
   const { x0, y0, x1, y1 } = e;
@@ -149,23 +190,26 @@ function diskWithBands(b: EdgeBands, center: Vec2, r: number, minX?: Float64Arra
   }
   let sum = where === 1 ? Math.PI * r * r : 0;
   const ids = b.ids;
+  const { minX, narrowStart } = idx;
   const kStart = bandOf(b, cy - r), kEnd = bandOf(b, cy + r);
   const xl = cx - r, xr = cx + r, yl = cy - r, yr = cy + r;
+  const visit = (i: number, k: number) => {
+    const ay = y0[i], by = y1[i];
+    const emin = ay < by ? ay : by, emax = ay < by ? by : ay;
+    if (emax < yl || emin > yr) return;
+    // visit an edge once: in the first band of the query that holds it
+    const first = bandOf(b, emin);
+    if ((first > kStart ? first : kStart) !== k) return;
+    const ax = x0[i], bx = x1[i];
+    if ((ax < xl && bx < xl) || (ax > xr && bx > xr)) return;
+    const px = ax - cx, py = ay - cy, qx = bx - cx, qy = by - cy;
+    sum += edgeDiskArea(px, py, qx, qy, r) - edgeSector(px, py, qx, qy, r);
+  };
   for (let k = kStart; k <= kEnd; k++) {
-    for (let s = b.start[k], t = b.start[k + 1]; s < t; s++) {
-      // in min-x order nothing further along can reach the disk
-      if (minX !== undefined && minX[s] > xr) break;
-      const i = ids[s];
-      const ay = y0[i], by = y1[i];
-      const emin = ay < by ? ay : by, emax = ay < by ? by : ay;
-      if (emax < yl || emin > yr) continue;
-      // visit an edge once: in the first band of the query that holds it
-      const first = bandOf(b, emin);
-      if ((first > kStart ? first : kStart) !== k) continue;
-      const ax = x0[i], bx = x1[i];
-      if ((ax < xl && bx < xl) || (ax > xr && bx > xr)) continue;
-      const px = ax - cx, py = ay - cy, qx = bx - cx, qy = by - cy;
-      sum += edgeDiskArea(px, py, qx, qy, r) - edgeSector(px, py, qx, qy, r);
+    const s = b.start[k], ns = narrowStart[k], f = b.start[k + 1];
+    for (let p = s; p < ns; p++) visit(ids[p], k);
+    for (let p = lowerBound(minX, ns, f, xl - idx.wideWidth); p < f && minX[p] <= xr; p++) {
+      visit(ids[p], k);
     }
   }
   return sum;
