@@ -113,3 +113,21 @@ Deno.test("createRegionIndex() handles empty regions and mismatched arrays", () 
     "xs and ys differ in length",
   );
 });
+
+Deno.test("createRegionIndex() counts every vertex and edge midpoint of a large outline as inside", () => {
+  // many edges, so the coarse raster is in use; axis-aligned steps keep midpoints exact
+  const ring: Ring = [];
+  for (let i = 0; i < 500; i++) ring.push([i * 2, (i % 7) * 3], [i * 2 + 2, (i % 7) * 3]);
+  ring.push([1000, 100], [0, 100], [0, 0]);
+  const region: MultiPolygonPx = normalizeMultiPolygon([[ring]]);
+  const idx = createRegionIndex(region);
+  const r = region[0][0];
+  for (let i = 0; i + 1 < r.length; i++) {
+    const [ax, ay] = r[i], [bx, by] = r[i + 1];
+    assert.ok(idx.containsPoint(ax, ay), `vertex ${i}`);
+    assert.ok(idx.containsPoint((ax + bx) / 2, (ay + by) / 2), `midpoint ${i}`);
+  }
+  assert.ok(
+    idx.containsPoint(500, 50) && !idx.containsPoint(500, 100.5) && !idx.containsPoint(-0.5, 50),
+  );
+});
