@@ -44,6 +44,17 @@ Deno.test("decodeMaskPng() reads 8-bit and 1-bit greyscale, nonzero is tissue", 
   assert.deepEqual([...m.data], bits);
 });
 
+Deno.test("decodeMaskPng() reads 16-bit greyscale", () => {
+  const png = encode({
+    width: 3,
+    height: 1,
+    data: new Uint16Array([0, 1, 65535]),
+    channels: 1,
+    depth: 16,
+  });
+  assert.deepEqual([...decodeMaskPng(png, { fileName: "g16.png" }).data], [0, 1, 1]);
+});
+
 Deno.test("decodeMaskPng() reads RGB(A) by any colour channel, alpha 0 as background", () => {
   const rgba = encode({
     width: 4,
