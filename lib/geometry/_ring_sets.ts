@@ -1,11 +1,12 @@
 /**
- * Private: set operations on regions whose boundaries do not meet.
+ * Private: intersection of regions whose boundaries do not meet, and
+ * grouping of rings into polygons.
  *
  * When no edge of A touches or crosses an edge of B, every ring of A lies
  * wholly inside or wholly outside B (and vice versa), and the boundary of
- * A ∩ B is made of the A-rings inside B and the B-rings inside A; the boundary
- * of A − B of the A-rings outside B and the B-rings inside A, reversed. One
- * point-in-region test per ring decides, after which the rings are grouped
+ * A ∩ B is made of the A-rings inside B and the B-rings inside A (A − B is
+ * A ∩ the complement of B, see `_pair_ops.ts`). One point-in-region test
+ * per ring decides, after which the rings are grouped
  * into polygons again (each hole goes to the smallest outer ring around it).
  *
  * @module
@@ -111,14 +112,5 @@ export function intersectDisjointBoundaries(a: MultiPolygonPx, b: MultiPolygonPx
   const keep: Ring[] = [];
   for (const p of a) for (const r of p) if (classifyRing(ib, r) === 1) keep.push(r);
   for (const p of b) for (const r of p) if (classifyRing(ia, r) === 1) keep.push(r);
-  return assembleRings(keep);
-}
-
-/** A − B for regions whose boundaries do not meet (normalized inputs). */
-export function subtractDisjointBoundaries(a: MultiPolygonPx, b: MultiPolygonPx): MultiPolygonPx {
-  const ia = buildBands(flattenEdges(a)), ib = buildBands(flattenEdges(b));
-  const keep: Ring[] = [];
-  for (const p of a) for (const r of p) if (classifyRing(ib, r) === 0) keep.push(r);
-  for (const p of b) for (const r of p) if (classifyRing(ia, r) === 1) keep.push([...r].reverse());
   return assembleRings(keep);
 }

@@ -191,17 +191,20 @@ function unionRole(parts: RegionPart[], role: string, warnings: string[]): Multi
   const selfBad = bad.some((c) => tagged.group[c.a] === tagged.group[c.b]);
   if (!selfBad) {
     // parts that are valid on their own but overlap each other: unite them one by one
-    let okParts = true;
-    normalized.forEach((mp, i) => {
-      if (okParts && mp.length > 1) {
-        okParts = nestingIsConsistent(tagEdges(mp, mp.map(() => i)), mp);
-      }
-    });
-    if (okParts) {
+    const nestedWrongly = normalized.findIndex((mp, i) =>
+      mp.length > 1 && !nestingIsConsistent(tagEdges(mp, mp.map(() => i)), mp)
+    );
+    if (nestedWrongly < 0) {
       let u: MultiPolygonPx = [];
       for (const mp of normalized) u = unionRegions(u, mp);
       return u;
     }
+    warned.add(nestedWrongly);
+    warnings.push(
+      `The ${role} outline ${
+        parts[nestedWrongly].source
+      } has polygons lying inside one another (or a hole outside its polygon); they were repaired by a planar union`,
+    );
   }
   for (const c of bad) {
     const g = tagged.group[c.a];

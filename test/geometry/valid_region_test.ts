@@ -407,3 +407,17 @@ Deno.test("buildValidRegion() intersects traced mask pieces with a tumour outlin
     checkNormalized(v.region);
   }
 });
+
+Deno.test("buildValidRegion() repairs a part whose polygons lie inside one another, with a warning", () => {
+  const v = buildValidRegion({
+    tissue: [part([[rect(0, 0, 10, 10)], [rect(2, 2, 4, 4)]], "QVT-24-004.geojson feature 1")],
+    tumour: [],
+    exclude: [],
+  });
+  assert.ok(Math.abs(v.validAreaPx2 - 100) < 1e-9);
+  assert.equal(v.warnings.length, 1);
+  assert.match(
+    v.warnings[0],
+    /QVT-24-004\.geojson feature 1 has polygons lying inside one another/,
+  );
+});
