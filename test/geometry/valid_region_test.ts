@@ -421,3 +421,20 @@ Deno.test("buildValidRegion() repairs a part whose polygons lie inside one anoth
     /QVT-24-004\.geojson feature 1 has polygons lying inside one another/,
   );
 });
+
+Deno.test("buildValidRegion() does not depend on the order of the parts", () => {
+  const rnd = seededRandom(12);
+  const tissue = [0, 1, 2].map((i) => part([randomPolygon(rnd, 120 * i, 0, 90, 30, 2)], `t${i}`));
+  const exclude = [0, 1, 2, 3].map((i) => part([[starRing(rnd, 60 * i, 10, 10, 10, 40)]], `x${i}`));
+  const tumour = [part([randomPolygon(rnd, 100, 0, 150, 40, 1)], "u")];
+  const a = buildValidRegion({ tissue, tumour, exclude });
+  const b = buildValidRegion({
+    tissue: [...tissue].reverse(),
+    tumour,
+    exclude: [exclude[2], exclude[0], exclude[3], exclude[1]],
+  });
+  // tolerance 1e-9 relative: a different order changes only the rounding of crossing points
+  assert.ok(relErr(a.validAreaPx2, b.validAreaPx2) < 1e-9);
+  assert.ok(relErr(a.tissueAreaPx2, b.tissueAreaPx2) < 1e-9);
+  assert.ok(relErr(a.excludedAreaPx2, b.excludedAreaPx2) < 1e-9);
+});
