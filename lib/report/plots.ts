@@ -886,12 +886,13 @@ export function cohortFigure(results: readonly Pick<CaseResult, "report">[]): Pl
   const annotations = results.flatMap((r, i) =>
     r.report.hotspot ? [] : [{
       x: ids[i],
-      y: 0,
+      xref: "x",
+      y: 0.5,
+      yref: "y domain",
       text: "no hotspot",
       showarrow: false,
-      yanchor: "bottom",
-      textangle: -90,
-      font: { size: 11, color: "#555" },
+      bgcolor: "rgba(255,255,255,0.85)",
+      font: { size: 12, color: "#8a4b00" },
     }]
   );
   const layout: Record<string, unknown> = {
