@@ -23,11 +23,17 @@ export interface CircleRaster {
 
 /**
  * Picks the raster: cells of stride/q with q the smallest integer making a
- * cell no wider than r/128 (at most 16), so grid centres fall on cell
- * corners and every centre sees the same pattern of row spans.
+ * cell no wider than r/128, at most 4 (memory and time grow with q²), so grid
+ * centres fall on cell corners and every centre sees the same row spans.
  */
-export function circleRaster(strideUm: number, radiusUm: number): CircleRaster {
-  const q = Math.max(1, Math.min(16, Math.ceil(strideUm / (radiusUm / 128))));
+export function circleRaster(
+  strideUm: number,
+  radiusUm: number,
+  cellsPerStride?: number,
+): CircleRaster {
+  const q = cellsPerStride !== undefined
+    ? Math.max(1, Math.min(4, Math.round(cellsPerStride)))
+    : Math.max(1, Math.min(4, Math.ceil(strideUm / (radiusUm / 128))));
   const c = strideUm / q;
   // Cells met by a circle of radius r: at most 8(r/c + 1); each contributes at most c².
   const errorBound = Math.min(1, 8 * (radiusUm / c + 1) * c * c / (Math.PI * radiusUm * radiusUm));
@@ -47,11 +53,12 @@ export function circleCoverage(
   regionUm: MultiPolygonPx,
   grid: StrideGrid,
   radiusUm: number,
+  cellsPerStride?: number,
 ): Float64Array {
   const { x0Um, y0Um, strideUm: s, nx, ny } = grid;
   const out = new Float64Array(nx * ny);
   if (regionUm.length === 0) return out;
-  const { q, cellUm: c } = circleRaster(s, radiusUm);
+  const { q, cellUm: c } = circleRaster(s, radiusUm, cellsPerStride);
   const R = Math.ceil(radiusUm / c) + 1;
   // Row pattern relative to a centre on a cell corner: rows t ∈ [−R, R).
   const k = new Int32Array(2 * R), f = new Float64Array(2 * R);

@@ -51,7 +51,7 @@ export function bucketFigures(xUm: Float64Array, yUm: Float64Array, size: number
   return { x0: minX, y0: minY, size, nbx, nby, start, order, xUm, yUm };
 }
 
-/** Indices of the points in the box [x0, x1] × [y0, y1] (inclusive), ascending. */
+/** Indices of the points in the box [x0, x1] × [y0, y1] (inclusive), in bucket order. */
 export function pointsInBox(
   b: FigureBuckets,
   x0: number,
@@ -74,6 +74,5 @@ export function pointsInBox(
       }
     }
   }
-  out.sort((a, c) => a - c);
   return out;
 }

@@ -8,7 +8,6 @@
 import type { CountMap, Placement, PreparedCase, WindowShape } from "./engine_types.ts";
 import { stampWindowCounts } from "./stamp_window_counts.ts";
 import { type WindowExtents, windowExtents } from "./window_contains.ts";
-import { exactRange } from "./_index_range.ts";
 import { bucketFigures, type FigureBuckets, pointsInBox } from "./_figure_buckets.ts";
 import { createOverlapIndex } from "./_geometry.ts";
 
@@ -192,12 +191,14 @@ export function searchBest(st: SearchState, chosen: Placement[] = []): Placement
     if (best && st.bound[k] <= best.count) break;
     st.stats.blocks++;
     const cx = x0Um + (k % nx) * s, cy = y0Um + Math.floor(k / nx) * s;
+    const covBound = map.coverage[k] + st.coverageSlack;
+    // Equal counts can only win on coverage: ask for more when this cell cannot beat it.
+    const need = best ? (covBound <= best.coverage + 1e-9 ? best.count + 1 : best.count) : 0;
     const cands = st.isRect
-      ? rectCandidates(st, cx, cy, chosen)
-      : circleCandidates(st, cx, cy, chosen);
+      ? rectCandidates(st, cx, cy, chosen, need)
+      : circleCandidates(st, cx, cy, chosen, need);
     st.stats.candidates += cands.length;
     cands.sort((a, b) => b.count - a.count || a.cy - b.cy || a.cx - b.cx);
-    const covBound = map.coverage[k] + st.coverageSlack;
     for (const c of cands) {
       if (best) {
         if (c.count < best.count) break;
@@ -272,25 +273,31 @@ function lowerBound(a: Float64Array, v: number): number {
  * in the cell, counted exactly by stamping each figure's contiguous candidate
  * ranges into a small difference array.
  */
-function rectCandidates(st: SearchState, cx: number, cy: number, chosen: Placement[]): Candidate[] {
+function rectCandidates(
+  st: SearchState,
+  cx: number,
+  cy: number,
+  chosen: Placement[],
+  minCount: number,
+): Candidate[] {
   const { e } = st;
   const s = st.map.grid.strideUm;
   const hw = e.halfX, hh = e.halfY;
   const bx0 = cx - s / 2, bx1 = cx + s / 2, by0 = cy - s / 2, by1 = cy + s / 2;
   const F = pointsInBox(st.buckets, cx - hw - s, cy - hh - s, cx + hw + s, cy + hh + s);
   const xs: number[] = [cx], ys: number[] = [cy];
-  for (const k of F) {
-    const fx = st.xUm[k], fy = st.yUm[k];
-    for (const v0 of [fx - hw, fx + hw]) {
-      if (v0 < bx0 || v0 > bx1) continue;
-      const v = nudge(v0, fx, (v) => Math.abs(fx - v) <= hw);
-      if (v !== null) xs.push(v);
-    }
-    for (const v0 of [fy - hh, fy + hh]) {
-      if (v0 < by0 || v0 > by1) continue;
-      const v = nudge(v0, fy, (v) => Math.abs(fy - v) <= hh);
-      if (v !== null) ys.push(v);
-    }
+  const xU = st.xUm, yU = st.yUm;
+  for (let t = 0; t < F.length; t++) {
+    const k = F[t];
+    const fx = xU[k], fy = yU[k];
+    let v = fx - hw;
+    if (v >= bx0 && v <= bx1) pushNudged(xs, v, fx, hw);
+    v = fx + hw;
+    if (v >= bx0 && v <= bx1) pushNudged(xs, v, fx, hw);
+    v = fy - hh;
+    if (v >= by0 && v <= by1) pushNudged(ys, v, fy, hh);
+    v = fy + hh;
+    if (v >= by0 && v <= by1) pushNudged(ys, v, fy, hh);
   }
   for (const p of chosen) {
     const [px, py] = p.centerUm;
@@ -310,21 +317,23 @@ function rectCandidates(st: SearchState, cx: number, cy: number, chosen: Placeme
   const X = uniqueSorted(xs), Y = uniqueSorted(ys);
   const nX = X.length, nY = Y.length, w1 = nX + 1;
   const diff = new Int32Array(w1 * (nY + 1));
-  for (const k of F) {
-    const fx = st.xUm[k], fy = st.yUm[k];
-    const [a0, a1] = exactRange(
-      lowerBound(X, fx - hw),
-      lowerBound(X, fx + hw) - 1,
-      nX,
-      (a) => Math.abs(fx - X[a]) <= hw,
-    );
+  for (let t = 0; t < F.length; t++) {
+    const k = F[t];
+    const fx = xU[k], fy = yU[k];
+    // Candidates a with |fx − X[a]| ≤ hw: a contiguous run, ends fixed by the test itself.
+    let a0 = lowerBound(X, fx - hw), a1 = lowerBound(X, fx + hw) - 1;
+    while (a0 > 0 && Math.abs(fx - X[a0 - 1]) <= hw) a0--;
+    while (a0 < nX && !(Math.abs(fx - X[a0]) <= hw)) a0++;
+    if (a1 < a0 - 1) a1 = a0 - 1;
+    while (a1 + 1 < nX && Math.abs(fx - X[a1 + 1]) <= hw) a1++;
+    while (a1 >= a0 && !(Math.abs(fx - X[a1]) <= hw)) a1--;
     if (a0 > a1) continue;
-    const [b0, b1] = exactRange(
-      lowerBound(Y, fy - hh),
-      lowerBound(Y, fy + hh) - 1,
-      nY,
-      (b) => Math.abs(fy - Y[b]) <= hh,
-    );
+    let b0 = lowerBound(Y, fy - hh), b1 = lowerBound(Y, fy + hh) - 1;
+    while (b0 > 0 && Math.abs(fy - Y[b0 - 1]) <= hh) b0--;
+    while (b0 < nY && !(Math.abs(fy - Y[b0]) <= hh)) b0++;
+    if (b1 < b0 - 1) b1 = b0 - 1;
+    while (b1 + 1 < nY && Math.abs(fy - Y[b1 + 1]) <= hh) b1++;
+    while (b1 >= b0 && !(Math.abs(fy - Y[b1]) <= hh)) b1--;
     if (b0 > b1) continue;
     diff[b0 * w1 + a0]++;
     diff[b0 * w1 + a1 + 1]--;
@@ -335,13 +344,25 @@ function rectCandidates(st: SearchState, cx: number, cy: number, chosen: Placeme
   const col = new Int32Array(nX);
   for (let b = 0; b < nY; b++) {
     let acc = 0;
+    const row = b * w1;
     for (let a = 0; a < nX; a++) {
-      acc += diff[b * w1 + a];
-      col[a] += acc;
-      out.push({ cx: X[a], cy: Y[b], count: col[a] });
+      acc += diff[row + a];
+      const c = (col[a] += acc);
+      if (c >= minCount) out.push({ cx: X[a], cy: Y[b], count: c });
     }
   }
   return out;
+}
+
+/** Pushes v, moved by ulps towards f until |f − v| ≤ h (the window test), onto list. */
+function pushNudged(list: number[], v: number, f: number, h: number): void {
+  for (let t = 0; t < 64; t++) {
+    if (Math.abs(f - v) <= h) {
+      list.push(v);
+      return;
+    }
+    v = nextToward(v, f);
+  }
 }
 
 /** Intersections of circles (a, ra) and (b, rb). */
@@ -366,103 +387,211 @@ function circleIntersections(
 }
 
 /**
- * Circle candidates in the stride cell of (cx, cy): centres with two figures
- * on the rim (pairwise circle intersections, nudged inward until both test
- * inside), single-figure placements (the rim point nearest the cell centre),
- * the grid centre, and points on the boundary of the zone excluded by each
- * chosen window. Each is counted exactly with the window test.
+ * Circle candidates in the stride cell of (cx, cy), with at least `minCount`
+ * figures: centres with two figures on the rim, single-figure placements, the
+ * grid centre, and points on the boundary of the zone excluded by each chosen
+ * window. Vertices with a figure f on the rim are found by an angular sweep
+ * of the arc of f's radius-r circle that crosses the cell: every other figure
+ * g within 2r is inside the window for centre angles in [φ − α, φ + α]
+ * (φ the direction of g from f, α = acos(|fg| / 2r)); intervals that cover the
+ * whole arc add to a base count, the others give events. The sweep count
+ * only orders candidates: each vertex is nudged towards the lens of its two
+ * figures until both test inside and is then counted exactly.
  */
 function circleCandidates(
   st: SearchState,
   cx: number,
   cy: number,
   chosen: Placement[],
+  minCount: number,
 ): Candidate[] {
-  const { e } = st;
   const s = st.map.grid.strideUm;
-  const r = e.halfX, r2 = e.radius2;
-  const reach = r + s;
+  const r = st.e.halfX;
+  const tol = 1e-6 * r;
+  const reach = r + (s / 2 + tol) * Math.SQRT2 + tol;
   const F0 = pointsInBox(st.buckets, cx - reach, cy - reach, cx + reach, cy + reach);
-  const F: number[] = [];
-  const A: number[] = [];
-  const band = s * Math.SQRT1_2 * (1 + 1e-9) + 1e-9 * r;
+  const out: Candidate[] = [];
+  // The grid centre itself.
+  let n = 0;
   for (const k of F0) {
+    const dx = st.xUm[k] - cx, dy = st.yUm[k] - cy;
+    if (dx * dx + dy * dy <= st.e.radius2) n++;
+  }
+  if (n >= minCount) out.push({ cx, cy, count: n });
+  circleCell(st, cx, cy, s / 2, F0, chosen, minCount, out);
+  return out;
+}
+
+/** Leaves of the circle subdivision are at most this fraction of the stride wide. */
+const CIRCLE_LEAF = 1 / 16;
+
+/**
+ * Quadtree refinement of one square of centres (half side h): the figures
+ * within r + h·√2 bound every count in it; squares whose bound is below
+ * `minCount` are dropped, small ones are enumerated by {@linkcode circleLeaf}.
+ */
+function circleCell(
+  st: SearchState,
+  cx: number,
+  cy: number,
+  h: number,
+  F0: number[],
+  chosen: Placement[],
+  minCount: number,
+  out: Candidate[],
+): void {
+  const r = st.e.halfX;
+  const tol = 1e-6 * r;
+  const reach = r + (h + tol) * Math.SQRT2 + tol;
+  const reach2 = reach * reach;
+  const F: number[] = [];
+  for (let t = 0; t < F0.length; t++) {
+    const k = F0[t];
+    const dx = st.xUm[k] - cx, dy = st.yUm[k] - cy;
+    if (dx * dx + dy * dy <= reach2) F.push(k);
+  }
+  if (F.length < minCount) return;
+  if (h <= st.map.grid.strideUm * CIRCLE_LEAF / 2 || F.length <= 64) {
+    circleLeaf(st, cx, cy, h, F, chosen, minCount, out);
+    return;
+  }
+  const q = h / 2;
+  circleCell(st, cx - q, cy - q, q, F, chosen, minCount, out);
+  circleCell(st, cx + q, cy - q, q, F, chosen, minCount, out);
+  circleCell(st, cx - q, cy + q, q, F, chosen, minCount, out);
+  circleCell(st, cx + q, cy + q, q, F, chosen, minCount, out);
+}
+
+function circleLeaf(
+  st: SearchState,
+  cx: number,
+  cy: number,
+  hCell: number,
+  F: number[],
+  chosen: Placement[],
+  minCount: number,
+  out: Candidate[],
+): void {
+  const { e } = st;
+  const r = e.halfX, r2 = e.radius2;
+  const tol = 1e-6 * r;
+  const halfDiag = (hCell + tol) * Math.SQRT2;
+  const A: number[] = [];
+  for (const k of F) {
     const d = Math.hypot(st.xUm[k] - cx, st.yUm[k] - cy);
-    if (d > reach) continue;
-    F.push(k);
-    if (Math.abs(d - r) <= band) A.push(k);
+    if (Math.abs(d - r) <= halfDiag) A.push(k);
   }
   const fx = new Float64Array(F.map((k) => st.xUm[k]));
   const fy = new Float64Array(F.map((k) => st.yUm[k]));
-  const tol = 1e-9 * s;
   const inCell = (x: number, y: number) =>
-    Math.abs(x - cx) <= s / 2 + tol && Math.abs(y - cy) <= s / 2 + tol;
+    Math.abs(x - cx) <= hCell + tol && Math.abs(y - cy) <= hCell + tol;
   const inside = (px: number, py: number, k: number) => {
     const dx = st.xUm[k] - px, dy = st.yUm[k] - py;
     return dx * dx + dy * dy <= r2;
   };
-  const pts: [number, number][] = [[cx, cy]];
-  for (let a = 0; a < A.length; a++) {
-    const f = A[a];
-    const ax = st.xUm[f], ay = st.yUm[f];
-    // Single figure on the rim, nearest the cell centre.
-    const d = Math.hypot(cx - ax, cy - ay);
-    if (d > 0) {
-      for (const shrink of [1 - 1e-12, 1 - 1e-9]) {
-        const px = ax + (cx - ax) * (r / d) * shrink, py = ay + (cy - ay) * (r / d) * shrink;
-        if (inside(px, py, f)) {
-          if (inCell(px, py)) pts.push([px, py]);
-          break;
-        }
-      }
-    }
-    for (let b = a + 1; b < A.length; b++) {
-      const g = A[b];
-      const gx = st.xUm[g], gy = st.yUm[g];
-      const dd = (gx - ax) * (gx - ax) + (gy - ay) * (gy - ay);
-      if (dd > 4 * r2 || dd === 0) continue;
-      const mx = (ax + gx) / 2, my = (ay + gy) / 2;
-      for (const [px0, py0] of circleIntersections(ax, ay, r, gx, gy, r)) {
-        if (!inCell(px0, py0)) continue;
-        for (const shrink of [1 - 1e-12, 1 - 1e-9, 1 - 1e-7]) {
-          const px = mx + (px0 - mx) * shrink, py = my + (py0 - my) * shrink;
-          if (inside(px, py, f) && inside(px, py, g)) {
-            pts.push([px, py]);
-            break;
-          }
-        }
-      }
-    }
-  }
-  for (const p of chosen) {
-    const [qx, qy] = p.centerUm;
-    const dq = Math.hypot(cx - qx, cy - qy);
-    if (Math.abs(dq - 2 * r) > band + s) continue;
-    const push = (px0: number, py0: number, need?: number) => {
-      for (const grow of [1e-12, 1e-9, 1e-7]) {
-        const px = px0 + (px0 - qx) * grow, py = py0 + (py0 - qy) * grow;
-        const dx = px - qx, dy = py - qy;
-        if (dx * dx + dy * dy <= 4 * r2) continue;
-        if (need !== undefined && !inside(px, py, need)) return;
-        if (inCell(px, py)) pts.push([px, py]);
-        return;
-      }
-    };
-    if (dq > 0) push(qx + (cx - qx) * (2 * r / dq), qy + (cy - qy) * (2 * r / dq));
-    for (const f of A) {
-      for (const [px, py] of circleIntersections(qx, qy, 2 * r, st.xUm[f], st.yUm[f], r)) {
-        if (inCell(px, py)) push(px, py, f);
-      }
-    }
-  }
-  const out: Candidate[] = [];
-  for (const [px, py] of pts) {
+  const exactCount = (px: number, py: number): number => {
     let n = 0;
     for (let t = 0; t < fx.length; t++) {
       const dx = fx[t] - px, dy = fy[t] - py;
       if (dx * dx + dy * dy <= r2) n++;
     }
-    out.push({ cx: px, cy: py, count: n });
+    return n;
+  };
+  // Estimated candidates: [x, y, estimate, figure a, figure b] (b = −1 for none).
+  const est: [number, number, number, number, number][] = [];
+  const TWO_PI = 2 * Math.PI;
+  for (const f of A) {
+    const ax = st.xUm[f], ay = st.yUm[f];
+    // Arc of f's circle within the cell's circumscribed disk: angles θ0 ± δ.
+    const dc = Math.hypot(cx - ax, cy - ay);
+    if (dc === 0) continue;
+    const theta0 = Math.atan2(cy - ay, cx - ax);
+    const cosDelta = (r * r + dc * dc - halfDiag * halfDiag) / (2 * r * dc);
+    const delta = cosDelta <= -1 ? Math.PI : cosDelta >= 1 ? 0 : Math.acos(cosDelta);
+    // Single figure on the rim nearest the cell centre.
+    est.push([ax + (cx - ax) * (r / dc), ay + (cy - ay) * (r / dc), Infinity, f, -1]);
+    let base = 0;
+    const events: [number, number, number][] = []; // [angle offset, +1/−1, figure]
+    for (let t = 0; t < F.length; t++) {
+      const g = F[t];
+      if (g === f) {
+        base++;
+        continue;
+      }
+      const dx = st.xUm[g] - ax, dy = st.yUm[g] - ay;
+      const d2 = dx * dx + dy * dy;
+      if (d2 > 4 * r2) continue;
+      const d = Math.sqrt(d2);
+      const alpha = Math.acos(Math.min(1, d / (2 * r)));
+      let off = Math.atan2(dy, dx) - theta0; // φ relative to θ0, in (−π, π]
+      off -= TWO_PI * Math.round(off / TWO_PI);
+      const lo = off - alpha, hi = off + alpha;
+      if (lo <= -delta && hi >= delta) {
+        base++;
+        continue;
+      }
+      if (hi < -delta || lo > delta) continue;
+      if (lo > -delta) events.push([lo, 1, g]);
+      else base++;
+      if (hi < delta) events.push([hi, -1, g]);
+    }
+    // Entries first at equal angles: closed windows hold both at a shared vertex.
+    events.sort((p, q) => p[0] - q[0] || q[1] - p[1]);
+    let n = base;
+    for (const [ang, dir, g] of events) {
+      if (dir > 0) n++;
+      const count = n;
+      if (dir < 0) n--;
+      if (count < minCount) continue;
+      const th = theta0 + ang;
+      est.push([ax + r * Math.cos(th), ay + r * Math.sin(th), count, f, g]);
+    }
   }
-  return out;
+  for (const p of chosen) {
+    const [qx, qy] = p.centerUm;
+    const dq = Math.hypot(cx - qx, cy - qy);
+    if (Math.abs(dq - 2 * r) > 2 * halfDiag) continue;
+    if (dq > 0) {
+      est.push([qx + (cx - qx) * (2 * r / dq), qy + (cy - qy) * (2 * r / dq), Infinity, -2, -1]);
+    }
+    for (const f of A) {
+      for (const [px, py] of circleIntersections(qx, qy, 2 * r, st.xUm[f], st.yUm[f], r)) {
+        est.push([px, py, Infinity, -2, f]);
+      }
+    }
+  }
+  // Nudge each into place and count exactly.
+  for (const [px0, py0, , a, b] of est) {
+    let pt: [number, number] | null = null;
+    if (a === -2) {
+      // On an exclusion boundary: step away from the chosen centre.
+      pt = null;
+      for (const q of chosen) {
+        const dx = px0 - q.centerUm[0], dy = py0 - q.centerUm[1];
+        if (Math.abs(Math.hypot(dx, dy) - 2 * r) > 1e-6 * r) continue;
+        for (const grow of [1e-12, 1e-9, 1e-7]) {
+          const px = px0 + dx * grow, py = py0 + dy * grow;
+          if ((px - q.centerUm[0]) ** 2 + (py - q.centerUm[1]) ** 2 > 4 * r2) {
+            if (b < 0 || inside(px, py, b)) pt = [px, py];
+            break;
+          }
+        }
+        break;
+      }
+    } else if (a >= 0) {
+      const ax = st.xUm[a], ay = st.yUm[a];
+      // Towards the midpoint of the two figures (or towards f alone).
+      const mx = b >= 0 ? (ax + st.xUm[b]) / 2 : ax, my = b >= 0 ? (ay + st.yUm[b]) / 2 : ay;
+      for (const shrink of [0, 1e-12, 1e-9, 1e-7]) {
+        const px = px0 + (mx - px0) * shrink, py = py0 + (my - py0) * shrink;
+        if (inside(px, py, a) && (b < 0 || inside(px, py, b))) {
+          pt = [px, py];
+          break;
+        }
+      }
+    } else pt = [px0, py0];
+    if (!pt || !inCell(pt[0], pt[1])) continue;
+    const count = exactCount(pt[0], pt[1]);
+    if (count >= minCount) out.push({ cx: pt[0], cy: pt[1], count });
+  }
 }

@@ -119,6 +119,9 @@ export function findBestFieldSet(
       computeCountMap(prepared, window, {
         strideUm: options.strideUm,
         minCoverage: options.minCoverage,
+        // The map only prunes the search; every field's coverage is exact.
+        circleCellsPerStride: 2,
+        exactAdmissibility: false,
       });
     const st = createSearch(prepared, map, options.overlap);
     while (fields.length < n) {
