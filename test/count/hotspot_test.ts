@@ -99,7 +99,9 @@ Deno.test("findHotspot() for circles equals an exhaustive pair enumeration", () 
     // Candidates are well inside the square here, so coverage never binds.
     assert.equal(h.count, exhaustive(p, w, 0), `seed ${seed}`);
     let grid = 0;
-    for (let k = 0; k < map.counts.length; k++) if (map.admissible[k]) grid = Math.max(grid, map.counts[k]);
+    for (let k = 0; k < map.counts.length; k++) {
+      if (map.admissible[k]) grid = Math.max(grid, map.counts[k]);
+    }
     assert.ok(h.count >= grid);
   }
 });
@@ -125,7 +127,9 @@ Deno.test("findHotspot() is unchanged when figures are shuffled, and shifts with
   // Shift by a whole number of strides (exact in binary): same placement, shifted.
   const d = 20 * 37;
   const shift = (a: Float64Array) => a.map((v) => v + d);
-  const Ls: MultiPolygonPx = L.map((poly) => poly.map((ring) => ring.map(([a, b]) => [a + d, b + d])));
+  const Ls: MultiPolygonPx = L.map((poly) =>
+    poly.map((ring) => ring.map(([a, b]) => [a + d, b + d]))
+  );
   const p3 = prepared(shift(x), shift(y), Ls);
   const h3 = findHotspot(p3, computeCountMap(p3, w, { strideUm: 20 }))!;
   assert.equal(h3.count, h1.count);
@@ -136,7 +140,10 @@ Deno.test("findHotspot() is unchanged when figures are shuffled, and shifts with
 Deno.test("findHotspot() returns null when the valid region is smaller than the window", () => {
   const tiny: MultiPolygonPx = [[[[0, 0], [50, 0], [50, 50], [0, 50], [0, 0]]]];
   const p = prepared(new Float64Array([10]), new Float64Array([10]), tiny);
-  assert.equal(findHotspot(p, computeCountMap(p, makeWindow({ areaMm2: 0.01 }), { strideUm: 5 })), null);
+  assert.equal(
+    findHotspot(p, computeCountMap(p, makeWindow({ areaMm2: 0.01 }), { strideUm: 5 })),
+    null,
+  );
 });
 
 Deno.test("findTopHotspots() picks disjoint windows, each the best left", () => {

@@ -1,0 +1,196 @@
+import { strict as assert } from "node:assert";
+import { computeCountMap } from "../../lib/count/compute_count_map.ts";
+import { makeWindow } from "../../lib/count/make_window.ts";
+import { prepareCase } from "../../lib/count/prepare_case.ts";
+import { countInWindow } from "../../lib/count/window_contains.ts";
+import { percentileRank } from "../../lib/count/percentile_rank.ts";
+import { summarizeDistribution } from "../../lib/count/summarize_distribution.ts";
+import { checkFields } from "../../lib/count/check_fields.ts";
+import { buildCaseResult } from "../../lib/count/build_case_result.ts";
+import { diskOverlapArea, rectOverlapArea } from "../../lib/geometry/window_overlap.ts";
+import type { CaseData, MultiPolygonPx } from "../../lib/types.ts";
+import type { PreparedCase } from "../../lib/count/engine_types.ts";
+import { randomPoints } from "./_brute.ts";
+
+Deno.test("makeWindow() sizes a 2.37 mm² window: 1777.6 × 1333.2 µm at 4:3, 1737.1 µm circle", () => {
+  // Area: Meuten, Moore & George, Vet Pathol 2016;53(1):7-9 (10 fields of FN 22 at 40×).
+  // Sizes: hand calculation, W = √(2.37e6·4/3), H = √(2.37e6·3/4), d = 2√(2.37e6/π)
+  // (REFERENCES.md §1). Tolerance 0.05 µm: the table gives one decimal.
+  const r = makeWindow({});
+  if (r.shape !== "rect") throw new Error();
+  assert.ok(Math.abs(r.widthUm - 1777.6) < 0.05 && Math.abs(r.heightUm - 1333.2) < 0.05);
+  const c = makeWindow({ shape: "circle" });
+  if (c.shape !== "circle") throw new Error();
+  assert.ok(Math.abs(c.diameterUm - 1737.1) < 0.05);
+  // A 0.55 mm field (FN 22 / 40×; common practice: diameter = field number / objective)
+  // has area π·0.275² = 0.2376 mm² (REFERENCES.md §1, C). Tolerance 5e-5 mm² (4 d.p.).
+  assert.ok(Math.abs(Math.PI * 0.275 ** 2 - 0.2376) < 5e-5);
+  assert.throws(() => makeWindow({ areaMm2: 0 }), RangeError);
+  assert.throws(() => makeWindow({ aspect: [4, -3] }), RangeError);
+});
+
+const L: MultiPolygonPx = [[
+  [[0, 0], [900, 0], [900, 400], [450, 400], [450, 800], [0, 800], [0, 0]],
+  [[100, 100], [100, 200], [250, 200], [250, 100], [100, 100]],
+]];
+
+Deno.test("computeCountMap() rectangle coverage equals rectOverlapArea at every centre", () => {
+  const w = makeWindow({ areaMm2: 0.03, aspect: [5, 3] });
+  if (w.shape !== "rect") throw new Error();
+  const { x, y } = randomPoints(3, 200, [0, 0, 900, 800]);
+  const p = { validUm: L, xUm: x, yUm: y } as unknown as PreparedCase;
+  const map = computeCountMap(p, w, { strideUm: 17, minCoverage: 0.6 });
+  const { x0Um, y0Um, strideUm: s, nx, ny } = map.grid;
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const cx = x0Um + i * s, cy = y0Um + j * s;
+      const hw = w.widthUm / 2, hh = w.heightUm / 2;
+      const exact = rectOverlapArea(L, [cx - hw, cy - hh, cx + hw, cy + hh]) /
+        (w.widthUm * w.heightUm);
+      // Float32 storage: tolerance 1e-6.
+      assert.ok(Math.abs(map.coverage[j * nx + i] - exact) < 1e-6, `${i},${j}`);
+      assert.equal(map.counts[j * nx + i], countInWindow(x, y, w, cx, cy));
+    }
+  }
+});
+
+Deno.test("computeCountMap() circle coverage stays within its stated error bound", () => {
+  const w = makeWindow({ areaMm2: 0.05, shape: "circle" });
+  if (w.shape !== "circle") throw new Error();
+  const p = {
+    validUm: L,
+    xUm: new Float64Array(),
+    yUm: new Float64Array(),
+  } as unknown as PreparedCase;
+  const map = computeCountMap(p, w, { strideUm: 20, minCoverage: 0.9 });
+  const r = w.diameterUm / 2;
+  let worst = 0;
+  for (let k = 0; k < map.coverage.length; k += 7) {
+    const cx = map.grid.x0Um + (k % map.grid.nx) * 20,
+      cy = map.grid.y0Um + Math.floor(k / map.grid.nx) * 20;
+    const exact = diskOverlapArea(L, [cx, cy], r) / (Math.PI * r * r);
+    worst = Math.max(worst, Math.abs(map.coverage[k] - exact));
+    // Admissibility is exact near the limit.
+    assert.equal(map.admissible[k] === 1, exact >= 0.9 - 1e-9, `${cx},${cy}`);
+  }
+  assert.ok(worst <= map.coverageError! + 1e-6, `${worst} > ${map.coverageError}`);
+});
+
+Deno.test("computeCountMap() refuses a grid beyond the limit, naming its size", () => {
+  const p = {
+    validUm: L,
+    xUm: new Float64Array(),
+    yUm: new Float64Array(),
+  } as unknown as PreparedCase;
+  assert.throws(
+    () => computeCountMap(p, makeWindow({ areaMm2: 0.01 }), { strideUm: 1, maxGridCells: 1000 }),
+    (e: Error) =>
+      e instanceof RangeError && /would have \d+ cells \(about \d+ MB\)/.test(e.message),
+  );
+});
+
+function caseOf(mppX: number, mppY: number, figures: [number, number][]): CaseData {
+  const sq = [[[0, 0], [4000, 0], [4000, 4000], [0, 4000], [0, 0]]] as [number, number][][];
+  const n = figures.length;
+  return {
+    caseId: "QVT-24-002",
+    slide: { id: "QVT-24-002", mppX, mppY },
+    tissue: [{ polygons: [sq], source: "test" }],
+    tumour: [],
+    exclude: [],
+    figures: {
+      xPx: new Float64Array(figures.map((f) => f[0])),
+      yPx: new Float64Array(figures.map((f) => f[1])),
+      labelIndex: new Uint32Array(n),
+      labels: ["mitotic figure"],
+      score: new Float64Array(n).fill(NaN),
+      origin: new Int32Array(n),
+    },
+    fields: [],
+    sources: [],
+    warnings: [],
+  };
+}
+
+Deno.test("prepareCase() keeps circles round when mpp x ≠ mpp y", () => {
+  // 0.25 × 0.5 µm pixels: +400 px in x and +200 px in y are both 100 µm in the µm plane.
+  const p = prepareCase(caseOf(0.25, 0.5, [[2000, 2000], [2400, 2000], [2000, 2200]]), {});
+  assert.deepEqual([...p.xUm], [500, 600, 500]);
+  assert.deepEqual([...p.yUm], [1000, 1000, 1100]);
+  const w = { shape: "circle" as const, areaMm2: Math.PI * 0.01, diameterUm: 200 };
+  assert.equal(countInWindow(p.xUm, p.yUm, w, 500, 1000), 3); // both exactly on the rim
+  const map = computeCountMap(p, w, { strideUm: 10, minCoverage: 0.5 });
+  for (let k = 0; k < map.counts.length; k += 3) {
+    const cx = map.grid.x0Um + (k % map.grid.nx) * 10,
+      cy = map.grid.y0Um + Math.floor(k / map.grid.nx) * 10;
+    assert.equal(map.counts[k], countInWindow(p.xUm, p.yUm, w, cx, cy));
+  }
+});
+
+Deno.test("percentileRank() edge cases: all equal, above the maximum, no positions", () => {
+  assert.equal(percentileRank([0, 0, 5], 2), 50); // all positions equal c: half weight
+  assert.equal(percentileRank([3, 2], 9), 100);
+  assert.equal(percentileRank([3, 2], 0), 30); // 0 below, 3 equal → 1.5 / 5
+  assert.equal(percentileRank([], 1), null);
+  const d = summarizeDistribution({ counts: new Int32Array([4]), admissible: new Uint8Array([0]) });
+  assert.equal(d.positions, 0);
+  assert.equal(d.median, null);
+});
+
+Deno.test("checkFields() warns about a polygon field of another size and scales its count", () => {
+  const sq: MultiPolygonPx = [[[[0, 0], [4000, 0], [4000, 4000], [0, 4000], [0, 0]]]];
+  const poly = [[[0, 0], [2000, 0], [2000, 1000], [0, 1000], [0, 0]]] as [number, number][][];
+  const prepared = {
+    validUm: sq,
+    xUm: new Float64Array([500, 2000, 3000]),
+    yUm: new Float64Array([500, 1000, 3000]),
+    slide: { id: "QVT-24-003", mppX: 1, mppY: 1 },
+    fields: [{
+      reader: "trainee-2",
+      kind: "polygon",
+      centerPx: [1000, 500],
+      polygon: poly,
+      featureIndex: 3,
+    }],
+  } as unknown as PreparedCase;
+  const map = { counts: new Int32Array([0, 1, 2, 3]), admissible: new Uint8Array([1, 1, 1, 1]) };
+  const w = makeWindow({ areaMm2: 1, aspect: [1, 1] });
+  const [f] = checkFields(prepared, map as never, null, w);
+  assert.equal(f.count, 2); // (2000, 1000) lies on the polygon's corner: inside
+  assert.equal(f.coverage, 1);
+  assert.equal(f.areaMm2, 2);
+  assert.equal(f.countScaledToWindow, 1);
+  assert.equal(f.percentile, 62.5); // 2 below, 1 equal → 2.5 / 4
+  assert.match(f.warnings[0], /covers 2 mm², 100% more than the window's 1 mm²/);
+});
+
+Deno.test("buildCaseResult() explains why there is no hotspot", () => {
+  const r = buildCaseResult(caseOf(0.5, 0.5, [[100, 100]]), { bestN: 0 });
+  // valid area 2 × 2 mm = 4 mm²: a 5 mm² window cannot fit.
+  const r2 = buildCaseResult(caseOf(0.5, 0.5, [[100, 100]]), { areaMm2: 5, bestN: 0 });
+  assert.ok(r.report.hotspot !== null);
+  assert.equal(r2.report.hotspot, null);
+  assert.ok(
+    r2.report.warnings.some((w) =>
+      w.includes("valid area 4 mm² is smaller than 0.95 × the window's 5 mm²")
+    ),
+    r2.report.warnings.join("\n"),
+  );
+  assert.deepEqual(
+    Object.keys(r.report).slice(0, 12),
+    [
+      "schema",
+      "case",
+      "window",
+      "settings",
+      "valid_area_mm2",
+      "figures",
+      "hotspot",
+      "distribution",
+      "fields",
+      "classification",
+      "uncertainty",
+      "warnings",
+    ],
+  );
+});
