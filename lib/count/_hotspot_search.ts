@@ -476,10 +476,14 @@ function circleLeaf(
   const r = e.halfX, r2 = e.radius2;
   const tol = 1e-6 * r;
   const halfDiag = (hCell + tol) * Math.SQRT2;
+  // Figures surely inside (or outside) every window centred in this square
+  // need no sweep; only the uncertain ones (A, near the rim) make vertices.
   const A: number[] = [];
+  let sureIn = 0;
   for (const k of F) {
     const d = Math.hypot(st.xUm[k] - cx, st.yUm[k] - cy);
     if (Math.abs(d - r) <= halfDiag) A.push(k);
+    else if (d < r) sureIn++;
   }
   const fx = new Float64Array(F.map((k) => st.xUm[k]));
   const fy = new Float64Array(F.map((k) => st.yUm[k]));
@@ -510,10 +514,10 @@ function circleLeaf(
     const delta = cosDelta <= -1 ? Math.PI : cosDelta >= 1 ? 0 : Math.acos(cosDelta);
     // Single figure on the rim nearest the cell centre.
     est.push([ax + (cx - ax) * (r / dc), ay + (cy - ay) * (r / dc), Infinity, f, -1]);
-    let base = 0;
+    let base = sureIn;
     const events: [number, number, number][] = []; // [angle offset, +1/−1, figure]
-    for (let t = 0; t < F.length; t++) {
-      const g = F[t];
+    for (let t = 0; t < A.length; t++) {
+      const g = A[t];
       if (g === f) {
         base++;
         continue;
