@@ -27,7 +27,7 @@ Deno.test("listSchemes() holds the required schemes with sources and marks", () 
   for (const s of listSchemes()) {
     assert.ok(s.sources.length > 0, `${s.id} cites a source`);
     assert.ok(["V", "V2", "C", "M", "CP"].includes(s.mark), `${s.id} mark`);
-    assert.equal(s.tiers[0].from.hasOwnProperty("atLeast"), true, `${s.id} starts at 0`);
+    assert.equal(Object.hasOwn(s.tiers[0].from, "atLeast"), true, `${s.id} starts at 0`);
     assert.ok(s.primaryTier >= 1 && s.primaryTier < s.tiers.length, `${s.id} primary tier`);
   }
 });
