@@ -1,6 +1,6 @@
 // Tests of inspectCase() and formatInspectTable(). Areas are checked against
 // an independent planar reference, JSTS 2.12.1 (npm "jsts"; key JSTS in
-// test/reference/sources_annotations.md), and against hand calculation for
+// test/reference/README.md), and against hand calculation for
 // rectangles. Tolerance 0.5 %: the task's bound for areas; the shapes here
 // are exact polygons, so the real differences are at rounding level.
 

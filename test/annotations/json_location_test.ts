@@ -1,6 +1,6 @@
 // locateJsonProblem() against the built-in JSON.parse (V8, ECMA-404/RFC 8259
 // grammar) as the reference for what is valid; key RFC8259 in
-// test/reference/sources_annotations.md.
+// test/reference/README.md.
 
 import { strict as assert } from "node:assert";
 import fc from "fast-check";

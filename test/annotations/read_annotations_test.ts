@@ -1,6 +1,6 @@
 // Tests of parseAnnotations(). RFC 7946 rules are cited by section
 // (Butler et al., "The GeoJSON Format", RFC 7946, IETF 2016; key RFC7946 in
-// test/reference/sources_annotations.md).
+// test/reference/README.md).
 
 import { strict as assert } from "node:assert";
 import { parseAnnotations } from "../../lib/annotations/read_annotations.ts";

@@ -1,6 +1,6 @@
 // Tests of parseFiguresCsv(). CSV quoting follows RFC 4180 (Shafranovich,
 // "Common Format and MIME Type for Comma-Separated Values (CSV) Files",
-// RFC 4180, IETF 2005; key RFC4180 in test/reference/sources_annotations.md).
+// RFC 4180, IETF 2005; key RFC4180 in test/reference/README.md).
 
 import { strict as assert } from "node:assert";
 import { parseFiguresCsv } from "../../lib/annotations/read_figures_csv.ts";
