@@ -78,11 +78,21 @@ export function applyStandards(
   input: ApplyStandardsInput,
   options: ApplyStandardsOptions,
 ): {
-  classification: ReportClassification;
-  uncertainty: ReportUncertainty;
+  classification: ReportClassification | null;
+  uncertainty: ReportUncertainty | null;
   warnings: string[];
 } {
   const scheme = getScheme(options.schemeId);
+  if (input.report.hotspot === null) {
+    // No admissible window means no standard-area count to grade.
+    return {
+      classification: null,
+      uncertainty: null,
+      warnings: [
+        `Not classified against "${scheme.id}": no window placement is admissible, so there is no standard-area count`,
+      ],
+    };
+  }
   const simulations = options.simulations ?? 999;
   const seed = options.seed ?? 1;
   const { report, prepared, map, window } = input;

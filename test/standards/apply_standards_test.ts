@@ -45,25 +45,27 @@ function fixture(hotspot: number, counts: number[], q1: number) {
 Deno.test("applyStandards() fills classification and uncertainty", () => {
   const input = fixture(7, [7, 2, 1, 3], 1.75);
   const r = applyStandards(input, { schemeId: "canine-mct-2tier", simulations: 99, seed: 4 });
-  assert.equal(r.classification.scheme, "canine-mct-2tier");
-  assert.equal(r.classification.class, "field-dependent");
-  assert.equal(r.classification.tier, "high");
+  assert.equal(r.classification!.scheme, "canine-mct-2tier");
+  assert.equal(r.classification!.class, "field-dependent");
+  assert.equal(r.classification!.tier, "high");
   // Garwood 95% for 7 (REFERENCES.md §9, C): 2.8144–14.4227.
-  const [lo, hi] = r.uncertainty.count_ci95;
+  const [lo, hi] = r.uncertainty!.count_ci95;
   assert.ok(Math.abs(lo - 2.8144) < 1e-4 && Math.abs(hi - 14.4227) < 1e-4);
-  assert.ok(Math.abs(r.uncertainty.per_mm2_ci95[0] - 1.1875) < 1e-4);
-  assert.deepEqual(r.uncertainty.count_ci95, garwoodInterval(7));
-  assert.equal(r.uncertainty.simulations, 99);
-  assert.equal(r.uncertainty.seed, 4);
-  assert.ok(r.uncertainty.scan_p !== null && r.uncertainty.scan_p > 0 && r.uncertainty.scan_p <= 1);
-  assert.ok(r.uncertainty.p_other_side !== null && r.uncertainty.p_other_side > 0.3);
-  assert.equal(typeof r.uncertainty.method, "object");
+  assert.ok(Math.abs(r.uncertainty!.per_mm2_ci95[0] - 1.1875) < 1e-4);
+  assert.deepEqual(r.uncertainty!.count_ci95, garwoodInterval(7));
+  assert.equal(r.uncertainty!.simulations, 99);
+  assert.equal(r.uncertainty!.seed, 4);
+  assert.ok(
+    r.uncertainty!.scan_p !== null && r.uncertainty!.scan_p > 0 && r.uncertainty!.scan_p <= 1,
+  );
+  assert.ok(r.uncertainty!.p_other_side !== null && r.uncertainty!.p_other_side > 0.3);
+  assert.equal(typeof r.uncertainty!.method, "object");
 });
 
 Deno.test("applyStandards() with simulations 0 skips the scan test", () => {
   const r = applyStandards(fixture(3, [3, 1], 1.25), { schemeId: "gist", simulations: 0 });
-  assert.equal(r.uncertainty.scan_p, null);
-  assert.equal(r.uncertainty.simulations, 0);
+  assert.equal(r.uncertainty!.scan_p, null);
+  assert.equal(r.uncertainty!.simulations, 0);
   assert.ok(r.warnings.some((w) => w.includes("converted by area")));
 });
 
@@ -115,7 +117,19 @@ Deno.test("applyStandards() on the engine's count map: scan test of a planted fo
     { report, prepared: prepared as unknown as PreparedCase, map, window },
     { schemeId: "canine-mct-2tier", simulations: 99, seed: 1 },
   );
-  assert.equal(r.uncertainty.scan_p, 0.01);
-  assert.equal(r.classification.class, "above");
-  assert.equal(r.classification.tier, "high");
+  assert.equal(r.uncertainty!.scan_p, 0.01);
+  assert.equal(r.classification!.class, "above");
+  assert.equal(r.classification!.tier, "high");
+});
+
+Deno.test("applyStandards() leaves a case with no admissible window unclassified", () => {
+  const input = fixture(0, [0, 0], 0);
+  input.report.hotspot = null;
+  const r = applyStandards(input, { schemeId: "canine-mct-2tier", simulations: 99, seed: 4 });
+  assert.equal(r.classification, null);
+  assert.equal(r.uncertainty, null);
+  assert.match(
+    r.warnings.join("\n"),
+    /Not classified against "canine-mct-2tier": no window placement/,
+  );
 });
