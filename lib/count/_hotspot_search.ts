@@ -37,6 +37,14 @@ export interface SearchState {
   buckets: FigureBuckets;
   /** Statistics of the last search, for tests and benchmarks. */
   stats: { blocks: number; candidates: number; coverageQueries: number };
+  /**
+   * Exact coverages already computed, one per memo square of side
+   * `memoUm` (the lowest kept): coverage moves by at most |dx|/W + |dy|/H
+   * (rect) or 2·|d|/(π·r) (circle) when the centre moves, so a candidate
+   * near a low one is inadmissible without a query.
+   */
+  memo: Map<number, [number, number, number]>;
+  memoUm: number;
 }
 
 /** Prepares a search over `map`'s window. */
@@ -80,7 +88,39 @@ export function createSearch(
       Math.max(s, Math.min(e.halfX, e.halfY) / 2),
     ),
     stats: { blocks: 0, candidates: 0, coverageQueries: 0 },
+    memo: new Map(),
+    memoUm: s / 4,
   };
+}
+
+function memoKey(st: SearchState, cx: number, cy: number): number {
+  const g = st.memoUm, { x0Um, y0Um } = st.map.grid;
+  // 2^26 columns: keys stay exact integers for any slide the grid can hold.
+  return Math.floor((cy - y0Um) / g) * 67108864 + Math.floor((cx - x0Um) / g);
+}
+
+/** Most the coverage can grow when the centre moves by (dx, dy). */
+function coverageGrowth(st: SearchState, dx: number, dy: number): number {
+  const { e } = st;
+  return st.isRect
+    ? Math.abs(dx) / (2 * e.halfX) + Math.abs(dy) / (2 * e.halfY)
+    : (2 * Math.hypot(dx, dy)) / (Math.PI * e.halfX);
+}
+
+/**
+ * True when the window at (cx, cy) is surely below `minCov`, from exact
+ * coverages memoised nearby; the margin covers rounding in both areas.
+ */
+function surelyBelow(st: SearchState, cx: number, cy: number, minCov: number): boolean {
+  const g = st.memoUm, { x0Um, y0Um } = st.map.grid;
+  const ix = Math.floor((cx - x0Um) / g), iy = Math.floor((cy - y0Um) / g);
+  for (let j = iy - 1; j <= iy + 1; j++) {
+    for (let i = ix - 1; i <= ix + 1; i++) {
+      const m = st.memo.get(j * 67108864 + i);
+      if (m && m[2] + coverageGrowth(st, cx - m[0], cy - m[1]) + 1e-7 < minCov) return true;
+    }
+  }
+  return false;
 }
 
 /** Exact coverage of the window centred at (cx, cy). */
@@ -91,7 +131,10 @@ export function exactCoverage(st: SearchState, cx: number, cy: number): number {
     ? st.overlap.rect([cx - e.halfX, cy - e.halfY, cx + e.halfX, cy + e.halfY])
     : st.overlap.disk([cx, cy], e.halfX);
   const v = a / e.areaUm2;
-  return v < 0 ? 0 : v > 1 ? 1 : v;
+  const cov = v < 0 ? 0 : v > 1 ? 1 : v;
+  const key = memoKey(st, cx, cy), m = st.memo.get(key);
+  if (!m || cov < m[2]) st.memo.set(key, [cx, cy, cov]);
+  return cov;
 }
 
 /**
@@ -187,11 +230,16 @@ export function searchBest(st: SearchState, chosen: Placement[] = []): Placement
     blocks.push(k);
   }
   blocks.sort((a, b) => st.bound[b] - st.bound[a] || a - b);
+  const reachUm = s / 2 + 4e-6 * Math.max(st.e.halfX, st.e.halfY);
   for (const k of blocks) {
     if (best && st.bound[k] <= best.count) break;
     st.stats.blocks++;
     const cx = x0Um + (k % nx) * s, cy = y0Um + Math.floor(k / nx) * s;
-    const covBound = map.coverage[k] + st.coverageSlack;
+    // One exact query bounds every centre of the cell (candidates may sit a
+    // circle tolerance outside it) more tightly than the map's slack.
+    const covCell = exactCoverage(st, cx, cy) + coverageGrowth(st, reachUm, reachUm) + 1e-7;
+    if (covCell < minCov) continue;
+    const covBound = Math.min(map.coverage[k] + st.coverageSlack, covCell);
     // Equal counts can only win on coverage: ask for more when this cell cannot beat it.
     const need = best ? (covBound <= best.coverage + 1e-9 ? best.count + 1 : best.count) : 0;
     const cands = st.isRect
@@ -206,6 +254,7 @@ export function searchBest(st: SearchState, chosen: Placement[] = []): Placement
         if (c.count === best.count && covBound <= best.coverage + 1e-9) break;
       }
       if (!isSeparate(st, c.cx, c.cy, chosen)) continue;
+      if (surelyBelow(st, c.cx, c.cy, minCov)) continue;
       const cov = exactCoverage(st, c.cx, c.cy);
       if (cov < minCov) continue;
       const p = placement(st, c.cx, c.cy, c.count, cov);
