@@ -71,7 +71,7 @@ export interface ApplyStandardsOptions {
  *   distribution: { positions: 2, min: 1, q1: 2.75, median: 4.5, q3: 6.25, max: 8, mean: 4.5 },
  * } as unknown as ReportJson;
  * const r = applyStandards({ report, prepared, map, window }, { schemeId: "canine-mct-2tier", simulations: 99 });
- * if (r.classification.tier !== "high" || r.uncertainty.simulations !== 99) throw new Error();
+ * if (r.classification?.tier !== "high" || r.uncertainty?.simulations !== 99) throw new Error();
  * ```
  */
 export function applyStandards(
