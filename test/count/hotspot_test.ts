@@ -5,7 +5,9 @@ import { findTopHotspots } from "../../lib/count/find_top_hotspots.ts";
 import { findBestFieldSet } from "../../lib/count/find_best_field_set.ts";
 import { makeWindow } from "../../lib/count/make_window.ts";
 import { countInWindow } from "../../lib/count/window_contains.ts";
-import { rectOverlapArea } from "../../lib/geometry/window_overlap.ts";
+import { diskOverlapArea, rectOverlapArea } from "../../lib/geometry/window_overlap.ts";
+import { createSearch, searchBest } from "../../lib/count/_hotspot_search.ts";
+import type { Placement } from "../../lib/count/engine_types.ts";
 import type { MultiPolygonPx } from "../../lib/types.ts";
 import type { PreparedCase, WindowShape } from "../../lib/count/engine_types.ts";
 import { randomPoints } from "./_brute.ts";
@@ -62,7 +64,30 @@ function coverageOf(region: MultiPolygonPx, w: WindowShape, cx: number, cy: numb
     const hw = w.widthUm / 2, hh = w.heightUm / 2;
     return rectOverlapArea(region, [cx - hw, cy - hh, cx + hw, cy + hh]) / (w.widthUm * w.heightUm);
   }
-  throw new Error("rect only");
+  const r = w.diameterUm / 2;
+  return diskOverlapArea(region, [cx, cy], r) / (Math.PI * r * r);
+}
+
+/** Best admissible count on a square grid of centres `stepUm` apart, separate from `chosen`. */
+function gridBest(
+  p: PreparedCase,
+  w: WindowShape,
+  minCoverage: number,
+  stepUm: number,
+  box: [number, number, number, number],
+  chosen: Placement[] = [],
+): number {
+  if (w.shape !== "circle") throw new Error("circle only");
+  const r = w.diameterUm / 2;
+  let best = -1;
+  for (let cy = box[1]; cy <= box[3]; cy += stepUm) {
+    for (let cx = box[0]; cx <= box[2]; cx += stepUm) {
+      if (chosen.some((q) => Math.hypot(cx - q.centerUm[0], cy - q.centerUm[1]) <= 2 * r)) continue;
+      const n = countInWindow(p.xUm, p.yUm, w, cx, cy);
+      if (n > best && coverageOf(p.validUm, w, cx, cy) >= minCoverage) best = n;
+    }
+  }
+  return best;
 }
 
 Deno.test("findHotspot() equals an exhaustive candidate enumeration and beats a 1 µm grid (rect)", () => {
@@ -104,6 +129,63 @@ Deno.test("findHotspot() for circles equals an exhaustive pair enumeration", () 
     }
     assert.ok(h.count >= grid);
   }
+});
+
+Deno.test("findHotspot() for circles where coverage binds: exact count, admissible, ≥ pairs and a 2 µm grid", () => {
+  const w = makeWindow({ areaMm2: 0.012, shape: "circle" }); // r ≈ 61.8 µm
+  for (const seed of [31, 32, 33]) {
+    const { x, y } = randomPoints(seed, 90, [0, 0, 600, 500]);
+    const p = prepared(x, y);
+    const map = computeCountMap(p, w, { strideUm: 20, minCoverage: 0.9 });
+    const h = findHotspot(p, map)!;
+    assert.equal(h.count, countInWindow(x, y, w, h.centerUm[0], h.centerUm[1]));
+    // Exact coverage of the reported window, independently of the search's index.
+    assert.ok(Math.abs(coverageOf(L, w, h.centerUm[0], h.centerUm[1]) - h.coverage) < 1e-9);
+    assert.ok(h.coverage >= 0.9 - 1e-9);
+    assert.ok(h.count >= exhaustive(p, w, 0.9), `seed ${seed}`);
+    assert.ok(h.count >= gridBest(p, w, 0.9, 2, [0, 0, 600, 500]), `seed ${seed}`);
+  }
+});
+
+Deno.test("circle top-k resumes its search: each pick equals a fresh search given the earlier picks", () => {
+  const w = makeWindow({ areaMm2: 0.006, shape: "circle" }); // r ≈ 43.7 µm
+  for (const seed of [41, 42]) {
+    const { x, y } = randomPoints(seed, 160, [0, 0, 600, 500], 4);
+    const p = prepared(x, y);
+    const map = computeCountMap(p, w, { strideUm: 15, minCoverage: 0.9 });
+    const picks = findTopHotspots(p, map, 6);
+    assert.ok(picks.length >= 4);
+    if (w.shape !== "circle") throw new Error();
+    for (let i = 0; i < picks.length; i++) {
+      const earlier = picks.slice(0, i);
+      const fresh = searchBest(createSearch(p, map), earlier)!;
+      assert.equal(picks[i].count, fresh.count, `seed ${seed}, pick ${i + 1}`);
+      assert.equal(
+        picks[i].count,
+        countInWindow(x, y, w, picks[i].centerUm[0], picks[i].centerUm[1]),
+      );
+      for (const q of earlier) {
+        const d = Math.hypot(
+          picks[i].centerUm[0] - q.centerUm[0],
+          picks[i].centerUm[1] - q.centerUm[1],
+        );
+        assert.ok(d > w.diameterUm, "closed circles are disjoint");
+      }
+      // Never below a 4 µm grid of separate admissible centres.
+      assert.ok(picks[i].count >= gridBest(p, w, 0.9, 4, [0, 0, 600, 500], earlier));
+    }
+  }
+});
+
+Deno.test("a circle search asked twice with the same chosen windows answers the same", () => {
+  const w = makeWindow({ areaMm2: 0.006, shape: "circle" });
+  const { x, y } = randomPoints(43, 120, [0, 0, 600, 500]);
+  const p = prepared(x, y);
+  const st = createSearch(p, computeCountMap(p, w, { strideUm: 15, minCoverage: 0.9 }));
+  const a = searchBest(st, []), b = searchBest(st, []);
+  assert.deepEqual(b, a);
+  const c = searchBest(st, [a!]), d = searchBest(st, [a!]);
+  assert.deepEqual(d, c);
 });
 
 Deno.test("findHotspot() counts a figure exactly on the window edge", () => {

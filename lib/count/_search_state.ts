@@ -1,0 +1,215 @@
+/**
+ * State and helpers shared by the rectangle and circle searches for the best
+ * admissible window placement.
+ *
+ * @module
+ */
+
+import type { CountMap, Placement, PreparedCase, WindowShape } from "./engine_types.ts";
+import { stampWindowCounts } from "./stamp_window_counts.ts";
+import { type WindowExtents, windowExtents } from "./window_contains.ts";
+import { bucketFigures, type FigureBuckets } from "./_figure_buckets.ts";
+import { createOverlapIndex } from "./_geometry.ts";
+import type { CircleSearchMemo } from "./_circle_search.ts";
+
+/** Coverage within this of the minimum counts as admissible (floating-point slack). */
+export const ADMIT_EPS = 1e-9;
+
+/** Exact area queries on V (µm plane). */
+export interface AreaIndex {
+  rect(bbox: [number, number, number, number]): number;
+  disk(center: [number, number], radius: number): number;
+}
+
+/** Everything the search reuses across picks. */
+export interface SearchState {
+  xUm: Float64Array;
+  yUm: Float64Array;
+  mpp: { mppX: number; mppY: number };
+  map: CountMap;
+  window: WindowShape;
+  e: WindowExtents;
+  isRect: boolean;
+  /** Upper bound of the count of any window centred in the stride cell of each grid centre. */
+  bound: Int32Array;
+  /** Added to a grid centre's coverage to bound the coverage of any window in its stride cell. */
+  coverageSlack: number;
+  overlap: AreaIndex;
+  buckets: FigureBuckets;
+  /** Statistics of the last search, for tests and benchmarks. */
+  stats: { blocks: number; candidates: number; coverageQueries: number };
+  /**
+   * Exact coverages already computed, one per memo square of side
+   * `memoUm` (the lowest kept): coverage moves by at most |dx|/W + |dy|/H
+   * (rect) or 2·|d|/(π·r) (circle) when the centre moves, so a candidate
+   * near a low one is inadmissible without a query.
+   */
+  memo: Map<number, [number, number, number]>;
+  memoUm: number;
+  /** The circle search's open squares and candidates, kept between picks. */
+  circle: CircleSearchMemo | null;
+}
+
+/** Prepares a search over `map`'s window. */
+export function createSearch(
+  prepared: Pick<PreparedCase, "xUm" | "yUm" | "slide" | "validUm">,
+  map: CountMap,
+  overlap?: AreaIndex,
+): SearchState {
+  const window = map.window;
+  const e = windowExtents(window);
+  const isRect = window.shape === "rect";
+  const s = map.grid.strideUm;
+  // Any centre in the closed stride cell [c ± s/2]² has its window inside the
+  // window enlarged by one stride (rect) or by s·√2/2 in radius (circle).
+  const grow = s * (1 + 1e-9);
+  let enlarged: WindowShape;
+  let slack: number;
+  if (window.shape === "rect") {
+    enlarged = { ...window, widthUm: window.widthUm + grow, heightUm: window.heightUm + grow };
+    slack = ((window.widthUm + grow) * (window.heightUm + grow)) / e.areaUm2 - 1;
+  } else {
+    const r = e.halfX, rg = r + grow * Math.SQRT1_2;
+    enlarged = { ...window, diameterUm: 2 * rg };
+    slack = (rg * rg) / (r * r) - 1;
+  }
+  const bound = stampWindowCounts(prepared.xUm, prepared.yUm, enlarged, map.grid);
+  return {
+    xUm: prepared.xUm,
+    yUm: prepared.yUm,
+    mpp: { mppX: prepared.slide.mppX, mppY: prepared.slide.mppY },
+    map,
+    window,
+    e,
+    isRect,
+    bound,
+    coverageSlack: slack + (map.coverageError ?? 0) + 1e-6,
+    overlap: overlap ?? (createOverlapIndex(prepared.validUm) as AreaIndex),
+    buckets: bucketFigures(
+      prepared.xUm,
+      prepared.yUm,
+      Math.max(s, Math.min(e.halfX, e.halfY) / 2),
+    ),
+    stats: { blocks: 0, candidates: 0, coverageQueries: 0 },
+    memo: new Map(),
+    memoUm: s / 4,
+    circle: null,
+  };
+}
+
+function memoKey(st: SearchState, cx: number, cy: number): number {
+  const g = st.memoUm, { x0Um, y0Um } = st.map.grid;
+  // 2^26 columns: keys stay exact integers for any slide the grid can hold.
+  return Math.floor((cy - y0Um) / g) * 67108864 + Math.floor((cx - x0Um) / g);
+}
+
+/** Most the coverage can grow when the centre moves by (dx, dy). */
+export function coverageGrowth(st: SearchState, dx: number, dy: number): number {
+  const { e } = st;
+  return st.isRect
+    ? Math.abs(dx) / (2 * e.halfX) + Math.abs(dy) / (2 * e.halfY)
+    : (2 * Math.hypot(dx, dy)) / (Math.PI * e.halfX);
+}
+
+/**
+ * True when the window at (cx, cy), and at every centre within `extraUm` of
+ * it along each axis, is surely below `minCov`, from exact coverages
+ * memoised nearby; the margin covers rounding in both areas.
+ */
+export function surelyBelow(
+  st: SearchState,
+  cx: number,
+  cy: number,
+  minCov: number,
+  extraUm = 0,
+): boolean {
+  const g = st.memoUm, { x0Um, y0Um } = st.map.grid;
+  const ix = Math.floor((cx - x0Um) / g), iy = Math.floor((cy - y0Um) / g);
+  for (let j = iy - 1; j <= iy + 1; j++) {
+    for (let i = ix - 1; i <= ix + 1; i++) {
+      const m = st.memo.get(j * 67108864 + i);
+      if (!m) continue;
+      const dx = Math.abs(cx - m[0]) + extraUm, dy = Math.abs(cy - m[1]) + extraUm;
+      if (m[2] + coverageGrowth(st, dx, dy) + 1e-7 < minCov) return true;
+    }
+  }
+  return false;
+}
+
+/** Exact coverage of the window centred at (cx, cy). */
+export function exactCoverage(st: SearchState, cx: number, cy: number): number {
+  st.stats.coverageQueries++;
+  const { e } = st;
+  const a = st.isRect
+    ? st.overlap.rect([cx - e.halfX, cy - e.halfY, cx + e.halfX, cy + e.halfY])
+    : st.overlap.disk([cx, cy], e.halfX);
+  const v = a / e.areaUm2;
+  const cov = v < 0 ? 0 : v > 1 ? 1 : v;
+  const key = memoKey(st, cx, cy), m = st.memo.get(key);
+  if (!m || cov < m[2]) st.memo.set(key, [cx, cy, cov]);
+  return cov;
+}
+
+/**
+ * Whether the closed window at (cx, cy) is disjoint from every `chosen`
+ * closed window (so no figure is counted in two of them): rect |dx| > W or
+ * |dy| > H, circle dx² + dy² > (2r)².
+ */
+export function isSeparate(st: SearchState, cx: number, cy: number, chosen: Placement[]): boolean {
+  const { e } = st;
+  for (const p of chosen) {
+    const dx = cx - p.centerUm[0], dy = cy - p.centerUm[1];
+    if (st.isRect) {
+      if (Math.abs(dx) <= 2 * e.halfX && Math.abs(dy) <= 2 * e.halfY) return false;
+    } else if (dx * dx + dy * dy <= 4 * e.radius2) return false;
+  }
+  return true;
+}
+
+/** Builds a placement record. */
+export function placement(
+  st: SearchState,
+  cx: number,
+  cy: number,
+  count: number,
+  coverage: number,
+): Placement {
+  return {
+    centerUm: [cx, cy],
+    centerPx: [cx / st.mpp.mppX, cy / st.mpp.mppY],
+    count,
+    coverage,
+    perMm2: count / st.window.areaMm2,
+  };
+}
+
+/** True when a is better than b: higher count, higher coverage (1e-9), smaller y, smaller x. */
+export function isBetter(a: Placement, b: Placement | null): boolean {
+  if (b === null) return true;
+  if (a.count !== b.count) return a.count > b.count;
+  const ca = Math.round(a.coverage * 1e9), cb = Math.round(b.coverage * 1e9);
+  if (ca !== cb) return ca > cb;
+  if (a.centerUm[1] !== b.centerUm[1]) return a.centerUm[1] < b.centerUm[1];
+  return a.centerUm[0] < b.centerUm[0];
+}
+
+/** A placement with its exact count. */
+export interface Candidate {
+  cx: number;
+  cy: number;
+  count: number;
+}
+
+/** Whether every centre of the stride cell of grid centre k overlaps a chosen window. */
+export function blockForbidden(st: SearchState, k: number, chosen: Placement[]): boolean {
+  const { nx, x0Um, y0Um, strideUm: s } = st.map.grid;
+  const cx = x0Um + (k % nx) * s, cy = y0Um + Math.floor(k / nx) * s;
+  const { e } = st;
+  for (const p of chosen) {
+    const dx = Math.abs(cx - p.centerUm[0]), dy = Math.abs(cy - p.centerUm[1]);
+    if (st.isRect) {
+      if (dx + s / 2 < 2 * e.halfX && dy + s / 2 < 2 * e.halfY) return true;
+    } else if (Math.hypot(dx, dy) + s * Math.SQRT1_2 < 2 * e.halfX) return true;
+  }
+  return false;
+}
