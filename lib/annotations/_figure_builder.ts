@@ -11,43 +11,69 @@ export const DEFAULT_FIGURE_LABEL = "mitotic figure";
 
 /** Appends points one at a time, then freezes them into typed arrays. */
 export class FigureSetBuilder {
-  #x: number[] = [];
-  #y: number[] = [];
-  #label: number[] = [];
-  #score: number[] = [];
-  #origin: number[] = [];
+  #n = 0;
+  #x = new Float64Array(1024);
+  #y = new Float64Array(1024);
+  #label = new Uint32Array(1024);
+  #score = new Float64Array(1024);
+  #origin = new Int32Array(1024);
   #labels: string[] = [];
   #labelIndex = new Map<string, number>();
+  #lastLabel = "";
+  #lastIndex = -1;
 
   /** Number of points so far. */
   get length(): number {
-    return this.#x.length;
+    return this.#n;
   }
 
   /** Adds one point; `score` is NaN when the input gave none. */
   add(xPx: number, yPx: number, label: string, score: number, origin: number): void {
-    let li = this.#labelIndex.get(label);
-    if (li === undefined) {
+    let li = label === this.#lastLabel ? this.#lastIndex : this.#labelIndex.get(label);
+    if (li === undefined || li < 0) {
       li = this.#labels.length;
       this.#labels.push(label);
       this.#labelIndex.set(label, li);
     }
-    this.#x.push(xPx);
-    this.#y.push(yPx);
-    this.#label.push(li);
-    this.#score.push(score);
-    this.#origin.push(origin);
+    this.#lastLabel = label;
+    this.#lastIndex = li;
+    const k = this.#n;
+    if (k === this.#x.length) this.#grow();
+    this.#x[k] = xPx;
+    this.#y[k] = yPx;
+    this.#label[k] = li;
+    this.#score[k] = score;
+    this.#origin[k] = origin;
+    this.#n = k + 1;
+  }
+
+  #grow(): void {
+    const m = this.#x.length * 2;
+    const grow = <T extends Float64Array | Uint32Array | Int32Array>(
+      a: T,
+      make: (n: number) => T,
+    ) => {
+      const b = make(m);
+      b.set(a);
+      return b;
+    };
+    this.#x = grow(this.#x, (n) => new Float64Array(n));
+    this.#y = grow(this.#y, (n) => new Float64Array(n));
+    this.#label = grow(this.#label, (n) => new Uint32Array(n));
+    this.#score = grow(this.#score, (n) => new Float64Array(n));
+    this.#origin = grow(this.#origin, (n) => new Int32Array(n));
   }
 
   /** The points as a FigureSet. */
   build(): FigureSet {
+    const n = this.#n;
     return {
-      xPx: Float64Array.from(this.#x),
-      yPx: Float64Array.from(this.#y),
-      labelIndex: Uint32Array.from(this.#label),
+      xPx: this.#x.slice(0, n),
+      yPx: this.#y.slice(0, n),
+      labelIndex: this.#label.slice(0, n),
       labels: [...this.#labels],
-      score: Float64Array.from(this.#score),
-      origin: Int32Array.from(this.#origin),
+      score: this.#score.slice(0, n),
+      origin: this.#origin.slice(0, n),
     };
   }
 }

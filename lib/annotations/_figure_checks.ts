@@ -40,15 +40,7 @@ export function figurePositionWarnings(
     if (os.length < SHOW) os.push(o);
     else more.add(os);
   };
-  // exact duplicates: sort point indices by (x, y) and compare neighbours
-  const order = Uint32Array.from({ length: n }, (_, i) => i).sort((a, b) =>
-    figures.xPx[a] - figures.xPx[b] || figures.yPx[a] - figures.yPx[b] || a - b
-  );
-  const isDup = new Uint8Array(n);
-  for (let k = 1; k < n; k++) {
-    const a = order[k - 1], b = order[k];
-    if (figures.xPx[a] === figures.xPx[b] && figures.yPx[a] === figures.yPx[b]) isDup[b] = 1;
-  }
+  const isDup = markDuplicates(figures.xPx, figures.yPx);
   for (let i = 0; i < n; i++) {
     if (isDup[i]) {
       dupCount++;
@@ -90,4 +82,40 @@ export function figurePositionWarnings(
     );
   }
   return warnings;
+}
+
+/**
+ * Marks every point equal (x and y, with 0 = −0) to an earlier one, in O(n)
+ * with an open-addressing hash table over the coordinates' bits.
+ */
+function markDuplicates(x: Float64Array, y: Float64Array): Uint8Array {
+  const n = x.length;
+  const isDup = new Uint8Array(n);
+  let size = 16;
+  while (size < 2 * n) size *= 2;
+  const mask = size - 1;
+  const table = new Int32Array(size).fill(-1);
+  const f = new Float64Array(2);
+  const u = new Uint32Array(f.buffer);
+  for (let i = 0; i < n; i++) {
+    f[0] = x[i] + 0; // −0 + 0 is +0, so both zeros hash alike
+    f[1] = y[i] + 0;
+    let h = Math.imul(u[0] ^ Math.imul(u[1], 0x9e3779b1), 0x85ebca6b) ^
+      Math.imul(u[2] ^ Math.imul(u[3], 0xc2b2ae35), 0x27d4eb2f);
+    h ^= h >>> 15;
+    let slot = h & mask;
+    for (;;) {
+      const j = table[slot];
+      if (j < 0) {
+        table[slot] = i;
+        break;
+      }
+      if (x[j] === x[i] && y[j] === y[i]) {
+        isDup[i] = 1;
+        break;
+      }
+      slot = (slot + 1) & mask;
+    }
+  }
+  return isDup;
 }

@@ -227,23 +227,25 @@ export function parseAnnotations(
     }
     const g = geom as Record<string, unknown>;
     const type = g.type;
-    const allowed: Record<AnnotationRole, string[]> = {
-      tissue: ["Polygon", "MultiPolygon"],
-      tumour: ["Polygon", "MultiPolygon"],
-      exclude: ["Polygon", "MultiPolygon"],
-      figure: ["Point", "MultiPoint"],
-      field: ["Polygon", "Point"],
-    };
-    if (typeof type !== "string" || !allowed[role].includes(type)) {
+    if (typeof type !== "string" || !ALLOWED_GEOMETRIES[role].includes(type)) {
       throw fail(
         TypeError,
         `${at} has role "${role}" but geometry ${describe(type)}; role "${role}" takes ${
-          allowed[role].join(" or ")
+          ALLOWED_GEOMETRIES[role].join(" or ")
         }`,
       );
     }
-    const reader = new GeometryReader(at, fail);
     const c = g.coordinates;
+    // Fast path for the common case, a figure Point of two finite numbers;
+    // anything else goes through the reader, which names the problem.
+    if (role === "figure" && type === "Point" && Array.isArray(c) && c.length >= 2) {
+      const x = c[0], y = c[1];
+      if (typeof x === "number" && typeof y === "number" && Number.isFinite(x + y)) {
+        figures.add(x, y, figureLabel(p.label, at, fail), figureScore(p.score, at, fail), i);
+        continue;
+      }
+    }
+    const reader = new GeometryReader(at, fail);
     switch (role) {
       case "tissue":
       case "tumour":
@@ -351,7 +353,17 @@ function isBeyond([x, y]: Vec2, slide: SlideInfo): boolean {
     (slide.heightPx !== undefined && y > slide.heightPx);
 }
 
+/** Geometry types each role takes. */
+const ALLOWED_GEOMETRIES: Record<AnnotationRole, readonly string[]> = {
+  tissue: ["Polygon", "MultiPolygon"],
+  tumour: ["Polygon", "MultiPolygon"],
+  exclude: ["Polygon", "MultiPolygon"],
+  figure: ["Point", "MultiPoint"],
+  field: ["Polygon", "Point"],
+};
+
 function checkRole(raw: unknown, at: string, fail: Fail): AnnotationRole {
+  if (raw === "figure") return "figure";
   const known = ANNOTATION_ROLES.join(", ");
   if (raw === undefined || raw === null) {
     throw fail(TypeError, `${at} has no "role" in its properties; known roles: ${known}`);
@@ -373,7 +385,9 @@ function checkRole(raw: unknown, at: string, fail: Fail): AnnotationRole {
 }
 
 function figureLabel(raw: unknown, at: string, fail: Fail): string {
-  if (raw === undefined || raw === null) return DEFAULT_FIGURE_LABEL;
+  if (raw === undefined || raw === null || raw === DEFAULT_FIGURE_LABEL) {
+    return DEFAULT_FIGURE_LABEL;
+  }
   if (typeof raw !== "string") {
     throw fail(
       TypeError,
