@@ -91,15 +91,49 @@ export function stampWindowCounts(
       const dy = y - (y0 + j * s);
       const dy2 = dy * dy;
       const half = Math.sqrt(Math.max(0, r2 - dy2));
-      const [i0, i1] = exactRange(
-        Math.ceil((x - half - x0) / s),
-        Math.floor((x + half - x0) / s),
-        nx,
-        (i) => {
-          const dx = x - (x0 + i * s);
-          return dx * dx + dy * dy <= r2;
-        },
-      );
+      // Same as exactRange with the windowContains test, inlined: this loop
+      // runs points × rows times.
+      let i0 = Math.max(0, Math.min(nx - 1, Math.ceil((x - half - x0) / s)));
+      let i1 = Math.max(0, Math.min(nx - 1, Math.floor((x + half - x0) / s)));
+      let dx = 0;
+      if (i0 > i1) {
+        const mid = i0;
+        dx = x - (x0 + mid * s);
+        if (dx * dx + dy2 <= r2) i0 = i1 = mid;
+        else {
+          dx = x - (x0 + (mid - 1) * s);
+          if (mid - 1 >= 0 && dx * dx + dy2 <= r2) i0 = i1 = mid - 1;
+          else {
+            dx = x - (x0 + (mid + 1) * s);
+            if (mid + 1 < nx && dx * dx + dy2 <= r2) i0 = i1 = mid + 1;
+            else continue;
+          }
+        }
+      }
+      for (;;) {
+        if (i0 <= 0) break;
+        dx = x - (x0 + (i0 - 1) * s);
+        if (!(dx * dx + dy2 <= r2)) break;
+        i0--;
+      }
+      for (;;) {
+        if (i0 > i1) break;
+        dx = x - (x0 + i0 * s);
+        if (dx * dx + dy2 <= r2) break;
+        i0++;
+      }
+      for (;;) {
+        if (i1 >= nx - 1) break;
+        dx = x - (x0 + (i1 + 1) * s);
+        if (!(dx * dx + dy2 <= r2)) break;
+        i1++;
+      }
+      for (;;) {
+        if (i1 < i0) break;
+        dx = x - (x0 + i1 * s);
+        if (dx * dx + dy2 <= r2) break;
+        i1--;
+      }
       if (i0 > i1) continue;
       diff[j * w1 + i0]++;
       diff[j * w1 + i1 + 1]--;
