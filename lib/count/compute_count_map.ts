@@ -34,6 +34,11 @@ export interface ComputeCountMapOptions {
    * within the error bound of the minimum. @default true
    */
   exactAdmissibility?: boolean;
+  /**
+   * False skips counting and leaves every count at 0, for searches that need
+   * only the grid and the coverage (they bound counts themselves). @default true
+   */
+  counts?: boolean;
 }
 
 /** Default stride, µm. */
@@ -132,7 +137,9 @@ export function computeCountMap(
     );
   }
   const grid = makeStrideGrid(plan.bboxUm, { strideUm, marginUm: plan.marginUm });
-  const counts = stampWindowCounts(prepared.xUm, prepared.yUm, window, grid);
+  const counts = options.counts === false
+    ? new Int32Array(grid.nx * grid.ny)
+    : stampWindowCounts(prepared.xUm, prepared.yUm, window, grid);
   const e = windowExtents(window);
   let cover64: Float64Array;
   let discretization: string;

@@ -119,9 +119,11 @@ export function findBestFieldSet(
       computeCountMap(prepared, window, {
         strideUm: options.strideUm,
         minCoverage: options.minCoverage,
-        // The map only prunes the search; every field's coverage is exact.
-        circleCellsPerStride: 2,
+        // The map only prunes the search (which bounds counts itself); every
+        // field's coverage is exact.
+        circleCellsPerStride: 1,
         exactAdmissibility: false,
+        counts: window.shape === "rect", // the rectangle search starts from grid counts
       });
     const st = createSearch(prepared, map, options.overlap);
     while (fields.length < n) {
