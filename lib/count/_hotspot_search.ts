@@ -90,7 +90,7 @@ export function searchBest(st: SearchState, chosen: Placement[] = []): Placement
     const covBound = Math.min(map.coverage[k] + st.coverageSlack, covCell);
     // Equal counts can only win on coverage: ask for more when this cell cannot beat it.
     const need = best ? (covBound <= best.coverage + 1e-9 ? best.count + 1 : best.count) : 0;
-    const cands = rectCandidates(st, cx, cy, chosen, need);
+    const cands = rectCandidates(st, k, cx, cy, chosen, need);
     st.stats.candidates += cands.length;
     cands.sort((a, b) => b.count - a.count || a.cy - b.cy || a.cx - b.cx);
     for (const c of cands) {
@@ -156,6 +156,7 @@ function lowerBound(a: Float64Array, v: number): number {
  */
 function rectCandidates(
   st: SearchState,
+  k: number,
   cx: number,
   cy: number,
   chosen: Placement[],
@@ -165,7 +166,9 @@ function rectCandidates(
   const s = st.map.grid.strideUm;
   const hw = e.halfX, hh = e.halfY;
   const bx0 = cx - s / 2, bx1 = cx + s / 2, by0 = cy - s / 2, by1 = cy + s / 2;
-  const F = pointsInBox(st.buckets, cx - hw - s, cy - hh - s, cx + hw + s, cy + hh + s);
+  const F = frameFigures(st, cx, cy);
+  const base = st.interior ? st.interior[k] : 0;
+  minCount -= base;
   const xs: number[] = [cx], ys: number[] = [cy];
   const xU = st.xUm, yU = st.yUm;
   for (let t = 0; t < F.length; t++) {
@@ -229,7 +232,49 @@ function rectCandidates(
     for (let a = 0; a < nX; a++) {
       acc += diff[row + a];
       const c = (col[a] += acc);
-      if (c >= minCount) out.push({ cx: X[a], cy: Y[b], count: c });
+      if (c >= minCount) out.push({ cx: X[a], cy: Y[b], count: c + base });
+    }
+  }
+  return out;
+}
+
+/**
+ * The figures in the box of every window centred in the stride cell of
+ * (cx, cy) except the interior ones (counted by `st.interior`): buckets
+ * wholly inside the interior are skipped unread, the others tested with the
+ * interior stamp's own test.
+ */
+function frameFigures(st: SearchState, cx: number, cy: number): number[] {
+  const s = st.map.grid.strideUm;
+  const { halfX: hw, halfY: hh } = st.e;
+  const x0 = cx - hw - s, y0 = cy - hh - s, x1 = cx + hw + s, y1 = cy + hh + s;
+  if (!st.interior) return pointsInBox(st.buckets, x0, y0, x1, y1);
+  const b = st.buckets;
+  const [hwIn, hhIn] = st.interiorHalf;
+  const out: number[] = [];
+  const i0 = Math.max(0, Math.floor((x0 - b.x0) / b.size));
+  const i1 = Math.min(b.nbx - 1, Math.floor((x1 - b.x0) / b.size));
+  const j0 = Math.max(0, Math.floor((y0 - b.y0) / b.size));
+  const j1 = Math.min(b.nby - 1, Math.floor((y1 - b.y0) / b.size));
+  // Buckets two away from the interior's edges lie wholly inside it.
+  const iIn0 = Math.floor((cx - hwIn - b.x0) / b.size) + 2;
+  const iIn1 = Math.floor((cx + hwIn - b.x0) / b.size) - 2;
+  const jIn0 = Math.floor((cy - hhIn - b.y0) / b.size) + 2;
+  const jIn1 = Math.floor((cy + hhIn - b.y0) / b.size) - 2;
+  const xU = b.xUm, yU = b.yUm;
+  for (let j = j0; j <= j1; j++) {
+    const skipRow = j >= jIn0 && j <= jIn1;
+    for (let i = i0; i <= i1; i++) {
+      if (skipRow && i === iIn0 && iIn1 >= iIn0) i = iIn1 + 1;
+      if (i > i1) break;
+      const q = j * b.nbx + i;
+      for (let t = b.start[q]; t < b.start[q + 1]; t++) {
+        const f = b.order[t];
+        const x = xU[f], y = yU[f];
+        if (!(x >= x0 && x <= x1 && y >= y0 && y <= y1)) continue;
+        if (Math.abs(x - cx) <= hwIn && Math.abs(y - cy) <= hhIn) continue;
+        out.push(f);
+      }
     }
   }
   return out;

@@ -32,6 +32,12 @@ export interface SearchState {
   isRect: boolean;
   /** Upper bound of the count of any window centred in the stride cell of each grid centre. */
   bound: Int32Array;
+  /**
+   * Rectangles: per grid centre, the figures inside every window centred in
+   * its stride cell (those within `interiorHalf` of the centre), or null.
+   */
+  interior: Int32Array | null;
+  interiorHalf: [number, number];
   /** Added to a grid centre's coverage to bound the coverage of any window in its stride cell. */
   coverageSlack: number;
   overlap: AreaIndex;
@@ -74,7 +80,30 @@ export function createSearch(
     slack = (rg * rg) / (r * r) - 1;
   }
   const bound = stampWindowCounts(prepared.xUm, prepared.yUm, enlarged, map.grid);
+  // Rectangles: figures within the window shrunk by one stride (less a
+  // margin far above rounding) are inside every window centred in the
+  // stride cell; their grid count is added without looking at them.
+  let interior: Int32Array | null = null;
+  let interiorHalf: [number, number] = [0, 0];
+  if (window.shape === "rect") {
+    const m = 1e-6 * (window.widthUm + window.heightUm);
+    const wIn = window.widthUm - s - 2 * m, hIn = window.heightUm - s - 2 * m;
+    if (wIn > s && hIn > s) {
+      const shrunk: WindowShape = { ...window, widthUm: wIn, heightUm: hIn };
+      const eIn = windowExtents(shrunk);
+      interior = stampWindowCounts(prepared.xUm, prepared.yUm, shrunk, map.grid);
+      interiorHalf = [eIn.halfX, eIn.halfY];
+    }
+  }
+  // Rectangles fetch only the frame of a window, so small buckets pay; a
+  // cap keeps the bucket table in proportion to the figures.
+  const extent = figureExtent(prepared.xUm, prepared.yUm);
+  let size = isRect ? s : Math.max(s, Math.min(e.halfX, e.halfY) / 2);
+  const cap = Math.max(1 << 20, 4 * prepared.xUm.length);
+  while ((extent[0] / size + 1) * (extent[1] / size + 1) > cap) size *= 2;
   return {
+    interior,
+    interiorHalf,
     xUm: prepared.xUm,
     yUm: prepared.yUm,
     mpp: { mppX: prepared.slide.mppX, mppY: prepared.slide.mppY },
@@ -85,16 +114,24 @@ export function createSearch(
     bound,
     coverageSlack: slack + (map.coverageError ?? 0) + 1e-6,
     overlap: overlap ?? (createOverlapIndex(prepared.validUm) as AreaIndex),
-    buckets: bucketFigures(
-      prepared.xUm,
-      prepared.yUm,
-      Math.max(s, Math.min(e.halfX, e.halfY) / 2),
-    ),
+    buckets: bucketFigures(prepared.xUm, prepared.yUm, size),
     stats: { blocks: 0, candidates: 0, coverageQueries: 0 },
     memo: new Map(),
     memoUm: s / 4,
     circle: null,
   };
+}
+
+/** Width and height of the figures' bounding box, µm. */
+function figureExtent(x: Float64Array, y: Float64Array): [number, number] {
+  let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
+  for (let k = 0; k < x.length; k++) {
+    if (x[k] < x0) x0 = x[k];
+    if (x[k] > x1) x1 = x[k];
+    if (y[k] < y0) y0 = y[k];
+    if (y[k] > y1) y1 = y[k];
+  }
+  return x.length === 0 ? [0, 0] : [x1 - x0, y1 - y0];
 }
 
 function memoKey(st: SearchState, cx: number, cy: number): number {
