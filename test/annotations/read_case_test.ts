@@ -362,3 +362,24 @@ Deno.test("loadCase() reads the fixture case file", async () => {
   assert.equal(c.figures.xPx.length, 4);
   assert.equal(c.tissue.length, 2);
 });
+
+Deno.test(
+  "loadCase() tells a bad UTF-8 byte from a genuine U+FFFD in a label",
+  withDir(async (dir) => {
+    // UTF-8 (RFC 3629 §3): 0xC3 must be followed by a continuation byte 0x80–0xBF.
+    const text = geojson([
+      feature("tumour", { type: "Polygon", coordinates: [rect(0, 0, 99, 99)] }),
+      feature("figure", { type: "Point", coordinates: [5, 5] }, { label: "mitosis \uFFFD" }),
+    ]);
+    writeFileSync(join(dir, "ok.geojson"), text);
+    const c = await loadCase({ annotationsPath: join(dir, "ok.geojson") });
+    assert.deepEqual(c.figures.labels, ["mitosis \uFFFD"]);
+    const bad = new TextEncoder().encode(text.replace("mitosis \uFFFD", "mitosis XX"));
+    bad[bad.indexOf(0x58)] = 0xc3; // "X" becomes a lead byte followed by "X"
+    writeFileSync(join(dir, "bad.geojson"), bad);
+    await assert.rejects(loadCase({ annotationsPath: join(dir, "bad.geojson") }), {
+      name: "SyntaxError",
+      message: /bad\.geojson.*not UTF-8 text/,
+    });
+  }),
+);
