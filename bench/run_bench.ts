@@ -167,7 +167,7 @@ async function processRows(
   for (const [name, extra] of reportVariants) {
     const outDir = join(OUT, `report_${label.replace(/\W+/g, "_")}`);
     const runs = [];
-    for (let k = 0; k < 1; k++) {
+    for (let k = 0; k < repeats; k++) {
       rmSync(outDir, { recursive: true, force: true });
       runs.push(await runProcess(["lib/cli.ts", "report", file, "--out", outDir, ...extra]));
     }

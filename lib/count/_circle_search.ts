@@ -164,10 +164,15 @@ function startCircleSearch(st: SearchState): CircleSearchMemo {
   for (let k = 0; k < nx * ny; k++) {
     if (map.coverage[k] + st.coverageSlack >= minCov) keep.push(k);
   }
-  const cells = Int32Array.from(keep).sort();
-  // By descending bound; row-major among equal bounds (Int32Array sort is stable on ties).
-  const order = Array.from(cells).sort((a, b) => st.bound[b] - st.bound[a] || a - b);
-  const sorted = Int32Array.from(order);
+  // By descending bound, row-major among equal bounds: a counting sort, as
+  // bounds are small whole numbers.
+  let maxBound = 0;
+  for (const k of keep) if (st.bound[k] > maxBound) maxBound = st.bound[k];
+  const start = new Int32Array(maxBound + 2);
+  for (const k of keep) start[maxBound - st.bound[k] + 1]++;
+  for (let b = 0; b <= maxBound; b++) start[b + 1] += start[b];
+  const sorted = new Int32Array(keep.length);
+  for (const k of keep) sorted[start[maxBound - st.bound[k]]++] = k;
   const heap: Item[] = [];
   if (sorted.length > 0) {
     const k = sorted[0];
