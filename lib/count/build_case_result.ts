@@ -5,7 +5,14 @@
  */
 
 import type { CaseData } from "../types.ts";
-import type { CaseResult, Placement, ReportOptions, WindowShape } from "./engine_types.ts";
+import type {
+  CaseResult,
+  CountMap,
+  Placement,
+  PreparedCase,
+  ReportOptions,
+  WindowShape,
+} from "./engine_types.ts";
 import {
   REPORT_SCHEMA,
   type ReportJson,
@@ -18,7 +25,11 @@ import { prepareCase } from "./prepare_case.ts";
 import { computeCountMap, DEFAULT_MIN_COVERAGE, DEFAULT_STRIDE_UM } from "./compute_count_map.ts";
 import { createSearch, searchBest } from "./_hotspot_search.ts";
 import type { AreaIndex } from "./_hotspot_search.ts";
-import { findBestFieldSet } from "./find_best_field_set.ts";
+import {
+  type BestFieldSet,
+  findBestFieldSet,
+  type FindBestFieldSetOptions,
+} from "./find_best_field_set.ts";
 import { summarizeDistribution } from "./summarize_distribution.ts";
 import { checkFields } from "./check_fields.ts";
 import { createOverlapIndex } from "./_geometry.ts";
@@ -94,6 +105,64 @@ export function reportPlacement(p: Placement, rank?: number): ReportPlacement {
  * ```
  */
 export function buildCaseResult(caseData: CaseData, options: ReportOptions = {}): CaseResult {
+  const parts = startCaseResult(caseData, options);
+  const best = parts.bestN > 0
+    ? findBestFieldSet(parts.prepared, { ...bestFieldSetOptions(parts), overlap: parts.overlap })
+    : null;
+  return finishCaseResult(parts, best);
+}
+
+/**
+ * Everything of a case result but the best field set: see
+ * {@linkcode buildCaseResult}, which is `finishCaseResult(startCaseResult(…),
+ * findBestFieldSet(…))`. Split so a caller can compute the best field set
+ * elsewhere, or reuse a prepared case.
+ */
+export interface CaseResultParts {
+  caseData: CaseData;
+  options: ReportOptions;
+  prepared: PreparedCase;
+  window: WindowShape;
+  strideUm: number;
+  minCoverage: number;
+  topK: number;
+  bestN: number;
+  map: CountMap;
+  overlap: AreaIndex;
+  hotspot: Placement | null;
+  top: Placement[];
+  /** Warnings so far, in report order (case, placement, top-k). */
+  warnings: string[];
+}
+
+/**
+ * The first part of {@linkcode buildCaseResult}: prepare (unless `prepared`
+ * is given), count map, hotspot and top-k.
+ *
+ * @example
+ * ```ts
+ * import { bestFieldSetOptions, finishCaseResult, startCaseResult } from "./build_case_result.ts";
+ * import { findBestFieldSet } from "./find_best_field_set.ts";
+ * const sq = [[[0, 0], [6000, 0], [6000, 6000], [0, 6000], [0, 0]]] as [number, number][][];
+ * const parts = startCaseResult({
+ *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
+ *   tissue: [{ polygons: [sq], source: "example" }], tumour: [], exclude: [],
+ *   figures: {
+ *     xPx: new Float64Array([3000]), yPx: new Float64Array([3000]),
+ *     labelIndex: new Uint32Array(1), labels: ["mitotic figure"],
+ *     score: new Float64Array(1).fill(NaN), origin: new Int32Array([0]),
+ *   },
+ *   fields: [], sources: [], warnings: [],
+ * }, { strideUm: 50, bestN: 1 });
+ * const r = finishCaseResult(parts, findBestFieldSet(parts.prepared, bestFieldSetOptions(parts)));
+ * if (r.report.best_fields?.total !== 1) throw new Error();
+ * ```
+ */
+export function startCaseResult(
+  caseData: CaseData,
+  options: ReportOptions = {},
+  prepared?: PreparedCase,
+): CaseResultParts {
   const window = makeWindow({
     areaMm2: options.areaMm2,
     shape: options.shape,
@@ -103,10 +172,7 @@ export function buildCaseResult(caseData: CaseData, options: ReportOptions = {})
   const minCoverage = options.minCoverage ?? DEFAULT_MIN_COVERAGE;
   const topK = options.top ?? 3;
   const bestN = options.bestN ?? 10;
-  const prepared = prepareCase(caseData, {
-    minScore: options.minScore,
-    countLabels: options.countLabels,
-  });
+  prepared ??= prepareCaseFor(caseData, options);
   const warnings = [...prepared.warnings];
   const map = computeCountMap(prepared, window, {
     strideUm,
@@ -116,7 +182,7 @@ export function buildCaseResult(caseData: CaseData, options: ReportOptions = {})
   const overlap = createOverlapIndex(prepared.validUm) as AreaIndex;
   const search = createSearch(prepared, map, overlap);
   const top: Placement[] = [];
-  let hotspot: Placement | null = searchBest(search, top);
+  const hotspot: Placement | null = searchBest(search, top);
   if (hotspot) {
     top.push(hotspot);
     while (top.length < topK) {
@@ -134,16 +200,80 @@ export function buildCaseResult(caseData: CaseData, options: ReportOptions = {})
         `fewer than the ${topK} asked for`,
     );
   }
-  const best = bestN > 0
-    ? findBestFieldSet(prepared, {
-      n: bestN,
-      fieldAreaMm2: options.fieldAreaMm2,
-      shape: "circle",
-      strideUm,
-      minCoverage,
-      overlap,
-    })
-    : null;
+  return {
+    caseData,
+    options,
+    prepared,
+    window,
+    strideUm,
+    minCoverage,
+    topK,
+    bestN,
+    map,
+    overlap,
+    hotspot,
+    top,
+    warnings,
+  };
+}
+
+/**
+ * The prepared case {@linkcode startCaseResult} would use.
+ *
+ * @example
+ * ```ts
+ * import { prepareCaseFor } from "./build_case_result.ts";
+ * if (typeof prepareCaseFor !== "function") throw new Error();
+ * ```
+ */
+export function prepareCaseFor(caseData: CaseData, options: ReportOptions = {}): PreparedCase {
+  return prepareCase(caseData, { minScore: options.minScore, countLabels: options.countLabels });
+}
+
+/**
+ * Options of the best field set for a case result (plain data, so they can
+ * be posted to a worker along with the prepared case).
+ *
+ * @example
+ * ```ts
+ * import { bestFieldSetOptions } from "./build_case_result.ts";
+ * // deno-lint-ignore no-explicit-any
+ * const o = bestFieldSetOptions({ bestN: 10, strideUm: 25, minCoverage: 0.95, options: {} } as any);
+ * if (o.n !== 10 || o.shape !== "circle") throw new Error();
+ * ```
+ */
+export function bestFieldSetOptions(
+  parts: Pick<CaseResultParts, "bestN" | "strideUm" | "minCoverage" | "options">,
+): FindBestFieldSetOptions {
+  return {
+    n: parts.bestN,
+    fieldAreaMm2: parts.options.fieldAreaMm2,
+    shape: "circle",
+    strideUm: parts.strideUm,
+    minCoverage: parts.minCoverage,
+  };
+}
+
+/**
+ * The last part of {@linkcode buildCaseResult}: distribution, field check,
+ * report.json and (with a scheme) the classification.
+ *
+ * @param parts From {@linkcode startCaseResult}.
+ * @param best The best field set (null when `bestN` is 0).
+ * @returns The result, the same as {@linkcode buildCaseResult} gives.
+ *
+ * @example
+ * ```ts
+ * import { finishCaseResult } from "./build_case_result.ts";
+ * if (typeof finishCaseResult !== "function") throw new Error();
+ * ```
+ */
+export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | null): CaseResult {
+  const { caseData, options, prepared, window, strideUm, minCoverage, topK, bestN, map, overlap } =
+    parts;
+  const top = parts.top;
+  const hotspot = parts.hotspot;
+  const warnings = [...parts.warnings];
   if (best && best.fields.length < bestN) {
     warnings.push(
       `Only ${best.fields.length} separate admissible field${
@@ -251,7 +381,6 @@ export function buildCaseResult(caseData: CaseData, options: ReportOptions = {})
     report.uncertainty = std.uncertainty;
     report.warnings.push(...std.warnings);
   }
-  hotspot = hotspot ?? null;
   return {
     report,
     prepared,

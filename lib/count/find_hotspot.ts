@@ -32,8 +32,14 @@ export interface FindHotspotOptions {
  * stride (rect (W+s)×(H+s), circle radius r + s·√2/2), so its grid count
  * bounds the cell's counts, and its area bounds the cell's coverage. Cells
  * are visited by descending bound and the search stops when the bound is not
- * above the best count found. Each candidate is counted exactly with the
- * window test (`windowContains`); its coverage is computed exactly
+ * above the best count found. For rectangles, the figures inside every
+ * window of a cell (those within the window shrunk by a stride) come from a
+ * second grid count, so only the frame of each window is read. For circles
+ * the search is best-first over one queue of cells and ever smaller squares
+ * of centres; a square carries the figures surely inside all its windows as
+ * a number and only those near the rim as a list, and its bound (the two
+ * together) tightens as it is split. Each candidate is counted exactly with
+ * the window test (`windowContains`); its coverage is computed exactly
  * (`createOverlapIndex`) only when it could beat the best.
  *
  * **What "exact" means.** The result is the global maximum count over all
@@ -48,10 +54,12 @@ export interface FindHotspotOptions {
  * the reported count is always the exact count of the reported window.
  *
  * **Tie-break** (deterministic): higher count, then higher coverage (rounded
- * to 1e-9), then smaller y, then smaller x, among the candidates examined
- * (cells are visited by bound, then row-major; the search stops at the first
- * cell whose bound equals the best count, so equal-count placements in
- * cells not visited are not compared).
+ * to 1e-9), then smaller y, then smaller x, among the candidates examined.
+ * Rectangles: cells are visited by bound, then row-major, and the search
+ * stops at the first cell whose bound equals the best count, so equal-count
+ * placements in cells not visited are not compared. Circles: after the first
+ * admissible placement of the best count, up to 32 more already listed
+ * placements of that count are compared (none when the first has coverage 1).
  *
  * Centres are returned in µm and level-0 pixels; `perMm2` is count ÷ the
  * window area in mm².

@@ -17,4 +17,13 @@ export * from "./find_best_field_set.ts";
 export * from "./summarize_distribution.ts";
 export * from "./percentile_rank.ts";
 export * from "./check_fields.ts";
-export { buildCaseResult, reportPlacement, reportWindow } from "./build_case_result.ts";
+export {
+  bestFieldSetOptions,
+  buildCaseResult,
+  type CaseResultParts,
+  finishCaseResult,
+  prepareCaseFor,
+  reportPlacement,
+  reportWindow,
+  startCaseResult,
+} from "./build_case_result.ts";
