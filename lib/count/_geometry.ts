@@ -6,7 +6,11 @@
 
 export { createRegionIndex } from "../geometry/region_index.ts";
 export { multiPolygonAreaPx2, polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
-export { createOverlapIndex, polygonOverlapArea } from "../geometry/window_overlap.ts";
+export {
+  createOverlapIndex,
+  diskOverlapArea,
+  polygonOverlapArea,
+} from "../geometry/window_overlap.ts";
 export { scaleRegion } from "../geometry/transform.ts";
 export { rasterizeArea } from "../geometry/raster_coverage.ts";
 export { buildValidRegion } from "../geometry/valid_region.ts";

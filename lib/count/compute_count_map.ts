@@ -26,7 +26,7 @@ export interface ComputeCountMapOptions {
   maxGridCells?: number;
   /**
    * Circles only: raster cells per stride for coverage (1–4); coarser is
-   * faster with a larger stated error. @default the smallest giving cells ≤ r/128, at most 4
+   * faster with a larger stated error. @default the smallest giving cells ≤ r/64, at most 4
    */
   circleCellsPerStride?: number;
   /**
@@ -152,13 +152,27 @@ export function computeCountMap(
   } else {
     const raster = circleRaster(strideUm, e.halfX, options.circleCellsPerStride);
     coverageError = raster.errorBound;
-    cover64 = circleCoverage(prepared.validUm, grid, e.halfX, raster.q);
-    // Centres whose raster coverage is too close to the minimum to decide are
-    // recomputed exactly, so admissibility is exact wherever it is in doubt.
+    const exact = options.exactAdmissibility !== false;
+    // Centres whose raster coverage is too close to the minimum to decide
+    // get exact bounds from the raster cells (whole cells exactly, the cells
+    // the rim crosses between what V and the disk must and may share); those
+    // still in doubt are recomputed exactly, so admissibility is exact.
+    const decided = new Uint8Array(exact ? grid.nx * grid.ny : 0);
+    cover64 = circleCoverage(
+      prepared.validUm,
+      grid,
+      e.halfX,
+      raster.q,
+      exact ? { minCoverage, marginOf: raster.errorBound, decided } : undefined,
+    );
     const overlap = createOverlapIndex(prepared.validUm);
-    let refined = 0, undecided = 0;
-    for (let k = 0; k < cover64.length && options.exactAdmissibility !== false; k++) {
+    let refined = 0, undecided = 0, bounded = 0;
+    for (let k = 0; k < cover64.length && exact; k++) {
       if (Math.abs(cover64[k] - minCoverage) > raster.errorBound) continue;
+      if (decided[k]) {
+        bounded++;
+        continue;
+      }
       if (refined >= MAX_EXACT_CIRCLE_REFINEMENTS) {
         undecided++;
         continue;
@@ -175,7 +189,7 @@ export function computeCountMap(
       "(the cells the circle crosses); " + (options.exactAdmissibility === false
         ? "admissibility follows the raster values; "
         : "centres within that margin of the minimum coverage " +
-          `were recomputed exactly (${refined}${
+          `were decided by exact bounds from the raster cells (${bounded}) or recomputed exactly (${refined}${
             undecided > 0 ? `; ${undecided} more left on the raster value` : ""
           }), so admissibility is exact; `) +
       "the hotspot's coverage is computed exactly";

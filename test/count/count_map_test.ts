@@ -76,6 +76,34 @@ Deno.test("computeCountMap() circle coverage stays within its stated error bound
   assert.ok(worst <= map.coverageError! + 1e-6, `${worst} > ${map.coverageError}`);
 });
 
+Deno.test("computeCountMap() decides circle admissibility exactly at every centre, on any raster", () => {
+  const w = makeWindow({ areaMm2: 0.05, shape: "circle" });
+  if (w.shape !== "circle") throw new Error();
+  const p = {
+    validUm: L,
+    xUm: new Float64Array(),
+    yUm: new Float64Array(),
+  } as unknown as PreparedCase;
+  const r = w.diameterUm / 2;
+  for (const q of [1, 2, 4]) {
+    for (const minCoverage of [0.6, 0.9, 0.999]) {
+      const map = computeCountMap(p, w, { strideUm: 20, minCoverage, circleCellsPerStride: q });
+      for (let k = 0; k < map.coverage.length; k++) {
+        const cx = map.grid.x0Um + (k % map.grid.nx) * 20,
+          cy = map.grid.y0Um + Math.floor(k / map.grid.nx) * 20;
+        // Exact planar disk ∩ polygon area (checked against the circular-segment closed form and
+        // numeric integration in test/geometry/window_overlap_test.ts).
+        const exact = diskOverlapArea(L, [cx, cy], r) / (Math.PI * r * r);
+        if (Math.abs(exact - minCoverage) < 1e-9) continue; // on the limit: either is fair
+        assert.equal(map.admissible[k] === 1, exact >= minCoverage, `q ${q}, ${cx},${cy}`);
+      }
+      // Most centres in doubt are decided by the cell bounds, not by exact queries.
+      const m = /cells \((\d+)\) or recomputed exactly \((\d+)/.exec(map.discretization)!;
+      assert.ok(Number(m[1]) > Number(m[2]), map.discretization);
+    }
+  }
+});
+
 Deno.test("computeCountMap() refuses a grid beyond the limit, naming its size", () => {
   const p = {
     validUm: L,
