@@ -60,6 +60,8 @@ interface Item {
   list: Candidate[] | null;
   cells: Int32Array | null;
   at: number;
+  /** Squares: 1 when every window centred in it is surely admissible. */
+  safe: number;
 }
 
 /** A leaf whose candidates were listed, kept to list again near later fields. */
@@ -98,7 +100,7 @@ function item(
   list: Candidate[] | null = null,
   cells: Int32Array | null = null,
 ): Item {
-  return { bound, kind, x, y, h, sureIn, A, list, cells, at: 0 };
+  return { bound, kind, x, y, h, sureIn, A, list, cells, at: 0, safe: 0 };
 }
 
 /** Queue order: higher bound, then kind, then smaller y, then smaller x. */
@@ -263,8 +265,10 @@ function square(
  * extend the `chosen` of the previous call on `st`, or the search restarts).
  *
  * Best-first branch and bound over one queue: stride cells by their grid
- * bound (window enlarged by s·√2/2 in radius); a cell opened gives its grid
- * centre as a candidate and its square of centres; a square is split into
+ * bound (window enlarged by s·√2/2 in radius); a cell opened (after one
+ * exact coverage query rules it in) gives its grid centre as a candidate and
+ * its square of centres; smaller squares may be ruled out by a query of their
+ * own where the coverage limit binds; a square is split into
  * four while it has many uncertain figures (its bound is the sure count plus
  * the uncertain ones, so splitting tightens it); a leaf lists its
  * arrangement vertices (see {@linkcode circleLeaf}) with exact counts. The
@@ -326,10 +330,17 @@ export function circleSearchBest(st: SearchState, chosen: Placement[]): Placemen
       push(heap, candidateItem({ cx, cy, count: n }));
       const root = square(st, cx, cy, s / 2, 0, F0);
       if (root.bound > st.bound[k]) root.bound = st.bound[k];
+      if (cov - coverageGrowth(st, reachUm, reachUm) - 1e-7 >= minCov) root.safe = 1;
       push(heap, root);
     } else if (top.kind === 1) {
       if (squareForbidden(st, top.x, top.y, top.h, chosen)) continue;
       if (surelyBelow(st, top.x, top.y, minCov, top.h + tol)) continue;
+      // Below the cell, one exact query can rule out a whole square where the
+      // coverage limit binds (the cell's own query was at its centre).
+      if (!top.safe && top.h < s / 2 && top.h >= s / 16) {
+        const cov = exactCoverage(st, top.x, top.y);
+        if (cov + coverageGrowth(st, top.h + tol, top.h + tol) + 1e-7 < minCov) continue;
+      }
       const A = top.A!;
       if (top.h <= s * CIRCLE_LEAF / 2 || A.length <= LEAF_FIGURES) {
         const out: Candidate[] = [];
@@ -349,6 +360,7 @@ export function circleSearchBest(st: SearchState, chosen: Placement[]): Placemen
       for (const [dx, dy] of QUADRANTS) {
         const child = square(st, top.x + dx * q, top.y + dy * q, q, top.sureIn, A);
         if (child.bound > top.bound) child.bound = top.bound;
+        child.safe = top.safe;
         push(heap, child);
       }
     } else {
@@ -374,7 +386,13 @@ const QUADRANTS: [number, number][] = [[-1, -1], [1, -1], [-1, 1], [1, 1]];
 
 /**
  * Candidates of one leaf square (half side hCell): `sureIn` figures are inside
- * every window centred in it, `A` are the only others that can be.
+ * every window centred in it, `A` are the only others that can be. The
+ * candidates are the vertices of the arrangement of radius-r circles about
+ * the figures of A that fall in the square (two figures on the rim: the
+ * intersections of their circles), the rim point of each figure nearest the
+ * square's centre, and points on the boundary of each chosen window's
+ * no-overlap zone. Each is nudged towards the lens of its figures until they
+ * test inside, then counted exactly (sure ones plus A tested one by one).
  */
 function circleLeaf(
   st: SearchState,
@@ -411,54 +429,28 @@ function circleLeaf(
     }
     return n;
   };
-  // Estimated candidates: [x, y, estimate, figure a, figure b] (b = −1 for none).
-  const est: [number, number, number, number, number][] = [];
-  const TWO_PI = 2 * Math.PI;
-  for (const f of A) {
-    const ax = st.xUm[f], ay = st.yUm[f];
-    // Arc of f's circle within the cell's circumscribed disk: angles θ0 ± δ.
-    const dc = Math.hypot(cx - ax, cy - ay);
-    if (dc === 0) continue;
-    const theta0 = Math.atan2(cy - ay, cx - ax);
-    const cosDelta = (r * r + dc * dc - halfDiag * halfDiag) / (2 * r * dc);
-    const delta = cosDelta <= -1 ? Math.PI : cosDelta >= 1 ? 0 : Math.acos(cosDelta);
+  // Candidates before nudging: [x, y, figure a, figure b] (b = −1 for none).
+  const est: [number, number, number, number][] = [];
+  const near = hCell + 3 * tol;
+  for (let t = 0; t < A.length; t++) {
+    const f = A[t], ax = fx[t], ay = fy[t];
     // Single figure on the rim nearest the cell centre.
-    est.push([ax + (cx - ax) * (r / dc), ay + (cy - ay) * (r / dc), Infinity, f, -1]);
-    let base = sureIn;
-    const events: [number, number, number][] = []; // [angle offset, +1/−1, figure]
-    for (let t = 0; t < A.length; t++) {
-      const g = A[t];
-      if (g === f) {
-        base++;
-        continue;
-      }
-      const dx = st.xUm[g] - ax, dy = st.yUm[g] - ay;
+    const dc = Math.hypot(cx - ax, cy - ay);
+    if (dc > 0) est.push([ax + (cx - ax) * (r / dc), ay + (cy - ay) * (r / dc), f, -1]);
+    // Two figures on the rim: the intersections of their radius-r circles.
+    for (let u = t + 1; u < A.length; u++) {
+      const dx = fx[u] - ax, dy = fy[u] - ay;
       const d2 = dx * dx + dy * dy;
-      if (d2 > 4 * r2) continue;
+      if (d2 === 0 || d2 > 4 * r2) continue;
       const d = Math.sqrt(d2);
-      const alpha = Math.acos(Math.min(1, d / (2 * r)));
-      let off = Math.atan2(dy, dx) - theta0; // φ relative to θ0, in (−π, π]
-      off -= TWO_PI * Math.round(off / TWO_PI);
-      const lo = off - alpha, hi = off + alpha;
-      if (lo <= -delta && hi >= delta) {
-        base++;
-        continue;
+      const h = Math.sqrt(Math.max(0, r2 - d2 / 4));
+      const mx = ax + dx / 2, my = ay + dy / 2, ux = (-dy / d) * h, uy = (dx / d) * h;
+      if (Math.abs(mx + ux - cx) <= near && Math.abs(my + uy - cy) <= near) {
+        est.push([mx + ux, my + uy, f, A[u]]);
       }
-      if (hi < -delta || lo > delta) continue;
-      if (lo > -delta) events.push([lo, 1, g]);
-      else base++;
-      if (hi < delta) events.push([hi, -1, g]);
-    }
-    // Entries first at equal angles: closed windows hold both at a shared vertex.
-    events.sort((p, q) => p[0] - q[0] || q[1] - p[1]);
-    let n = base;
-    for (const [ang, dir, g] of events) {
-      if (dir > 0) n++;
-      const count = n;
-      if (dir < 0) n--;
-      if (count < minCount) continue;
-      const th = theta0 + ang;
-      est.push([ax + r * Math.cos(th), ay + r * Math.sin(th), count, f, g]);
+      if (Math.abs(mx - ux - cx) <= near && Math.abs(my - uy - cy) <= near) {
+        est.push([mx - ux, my - uy, f, A[u]]);
+      }
     }
   }
   for (const p of chosen) {
@@ -466,16 +458,16 @@ function circleLeaf(
     const dq = Math.hypot(cx - qx, cy - qy);
     if (Math.abs(dq - 2 * r) > 2 * halfDiag) continue;
     if (dq > 0) {
-      est.push([qx + (cx - qx) * (2 * r / dq), qy + (cy - qy) * (2 * r / dq), Infinity, -2, -1]);
+      est.push([qx + (cx - qx) * (2 * r / dq), qy + (cy - qy) * (2 * r / dq), -2, -1]);
     }
     for (const f of A) {
       for (const [px, py] of circleIntersections(qx, qy, 2 * r, st.xUm[f], st.yUm[f], r)) {
-        est.push([px, py, Infinity, -2, f]);
+        est.push([px, py, -2, f]);
       }
     }
   }
   // Nudge each into place and count exactly.
-  for (const [px0, py0, , a, b] of est) {
+  for (const [px0, py0, a, b] of est) {
     let pt: [number, number] | null = null;
     if (a === -2) {
       // On an exclusion boundary: step away from the chosen centre.
