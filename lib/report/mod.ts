@@ -20,7 +20,13 @@ export {
   windowRingUm,
 } from "./hotspot_geojson.ts";
 export { escapeHtml, jsonForScript } from "./html_escape.ts";
-export { findPlotlyPath, PLOTLY_PACKAGE, PLOTLY_VERSION, readPlotlyJs } from "./plotly_asset.ts";
+export {
+  findPlotlyPath,
+  PLOTLY_PACKAGE,
+  PLOTLY_VERSION,
+  readPlotlyBytes,
+  readPlotlyJs,
+} from "./plotly_asset.ts";
 export {
   admissibleHistogram,
   cohortFigure,

@@ -158,6 +158,24 @@ export function findPlotlyPath(): string | null {
  * ```
  */
 export function readPlotlyJs(): string {
+  return new TextDecoder().decode(readPlotlyBytes());
+}
+
+/**
+ * Reads the plotly.js bundle as bytes, for copying it unchanged.
+ *
+ * @returns The bytes of `plotly.min.js`.
+ * @throws Error naming the package and how to cache it when it is not found.
+ *
+ * @example Bytes and text agree
+ * ```ts
+ * import { findPlotlyPath, readPlotlyBytes, readPlotlyJs } from "./plotly_asset.ts";
+ * if (findPlotlyPath() !== null && new TextDecoder().decode(readPlotlyBytes()) !== readPlotlyJs()) {
+ *   throw new Error();
+ * }
+ * ```
+ */
+export function readPlotlyBytes(): Uint8Array {
   const path = findPlotlyPath();
   if (path === null) {
     throw new Error(
@@ -165,5 +183,5 @@ export function readPlotlyJs(): string {
         `run "deno cache npm:${PLOTLY_PACKAGE}@${PLOTLY_VERSION}" once with network`,
     );
   }
-  return readFileSync(path, "utf8");
+  return new Uint8Array(readFileSync(path));
 }

@@ -26,7 +26,7 @@ import { caseHotspotGeoJson } from "./hotspot_geojson.ts";
 import { renderCaseHtml } from "./report_html.ts";
 import { renderCohortIndex } from "./cohort_index.ts";
 import { casesCsv, fieldsCsv } from "./report_csv.ts";
-import { readPlotlyJs } from "./plotly_asset.ts";
+import { readPlotlyBytes, readPlotlyJs } from "./plotly_asset.ts";
 
 /** Output formats of `hotfield report --format`. */
 export type OutputFormat = "json" | "html" | "csv" | "geojson";
@@ -159,7 +159,8 @@ export function writeOutputs(
     : generationTime(sourceDateEpochFromEnv(), new Date());
   const wantHtml = formats.has("html");
   const standalone = options.standalone ?? false;
-  const plotlyJs = wantHtml ? (options.plotlyJs ?? readPlotlyJs()) : "";
+  // Only inlining needs the text; the shared asset is copied as bytes.
+  const plotlyJs = wantHtml && standalone ? (options.plotlyJs ?? readPlotlyJs()) : "";
   const perCase: { id: string; files: [string, string][] }[] = results.map((result) => {
     const files: [string, string][] = [];
     if (formats.has("json")) files.push(["report.json", stableJson(result.report)]);
@@ -198,8 +199,11 @@ export function writeOutputs(
       }),
     ]);
   }
-  const assetFiles: [string, string][] = wantHtml && !standalone
-    ? [[join("assets", "plotly.min.js"), plotlyJs]]
+  const assetFiles: [string, string | Uint8Array][] = wantHtml && !standalone
+    ? [[
+      join("assets", "plotly.min.js"),
+      options.plotlyJs !== undefined ? options.plotlyJs : readPlotlyBytes(),
+    ]]
     : [];
 
   // 2. Write: the shared asset first (reports reference it), then each case folder
@@ -210,7 +214,7 @@ export function writeOutputs(
     throw new Error(`Cannot create the output folder "${outDir}": ${(e as Error).message}`);
   }
   const written: string[] = [];
-  const writeRunFile = ([name, text]: [string, string]) => {
+  const writeRunFile = ([name, text]: [string, string | Uint8Array]) => {
     const path = join(outDir, name);
     try {
       writeFileAtomic(path, text);
