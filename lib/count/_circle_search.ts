@@ -162,19 +162,22 @@ function startCircleSearch(st: SearchState): CircleSearchMemo {
   const { map } = st;
   const { nx, ny, x0Um, y0Um, strideUm: s } = map.grid;
   const minCov = map.minCoverage - ADMIT_EPS;
-  const keep: number[] = [];
-  for (let k = 0; k < nx * ny; k++) {
-    if (map.coverage[k] + st.coverageSlack >= minCov) keep.push(k);
-  }
   // By descending bound, row-major among equal bounds: a counting sort, as
   // bounds are small whole numbers.
-  let maxBound = 0;
-  for (const k of keep) if (st.bound[k] > maxBound) maxBound = st.bound[k];
+  const n = nx * ny, cov = map.coverage, bound = st.bound, slack = st.coverageSlack;
+  let maxBound = 0, kept = 0;
+  for (let k = 0; k < n; k++) {
+    if (cov[k] + slack < minCov) continue;
+    kept++;
+    if (bound[k] > maxBound) maxBound = bound[k];
+  }
   const start = new Int32Array(maxBound + 2);
-  for (const k of keep) start[maxBound - st.bound[k] + 1]++;
+  for (let k = 0; k < n; k++) if (cov[k] + slack >= minCov) start[maxBound - bound[k] + 1]++;
   for (let b = 0; b <= maxBound; b++) start[b + 1] += start[b];
-  const sorted = new Int32Array(keep.length);
-  for (const k of keep) sorted[start[maxBound - st.bound[k]]++] = k;
+  const sorted = new Int32Array(kept);
+  for (let k = 0; k < n; k++) {
+    if (cov[k] + slack >= minCov) sorted[start[maxBound - bound[k]]++] = k;
+  }
   const heap: Item[] = [];
   if (sorted.length > 0) {
     const k = sorted[0];
@@ -182,7 +185,6 @@ function startCircleSearch(st: SearchState): CircleSearchMemo {
     it.cells = sorted;
     push(heap, it);
   }
-  void ny;
   return { heap, chosen: [], leaves: [] };
 }
 

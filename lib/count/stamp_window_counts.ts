@@ -56,20 +56,29 @@ export function stampWindowCounts(
     const diff = new Int32Array(w1 * (ny + 1));
     for (let k = 0; k < n; k++) {
       const x = xUm[k], y = yUm[k];
-      const [i0, i1] = exactRange(
+      // Same as exactRange with the windowContains test, inlined (a hot loop).
+      const i0 = fixLow(
         Math.ceil((x - hw - x0) / s),
         Math.floor((x + hw - x0) / s),
         nx,
-        (i) => Math.abs(x - (x0 + i * s)) <= hw,
+        x,
+        x0,
+        s,
+        hw,
       );
-      if (i0 > i1) continue;
-      const [j0, j1] = exactRange(
+      if (i0 < 0) continue;
+      const i1 = fixHigh(i0, Math.floor((x + hw - x0) / s), nx, x, x0, s, hw);
+      const j0 = fixLow(
         Math.ceil((y - hh - y0) / s),
         Math.floor((y + hh - y0) / s),
         ny,
-        (j) => Math.abs(y - (y0 + j * s)) <= hh,
+        y,
+        y0,
+        s,
+        hh,
       );
-      if (j0 > j1) continue;
+      if (j0 < 0) continue;
+      const j1 = fixHigh(j0, Math.floor((y + hh - y0) / s), ny, y, y0, s, hh);
       diff[j0 * w1 + i0]++;
       diff[j0 * w1 + i1 + 1]--;
       diff[(j1 + 1) * w1 + i0]--;
@@ -149,6 +158,54 @@ export function stampWindowCounts(
     }
   }
   return counts;
+}
+
+/**
+ * First index i in [0, n) with |v − (o + i·s)| ≤ h, from the estimate
+ * [estLo, estHi] (as {@linkcode exactRange}, for one axis of a rectangle), or
+ * −1 when there is none.
+ */
+function fixLow(
+  estLo: number,
+  estHi: number,
+  n: number,
+  v: number,
+  o: number,
+  s: number,
+  h: number,
+): number {
+  let lo = Math.max(0, Math.min(n - 1, estLo));
+  const hi = Math.max(0, Math.min(n - 1, estHi));
+  if (lo > hi) {
+    const mid = lo;
+    if (Math.abs(v - (o + mid * s)) <= h) lo = mid;
+    else if (mid - 1 >= 0 && Math.abs(v - (o + (mid - 1) * s)) <= h) lo = mid - 1;
+    else if (mid + 1 < n && Math.abs(v - (o + (mid + 1) * s)) <= h) lo = mid + 1;
+    else return -1;
+    while (lo > 0 && Math.abs(v - (o + (lo - 1) * s)) <= h) lo--;
+    return lo;
+  }
+  while (lo > 0 && Math.abs(v - (o + (lo - 1) * s)) <= h) lo--;
+  while (lo <= hi && !(Math.abs(v - (o + lo * s)) <= h)) lo++;
+  if (lo <= hi) return lo;
+  // Everything in the estimate failed; a range can still start just past it.
+  return hi + 1 < n && Math.abs(v - (o + (hi + 1) * s)) <= h ? hi + 1 : -1;
+}
+
+/** Last index of the range that starts at `lo` (see {@linkcode fixLow}). */
+function fixHigh(
+  lo: number,
+  estHi: number,
+  n: number,
+  v: number,
+  o: number,
+  s: number,
+  h: number,
+): number {
+  let hi = Math.max(lo, Math.min(n - 1, estHi));
+  while (hi < n - 1 && Math.abs(v - (o + (hi + 1) * s)) <= h) hi++;
+  while (hi > lo && !(Math.abs(v - (o + hi * s)) <= h)) hi--;
+  return hi;
 }
 
 /** Prefix sums of a (nx+1)×(ny+1) difference array into an nx×ny array. */
