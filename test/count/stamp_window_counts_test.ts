@@ -4,6 +4,7 @@ import { makeWindow } from "../../lib/count/make_window.ts";
 import { countInWindow } from "../../lib/count/window_contains.ts";
 import type { StrideGrid } from "../../lib/count/engine_types.ts";
 import { directCount, randomPoints } from "./_brute.ts";
+import { seededRandom } from "../../lib/demo/random.ts";
 
 const grid: StrideGrid = { x0Um: -100, y0Um: 50, strideUm: 7.3, nx: 61, ny: 47 };
 
@@ -59,4 +60,41 @@ Deno.test("stampWindowCounts() matches an independent brute force with unequal h
     }
   }
   assert.ok(checked > 400);
+});
+
+Deno.test("stampWindowCounts() is exact for windows narrower than a stride and figures on edges", () => {
+  // Brute force: the closed-window test itself at every centre (no outside source needed).
+  const rnd = seededRandom(7);
+  for (let trial = 0; trial < 120; trial++) {
+    const s = [1, 2.5, 7, 0.1][trial % 4];
+    const nx = 5 + Math.floor(rnd() * 20), ny = 5 + Math.floor(rnd() * 20);
+    const x0 = rnd() * 10 - 5, y0 = rnd() * 10 - 5;
+    const w = [0.05, s, 3 * s, 7.3 * s, 100 * s][trial % 5];
+    const h = [0.05, s * 2, 0.7 * s, 11 * s][trial % 4];
+    const n = 40;
+    const xs = new Float64Array(n), ys = new Float64Array(n);
+    for (let k = 0; k < n; k++) {
+      // A third of the points sit exactly on a window edge of some grid centre.
+      const gx = Math.floor(rnd() * (nx + 4)) - 2, gy = Math.floor(rnd() * (ny + 4)) - 2;
+      xs[k] = rnd() < 0.3
+        ? x0 + gx * s + (rnd() < 0.5 ? w / 2 : -w / 2)
+        : x0 + (rnd() * (nx + 4) - 2) * s;
+      ys[k] = rnd() < 0.3
+        ? y0 + gy * s + (rnd() < 0.5 ? h / 2 : -h / 2)
+        : y0 + (rnd() * (ny + 4) - 2) * s;
+    }
+    const win = {
+      shape: "rect" as const,
+      widthUm: w,
+      heightUm: h,
+      areaMm2: w * h / 1e6,
+      aspect: [1, 1] as [number, number],
+    };
+    const got = stampWindowCounts(xs, ys, win, { x0Um: x0, y0Um: y0, strideUm: s, nx, ny });
+    for (let j = 0; j < ny; j++) {
+      for (let i = 0; i < nx; i++) {
+        assert.equal(got[j * nx + i], countInWindow(xs, ys, win, x0 + i * s, y0 + j * s));
+      }
+    }
+  }
 });
