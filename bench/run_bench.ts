@@ -127,7 +127,7 @@ async function processRows(
   label: string,
   file: string,
   repeats: number,
-  reportVariants: [string, string[]][],
+  reportVariants: [string, string[], "info"?][],
 ): Promise<void> {
   const cliPresent = existsSync(join(ROOT, "lib", "cli.ts")) &&
     existsSync(join(ROOT, "lib", "cli", "inspect_command.ts"));
@@ -164,7 +164,7 @@ async function processRows(
     );
     return;
   }
-  for (const [name, extra] of reportVariants) {
+  for (const [name, extra, info] of reportVariants) {
     const outDir = join(OUT, `report_${label.replace(/\W+/g, "_")}`);
     const runs = [];
     for (let k = 0; k < repeats; k++) {
@@ -182,9 +182,9 @@ async function processRows(
     add(
       step,
       `${ms(wall)}, peak RSS ${maxRss(runs)}`,
-      "< 2 s, < 1 GB",
-      wall < 2000 && rssOk,
-      runsNote(runs.map((r) => r.wallMs)),
+      info ? "" : "< 2 s, < 1 GB",
+      info ? null : wall < 2000 && rssOk,
+      runsNote(runs.map((r) => r.wallMs)) + (info ? " (beyond the stated targets)" : ""),
     );
   }
 }
@@ -243,8 +243,12 @@ async function main(): Promise<void> {
   if (!values["skip-process"]) {
     log("Whole-process runs …");
     // A report run takes long enough that one run each is a fair figure.
-    await processRows("full", file, reps, [["defaults", []], ["--best-n 0", ["--best-n", "0"]]]);
-    await processRows("tissue only", fileTissue, quick ? 1 : 2, [["defaults", []]]);
+    await processRows("full", file, reps, [
+      ["defaults", []],
+      ["--best-n 0", ["--best-n", "0"]],
+      ["--shape circle", ["--shape", "circle"], "info"],
+    ]);
+    await processRows("tissue only", fileTissue, reps, [["defaults", []]]);
   }
 
   log("In-process steps …");
