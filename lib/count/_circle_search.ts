@@ -346,7 +346,7 @@ export function circleSearchBest(st: SearchState, chosen: Placement[]): Placemen
       const A = top.A!;
       if (top.h <= s * CIRCLE_LEAF / 2 || A.length <= LEAF_FIGURES) {
         const out: Candidate[] = [];
-        circleLeaf(st, top.x, top.y, top.h, top.sureIn, A, chosen, 0, out);
+        circleLeaf(st, top.x, top.y, top.h, top.sureIn, A, chosen, out);
         st.stats.candidates += out.length;
         out.sort((a, b) => b.count - a.count || a.cy - b.cy || a.cx - b.cx);
         const leaf: Leaf = { x: top.x, y: top.y, h: top.h, sureIn: top.sureIn, A, item: null };
@@ -404,7 +404,6 @@ function circleLeaf(
   sureIn: number,
   A: number[],
   chosen: Placement[],
-  minCount: number,
   out: Candidate[],
 ): void {
   const { e } = st;
@@ -499,7 +498,6 @@ function circleLeaf(
       }
     } else pt = [px0, py0];
     if (!pt || !inCell(pt[0], pt[1])) continue;
-    const count = exactCount(pt[0], pt[1]);
-    if (count >= minCount) out.push({ cx: pt[0], cy: pt[1], count });
+    out.push({ cx: pt[0], cy: pt[1], count: exactCount(pt[0], pt[1]) });
   }
 }
