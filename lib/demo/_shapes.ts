@@ -10,7 +10,7 @@
  */
 
 import type { PolygonPx, Ring, Vec2 } from "../types.ts";
-import { normal, type Random } from "./random.ts";
+import { normal, type Random } from "../random.ts";
 
 /** Rounds to 0.1 px, so files stay small and regenerate byte for byte. */
 export function round1(v: number): number {

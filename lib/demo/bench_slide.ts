@@ -9,7 +9,7 @@
  */
 
 import type { PolygonPx } from "../types.ts";
-import { normal, seededRandom } from "./random.ts";
+import { normal, seededRandom } from "../random.ts";
 import {
   blobRing,
   type Frame,

@@ -15,7 +15,7 @@
  */
 
 import type { PolygonPx, Ring, Vec2 } from "../types.ts";
-import { type Random, seededRandom } from "./random.ts";
+import { type Random, seededRandom } from "../random.ts";
 import {
   blobRing,
   type Frame,

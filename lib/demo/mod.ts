@@ -1,6 +1,6 @@
 /** demo concern barrel: seeded generators of the demo cohort and the benchmark slide. @module */
-export { normal, seededRandom } from "./random.ts";
-export type { Random } from "./random.ts";
+export { normal, seededRandom } from "../random.ts";
+export type { Random } from "../random.ts";
 export { DEMO_SEED, generateDemoCohort } from "./demo_cohort.ts";
 export type {
   DemoCase,

@@ -3,3 +3,4 @@ export * from "./quantiles.ts";
 export * from "./garwood.ts";
 export * from "./chi_square.ts";
 export * from "./scan_test.ts";
+export * from "./kappa.ts";

@@ -33,7 +33,7 @@
 
 import type { MultiPolygonPx } from "../types.ts";
 import type { StrideGrid, WindowShape } from "../count/engine_types.ts";
-import { seededRandom } from "../demo/random.ts";
+import { seededRandom } from "../random.ts";
 
 /** Least and greatest number of simulations accepted. */
 export const SCAN_SIMULATIONS_MIN = 19;

@@ -1,5 +1,5 @@
 // Tiny brute-force helpers for the count engine tests (no pruning, no grids).
-import { seededRandom } from "../../lib/demo/random.ts";
+import { seededRandom } from "../../lib/random.ts";
 
 /** Seeded clustered points in a box, µm. */
 export function randomPoints(

@@ -11,7 +11,7 @@ import type { Placement } from "../../lib/count/engine_types.ts";
 import type { MultiPolygonPx } from "../../lib/types.ts";
 import type { PreparedCase, WindowShape } from "../../lib/count/engine_types.ts";
 import { randomPoints } from "./_brute.ts";
-import { seededRandom } from "../../lib/demo/random.ts";
+import { seededRandom } from "../../lib/random.ts";
 
 // An L-shaped valid region (µm) with a hole, so coverage matters.
 const L: MultiPolygonPx = [[

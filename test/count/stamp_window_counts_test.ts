@@ -4,7 +4,7 @@ import { makeWindow } from "../../lib/count/make_window.ts";
 import { countInWindow } from "../../lib/count/window_contains.ts";
 import type { StrideGrid } from "../../lib/count/engine_types.ts";
 import { directCount, randomPoints } from "./_brute.ts";
-import { seededRandom } from "../../lib/demo/random.ts";
+import { seededRandom } from "../../lib/random.ts";
 
 const grid: StrideGrid = { x0Um: -100, y0Um: 50, strideUm: 7.3, nx: 61, ny: 47 };
 

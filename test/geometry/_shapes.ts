@@ -11,7 +11,7 @@ import Centroid from "jsts/org/locationtech/jts/algorithm/Centroid.js";
 import OverlayOp from "jsts/org/locationtech/jts/operation/overlay/OverlayOp.js";
 import GeometryFactory from "jsts/org/locationtech/jts/geom/GeometryFactory.js";
 import type { BBoxPx, MultiPolygonPx, PolygonPx, Ring } from "../../lib/types.ts";
-import { type Random, seededRandom } from "../../lib/demo/random.ts";
+import { type Random, seededRandom } from "../../lib/random.ts";
 
 export { seededRandom };
 export type { Random };

@@ -10,7 +10,7 @@
 import type { CaseResult, Placement, RectWindow } from "../../lib/count/engine_types.ts";
 import type { ReportJson } from "../../lib/report/report_types.ts";
 import type { MultiPolygonPx } from "../../lib/types.ts";
-import { seededRandom } from "../../lib/demo/random.ts";
+import { seededRandom } from "../../lib/random.ts";
 
 /** Options of {@linkcode fixtureResult}. */
 export interface FixtureOptions {

@@ -92,7 +92,7 @@ Deno.test("applyStandards() on the engine's count map: scan test of a planted fo
   // 300 uniform figures plus 40 in a 500 µm focus.
   const { computeCountMap } = await import("../../lib/count/compute_count_map.ts");
   const { makeWindow } = await import("../../lib/count/make_window.ts");
-  const { seededRandom } = await import("../../lib/demo/random.ts");
+  const { seededRandom } = await import("../../lib/random.ts");
   const random = seededRandom(11);
   const xs: number[] = [], ys: number[] = [];
   for (let i = 0; i < 300; i++) xs.push(random() * 8000), ys.push(random() * 6000);

@@ -5,7 +5,7 @@
 
 import type { StrideGrid, WindowShape } from "../../lib/count/engine_types.ts";
 import type { MultiPolygonPx } from "../../lib/types.ts";
-import { seededRandom } from "../../lib/demo/random.ts";
+import { seededRandom } from "../../lib/random.ts";
 
 /** Exact closed-window counts at every grid centre (direct stamping, per point and row). */
 export function windowCountsHere(

@@ -5,7 +5,7 @@ import {
   quantileOfHistogram,
   quantileSorted,
 } from "../../lib/stats/quantiles.ts";
-import { seededRandom } from "../../lib/demo/random.ts";
+import { seededRandom } from "../../lib/random.ts";
 
 Deno.test("quantileSorted() gives R-7 quartiles of the Wikipedia ten-value list", () => {
   // Wikipedia, "Quantile" article, ten-value example (the list d3-array and
