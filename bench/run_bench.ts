@@ -252,10 +252,10 @@ async function main(): Promise<void> {
   }
 
   log("In-process steps …");
-  const annotations = await optional(() => import("../lib/annotations/mod.ts"));
-  const geometry = await optional(() => import("../lib/geometry/mod.ts"));
-  const count = await optional(() => import("../lib/count/mod.ts"));
-  const stats = await optional(() => import("../lib/stats/mod.ts"));
+  const annotations = await optional(() => import("../lib/mod.ts"));
+  const geometry = await optional(() => import("../lib/mod.ts"));
+  const count = await optional(() => import("../lib/mod.ts"));
+  const stats = await optional(() => import("../lib/mod.ts"));
 
   if (isMissing(annotations) || typeof annotations.loadCase !== "function") {
     missing(

@@ -1,26 +1,208 @@
 /**
  * hotfield: standardized-area mitotic counting on whole-slide annotations.
  *
- * Slide coordinates are level-0 pixels (x right, y down); areas are reported
- * in mm², lengths in µm. Each concern has its own barrel file; this entry
- * re-exports them all.
+ * From annotated figures (points with labels and scores) and tissue, tumour
+ * and exclusion outlines, hotfield counts figures in a standard-area window
+ * (2.37 mm² by default) at every position over the valid tumour tissue,
+ * finds the exact hotspot, summarizes the spread of counts, checks readers'
+ * fields against it and classifies the case under a grading scheme, with
+ * the uncertainty of the count. It supports, never replaces, a pathologist's
+ * diagnosis: follow local guidelines and licensed practice.
+ *
+ * Slide coordinates are level-0 pixels (x right, y down); lengths are in µm
+ * and areas in mm² (names carry their unit: `areaMm2`, `strideUm`, `centerPx`).
+ *
+ * @example From annotations to a report
+ * ```ts
+ * import { buildCaseResult, type CaseData, parseAnnotations } from "hotfield";
+ *
+ * // A 4 × 3 mm tissue piece at 0.5 µm/px with three mitotic figures close together.
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection",
+ *   slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     {
+ *       type: "Feature", properties: { role: "tissue" },
+ *       geometry: { type: "Polygon", coordinates: [[[0, 0], [8000, 0], [8000, 6000], [0, 6000], [0, 0]]] },
+ *     },
+ *     ...[[4000, 3000], [4100, 3050], [4200, 2950]].map((c) => ({
+ *       type: "Feature", properties: { role: "figure", label: "mitotic figure" },
+ *       geometry: { type: "Point", coordinates: c },
+ *     })),
+ *   ],
+ * });
+ * // Files go through loadCase(); text already in memory through parseAnnotations().
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const caseData: CaseData = { caseId: "QVT-24-900", ...parsed, sources: [] };
+ * const { report } = buildCaseResult(caseData, { bestN: 0, strideUm: 100 });
+ * if (report.hotspot?.count !== 3) throw new Error(`hotspot count ${report.hotspot?.count}`);
+ * ```
  *
  * @module
  */
 
-export * from "./types.ts";
-export * from "./units.ts";
-export * from "./errors.ts";
-export { writeFileAtomic } from "./io/write_atomic.ts";
+// Shared plain-data types and units.
+export type {
+  BBoxPx,
+  CaseData,
+  CaseSource,
+  FieldSpec,
+  FigureSet,
+  MultiPolygonPx,
+  PolygonPx,
+  RegionPart,
+  Ring,
+  SlideInfo,
+  Vec2,
+} from "./types.ts";
+export { mm2ToPx2, type Mpp, mppOf, px2ToMm2, pxToUm, umToPx } from "./units.ts";
+export { UsageError } from "./errors.ts";
 export { HOTFIELD_VERSION } from "./version.ts";
-export * from "./report/report_types.ts";
-export * from "./count/engine_types.ts";
-export * from "./annotations/mod.ts";
-export * from "./geometry/mod.ts";
-export * from "./tissue/mod.ts";
-export * from "./count/mod.ts";
-export * from "./stats/mod.ts";
-export * from "./standards/mod.ts";
-export * from "./report/mod.ts";
-export * from "./display/mod.ts";
-export * from "./demo/mod.ts";
+export { type Random, seededRandom } from "./random.ts";
+export {
+  DEFAULT_ASPECT,
+  DEFAULT_BEST_N,
+  DEFAULT_COUNT_LABELS,
+  DEFAULT_FIELD_AREA_MM2,
+  DEFAULT_MIN_COVERAGE,
+  DEFAULT_MIN_SCORE,
+  DEFAULT_SIMULATIONS,
+  DEFAULT_STRIDE_UM,
+  DEFAULT_TOP,
+  DEFAULT_WINDOW_AREA_MM2,
+} from "./defaults.ts";
+
+// Planar geometry (never geodesic).
+export { multiPolygonAreaPx2, polygonAreaPx2 } from "./geometry/planar_area.ts";
+export {
+  buildValidRegion,
+  type ValidRegion,
+  type ValidRegionParts,
+} from "./geometry/valid_region.ts";
+export { createRegionIndex, type RegionIndex } from "./geometry/region_index.ts";
+export { createOverlapIndex, type OverlapIndex } from "./geometry/window_overlap.ts";
+
+// Statistics.
+export { type FiveNumberSummary, fiveNumberSummary, quantileSorted } from "./stats/quantiles.ts";
+export { garwoodInterval, pOtherSide } from "./stats/garwood.ts";
+export { type Agreement, binaryKappa, cohenKappa } from "./stats/kappa.ts";
+
+// Tissue masks.
+export { decodeMaskPng, type Mask, maskToPolygons } from "./tissue/read_mask.ts";
+
+// Reading a case.
+export {
+  type AnnotationRole,
+  parseAnnotations,
+  type ParseAnnotationsOptions,
+  type ParsedAnnotations,
+} from "./annotations/read_annotations.ts";
+export { parseFiguresCsv, type ParseFiguresCsvOptions } from "./annotations/read_figures_csv.ts";
+export { type CaseInput, loadCase, parseCaseFile, readCaseFile } from "./annotations/read_case.ts";
+export { safeCaseId } from "./annotations/case_id.ts";
+
+// The count engine.
+export type {
+  CircleWindow,
+  CountMap,
+  FieldCheck,
+  FigureTally,
+  Placement,
+  PreparedCase,
+  RectWindow,
+  StrideGrid,
+  WindowShape,
+} from "./count/engine_types.ts";
+export { makeWindow, type MakeWindowOptions } from "./count/make_window.ts";
+export { prepareCase, type PrepareCaseOptions } from "./count/prepare_case.ts";
+export { computeCountMap, type ComputeCountMapOptions } from "./count/compute_count_map.ts";
+export { findHotspot, type FindHotspotOptions } from "./count/find_hotspot.ts";
+export { findTopHotspots, type FindTopHotspotsOptions } from "./count/find_top_hotspots.ts";
+export {
+  type BestFieldSet,
+  findBestFieldSet,
+  type FindBestFieldSetOptions,
+} from "./count/find_best_field_set.ts";
+export { type Distribution, summarizeDistribution } from "./count/summarize_distribution.ts";
+export { percentileRank } from "./count/percentile_rank.ts";
+export { checkFields, type CheckFieldsOptions } from "./count/check_fields.ts";
+export { countInWindow } from "./count/window_contains.ts";
+export { scanTest, type ScanTestOptions, type ScanTestResult } from "./count/scan_test.ts";
+
+// Standards: field optics, grading schemes, classes, uncertainty.
+export type { GradingScheme } from "./standards/scheme_types.ts";
+export { getScheme, listSchemes } from "./standards/list_schemes.ts";
+export {
+  convertCount,
+  digitalFieldArea,
+  type FieldOfView,
+  fieldOfView,
+  type FieldOfViewOptions,
+  fieldsForArea,
+} from "./standards/field_of_view.ts";
+export { nottinghamCutoffs, nottinghamScore } from "./standards/nottingham.ts";
+export {
+  type CaseClassification,
+  classifyCounts,
+  type ClassifyCountsInput,
+  rateForBasis,
+  tierForRate,
+} from "./standards/classify.ts";
+export { type CountUncertainty, countUncertainty } from "./standards/uncertainty.ts";
+
+// The per-case pipeline and report.json.
+export type { CaseResult, ReportOptions } from "./pipeline/case_result.ts";
+export { buildCaseResult } from "./pipeline/build_case_result.ts";
+export { classifyReport } from "./pipeline/classify_report.ts";
+export {
+  formatInspectTable,
+  inspectCase,
+  type InspectOptions,
+  type InspectResult,
+} from "./pipeline/inspect_case.ts";
+export {
+  REPORT_SCHEMA,
+  type ReportClassification,
+  type ReportDistribution,
+  type ReportField,
+  type ReportFigures,
+  type ReportJson,
+  type ReportPlacement,
+  type ReportSettings,
+  type ReportUncertainty,
+  type ReportWindow,
+} from "./pipeline/report_types.ts";
+
+// Outputs.
+export {
+  type OutputFormat,
+  writeOutputs,
+  type WriteOutputsOptions,
+} from "./report/write_outputs.ts";
+export { renderCaseHtml, REPORT_CAUTIONS } from "./report/report_html.ts";
+export { renderCohortIndex } from "./report/cohort_index.ts";
+export { caseRow, casesCsv, fieldsCsv } from "./report/report_csv.ts";
+export { caseHotspotGeoJson } from "./report/hotspot_geojson.ts";
+export {
+  admissibleHistogram,
+  cohortFigure,
+  countMapFigure,
+  cutoffLabel,
+  distributionFigure,
+  type PlotFigure,
+} from "./report/plots.ts";
+
+// Notebooks.
+export {
+  type Displayable,
+  JUPYTER_DISPLAY,
+  type MimeBundle,
+  showCohort,
+  showCountMap,
+  showDistribution,
+  showTable,
+} from "./display/show.ts";
+
+// Demo data.
+export { generateDemoCohort } from "./demo/demo_cohort.ts";
+export { demoCaseInputs } from "./demo/run_demo.ts";

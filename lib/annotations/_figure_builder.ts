@@ -5,9 +5,10 @@
  */
 
 import type { FigureSet } from "../types.ts";
+import { DEFAULT_COUNT_LABEL } from "../defaults.ts";
 
 /** The label a figure gets when its input names none. */
-export const DEFAULT_FIGURE_LABEL = "mitotic figure";
+export const DEFAULT_FIGURE_LABEL = DEFAULT_COUNT_LABEL;
 
 /** Appends points one at a time, then freezes them into typed arrays. */
 export class FigureSetBuilder {

@@ -9,6 +9,7 @@ import { readFile, stat } from "node:fs/promises";
 import { UsageError } from "../errors.ts";
 import { type CaseInput, parseCaseFile } from "../annotations/read_case.ts";
 import type { OptionSpec } from "./_args.ts";
+import { DEFAULT_COUNT_LABEL, DEFAULT_COUNT_LABELS, DEFAULT_MIN_SCORE } from "../defaults.ts";
 
 /** The case and counting options (node:util parseArgs spec). */
 export const CASE_OPTIONS: OptionSpec = {
@@ -27,8 +28,8 @@ export const CASE_OPTIONS_HELP = [
   "  --units px|um          unit of the CSV's x and y (default px: level-0 pixels)",
   "  --tissue-mask M.png    tissue from a PNG mask (non-zero = tissue); united with tissue polygons",
   "  --mask-mpp N | N,M     micrometres per mask pixel (x, or x,y); needed with a mask",
-  "  --min-score F          figures with a score below F (0..1) are not counted (default 0)",
-  '  --count-label L        label that is counted; repeat for several (default "mitotic figure")',
+  `  --min-score F          figures with a score below F (0..1) are not counted (default ${DEFAULT_MIN_SCORE})`,
+  `  --count-label L        label that is counted; repeat for several (default "${DEFAULT_COUNT_LABEL}")`,
   "  --id ID                case id (default: slide id, case-file id, or file stem)",
 ].join("\n");
 
@@ -126,7 +127,7 @@ export async function caseInputFromOptions(file: string, values: Values): Promis
 export function countOptionsFromValues(
   values: Values,
 ): { minScore: number; countLabels: string[] } {
-  let minScore = 0;
+  let minScore = DEFAULT_MIN_SCORE;
   const raw = values["min-score"];
   if (raw !== undefined) {
     const text = String(raw).trim();
@@ -139,7 +140,7 @@ export function countOptionsFromValues(
     }
     minScore = v;
   }
-  let countLabels = ["mitotic figure"];
+  let countLabels = [...DEFAULT_COUNT_LABELS];
   const labels = values["count-label"];
   if (labels !== undefined) {
     const list = (Array.isArray(labels) ? labels : [String(labels)]).map((l) => l.trim());

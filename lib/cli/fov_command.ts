@@ -9,9 +9,10 @@ import { UsageError } from "../errors.ts";
 import { fieldOfView, fieldsForArea, MAX_FIELD_DIAMETER_MM } from "../standards/field_of_view.ts";
 import { numberOption, parseOptions } from "./_args.ts";
 import type { CommandIo } from "./_io.ts";
+import { DEFAULT_WINDOW_AREA_MM2 } from "../defaults.ts";
 
 /** Target areas always listed, mm²: 1 (melanoma), 2 (NEN rate), 2.37 (veterinary MC), 5 (GIST), 10 (NEN count). */
-export const COMMON_TARGETS_MM2 = [1, 2, 2.37, 5, 10];
+export const COMMON_TARGETS_MM2 = [1, 2, DEFAULT_WINDOW_AREA_MM2, 5, 10];
 
 const HELP = `Usage: hotfield fov --fn MM --objective X [options]
 
@@ -22,7 +23,7 @@ Options:
   --fn MM             eyepiece field number in mm (e.g. 22)
   --objective X       objective magnification (e.g. 40)
   --tube X            intermediate (tube) magnification factor (default 1)
-  --target-mm2 A      target area in mm² (default 2.37, the veterinary standard)
+  --target-mm2 A      target area in mm² (default ${DEFAULT_WINDOW_AREA_MM2}, the veterinary standard)
   --json              print JSON instead of text
   -h, --help          show this help
 
@@ -69,7 +70,7 @@ export function run(args: string[], io: CommandIo): Promise<number> {
   const fn = numberOption(values, "fn", mustBePositive);
   const objective = numberOption(values, "objective", mustBePositive);
   const tube = numberOption(values, "tube", mustBePositive) ?? 1;
-  const target = numberOption(values, "target-mm2", mustBePositive) ?? 2.37;
+  const target = numberOption(values, "target-mm2", mustBePositive) ?? DEFAULT_WINDOW_AREA_MM2;
   if (fn === undefined) throw new UsageError("Option --fn is required (eyepiece field number, mm)");
   if (objective === undefined) {
     throw new UsageError("Option --objective is required (objective magnification)");

@@ -6,7 +6,7 @@
  */
 
 import { UsageError } from "../errors.ts";
-import { formatInspectTable, inspectCase } from "../annotations/inspect_case.ts";
+import { formatInspectTable, inspectCase } from "../pipeline/inspect_case.ts";
 import { loadCase } from "../annotations/read_case.ts";
 import { parseOptions } from "./_args.ts";
 import {

@@ -9,8 +9,8 @@
 import { join } from "node:path";
 import { UsageError } from "../errors.ts";
 import { loadCase } from "../annotations/read_case.ts";
-import { buildCaseResult } from "../count/build_case_result.ts";
-import type { CaseResult, ReportOptions } from "../count/engine_types.ts";
+import { buildCaseResult } from "../pipeline/build_case_result.ts";
+import type { CaseResult, ReportOptions } from "../pipeline/case_result.ts";
 import { getScheme } from "../standards/list_schemes.ts";
 import { ALL_FORMATS, type OutputFormat, writeOutputs } from "../report/write_outputs.ts";
 import { numberOption, parseOptions } from "./_args.ts";
@@ -21,6 +21,17 @@ import {
   countOptionsFromValues,
 } from "./_case_args.ts";
 import type { CommandIo } from "./_io.ts";
+import {
+  DEFAULT_ASPECT,
+  DEFAULT_BEST_N,
+  DEFAULT_FIELD_AREA_MM2,
+  DEFAULT_MIN_COVERAGE,
+  DEFAULT_SEED,
+  DEFAULT_SIMULATIONS,
+  DEFAULT_STRIDE_UM,
+  DEFAULT_TOP,
+  DEFAULT_WINDOW_AREA_MM2,
+} from "../defaults.ts";
 
 const HELP = `Usage: hotfield report FILE [FILE...] --out DIR [options]
 
@@ -33,17 +44,17 @@ hotfield supports, never replaces, a pathologist's diagnosis.
 
 Options:
   --out DIR              output folder (required)
-  --area MM2             window area in mm² (default 2.37)
+  --area MM2             window area in mm² (default ${DEFAULT_WINDOW_AREA_MM2})
   --shape rect|circle    window shape (default rect)
-  --aspect W:H           rectangle aspect, width along slide x (default 4:3)
-  --stride-um N          distance between grid positions in µm (default 25)
-  --min-coverage F       least fraction of a window inside the valid region, in (0, 1] (default 0.95)
-  --top K                separate best windows to report (default 3)
-  --best-n N             number of single fields in the best field set, 0 to skip (default 10)
-  --field-area MM2       area of one single field in mm² (default 0.2376: field number 22 at 40×)
+  --aspect W:H           rectangle aspect, width along slide x (default ${DEFAULT_ASPECT.join(":")})
+  --stride-um N          distance between grid positions in µm (default ${DEFAULT_STRIDE_UM})
+  --min-coverage F       least fraction of a window inside the valid region, in (0, 1] (default ${DEFAULT_MIN_COVERAGE})
+  --top K                separate best windows to report (default ${DEFAULT_TOP})
+  --best-n N             number of single fields in the best field set, 0 to skip (default ${DEFAULT_BEST_N})
+  --field-area MM2       area of one single field in mm² (default ${DEFAULT_FIELD_AREA_MM2}: field number 22 at 40×)
   --scheme ID            classify against a grading scheme (see hotfield schemes)
-  --simulations N        scan-test simulations with --scheme (0 skips; default 999)
-  --seed N               seed of the simulations (default 1)
+  --simulations N        scan-test simulations with --scheme (0 skips; default ${DEFAULT_SIMULATIONS})
+  --seed N               seed of the simulations (default ${DEFAULT_SEED})
   --format LIST          outputs, comma-separated from json,html,csv,geojson (default all)
   --standalone           put plotting code inside each HTML file
 ${CASE_OPTIONS_HELP}

@@ -281,10 +281,10 @@ function square(
  * relisting only leaves near the new no-overlap zone.
  */
 export function circleSearchBest(st: SearchState, chosen: Placement[]): Placement | null {
-  let cs = st.circle;
+  let cs = st.circle as CircleSearchMemo | null;
   const fresh = !cs || cs.chosen.length > chosen.length ||
     cs.chosen.some((p, i) => chosen[i] !== p);
-  if (fresh) cs = st.circle = startCircleSearch(st);
+  if (fresh) st.circle = cs = startCircleSearch(st);
   for (let i = cs!.chosen.length; i < chosen.length; i++) applyChosen(st, cs!, chosen[i]);
   cs!.chosen = chosen.slice();
   const heap = cs!.heap;

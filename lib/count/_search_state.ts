@@ -10,7 +10,6 @@ import { stampWindowCounts } from "./stamp_window_counts.ts";
 import { type WindowExtents, windowExtents } from "./window_contains.ts";
 import { bucketFigures, type FigureBuckets } from "./_figure_buckets.ts";
 import { createOverlapIndex } from "./_geometry.ts";
-import type { CircleSearchMemo } from "./_circle_search.ts";
 
 /** Coverage within this of the minimum counts as admissible (floating-point slack). */
 export const ADMIT_EPS = 1e-9;
@@ -52,8 +51,12 @@ export interface SearchState {
    */
   memo: Map<number, [number, number, number]>;
   memoUm: number;
-  /** The circle search's open squares and candidates, kept between picks. */
-  circle: CircleSearchMemo | null;
+  /**
+   * The circle search's open squares and candidates, kept between picks.
+   * Opaque here (its type lives in _circle_search.ts) so the two files do not
+   * import each other.
+   */
+  circle: object | null;
 }
 
 /** Prepares a search over `map`'s window. */

@@ -12,6 +12,7 @@ import { rectCoverage } from "./_coverage_rect.ts";
 import { circleCoverage, circleRaster } from "./_coverage_circle.ts";
 import { regionBounds } from "./_region_bbox.ts";
 import { createOverlapIndex } from "./_geometry.ts";
+import { DEFAULT_MAX_GRID_CELLS, DEFAULT_MIN_COVERAGE, DEFAULT_STRIDE_UM } from "../defaults.ts";
 
 /** At most this many circle centres get an exact coverage (each is one disk query). */
 const MAX_EXACT_CIRCLE_REFINEMENTS = 200_000;
@@ -42,11 +43,8 @@ export interface ComputeCountMapOptions {
 }
 
 /** Default stride, µm. */
-export const DEFAULT_STRIDE_UM = 25;
 /** Default minimum coverage. */
-export const DEFAULT_MIN_COVERAGE = 0.95;
 /** Default grid size limit. */
-export const DEFAULT_MAX_GRID_CELLS = 25_000_000;
 /** Approximate bytes the engine holds per grid cell (counts, coverage, bounds, work arrays). */
 export const BYTES_PER_GRID_CELL = 40;
 

@@ -1,6 +1,6 @@
 /**
- * Types of the count engine, shared with the standards, report and display
- * modules. Plain data only, so a whole engine result can cross to a worker.
+ * Types of the count engine, shared with the modules above it. Plain data
+ * only, so a whole engine result can cross to a worker.
  *
  * The engine works in a micrometre plane: x_um = x_px · mppX, y_um = y_px · mppY
  * (x right, y down). Reports convert centres back to level-0 pixels.
@@ -8,8 +8,7 @@
  * @module
  */
 
-import type { CaseData, FieldSpec, MultiPolygonPx, SlideInfo } from "../types.ts";
-import type { ReportJson } from "../report/report_types.ts";
+import type { FieldSpec, MultiPolygonPx, SlideInfo } from "../types.ts";
 
 /** An axis-aligned rectangle window (W along slide x) of a given area. */
 export interface RectWindow {
@@ -116,21 +115,6 @@ export interface Placement {
   perMm2: number;
 }
 
-/** Everything the engine produced for one case: report.json plus what outputs draw. */
-export interface CaseResult {
-  report: ReportJson;
-  prepared: PreparedCase;
-  window: WindowShape;
-  map: CountMap;
-  hotspot: Placement | null;
-  top: Placement[];
-  bestFields: Placement[];
-  /** The window of one of the best separate fields (null when not computed). */
-  bestFieldWindow: WindowShape | null;
-  /** The case as read, for provenance (sources, fields). */
-  caseData: CaseData;
-}
-
 /** One reader's field checked against the count map (see `checkFields`). */
 export interface FieldCheck {
   reader: string;
@@ -152,36 +136,4 @@ export interface FieldCheck {
   featureIndex: number;
   /** Problems with this field, in words. */
   warnings: string[];
-}
-
-/** Options of `buildCaseResult` (what `hotfield report` passes). */
-export interface ReportOptions {
-  /** Window area, mm². @default 2.37 */
-  areaMm2?: number;
-  /** @default "rect" */
-  shape?: "rect" | "circle";
-  /** @default [4, 3] */
-  aspect?: [number, number];
-  /** @default 25 */
-  strideUm?: number;
-  /** @default 0.95 */
-  minCoverage?: number;
-  /** @default 0 */
-  minScore?: number;
-  /** @default ["mitotic figure"] */
-  countLabels?: string[];
-  /** Separate top windows to report. @default 3 */
-  top?: number;
-  /** Number of single fields in the best field set (0 skips it). @default 10 */
-  bestN?: number;
-  /** Single-field area, mm². @default 0.2376 */
-  fieldAreaMm2?: number;
-  /** Grading scheme id; none when absent. */
-  scheme?: string;
-  /** Monte Carlo simulations for the scheme's uncertainty. */
-  simulations?: number;
-  /** Seed of the simulations. */
-  seed?: number;
-  /** Grid size limit (cells). @default 25_000_000 */
-  maxGridCells?: number;
 }

@@ -8,9 +8,9 @@ import type { CountMap, Placement, PreparedCase, WindowShape } from "./engine_ty
 import { computeCountMap } from "./compute_count_map.ts";
 import { makeWindow } from "./make_window.ts";
 import { type AreaIndex, createSearch, searchBest } from "./_hotspot_search.ts";
+import { DEFAULT_BEST_N, DEFAULT_FIELD_AREA_MM2 } from "../defaults.ts";
 
 /** Area of one high-power field of field number 22 at a 40× objective, mm²: π·0.275². */
-export const DEFAULT_FIELD_AREA_MM2 = 0.2376;
 
 /** Options of {@linkcode findBestFieldSet}. */
 export interface FindBestFieldSetOptions {
@@ -102,7 +102,7 @@ export function findBestFieldSet(
   prepared: Pick<PreparedCase, "xUm" | "yUm" | "slide" | "validUm">,
   options: FindBestFieldSetOptions = {},
 ): BestFieldSet {
-  const n = options.n ?? 10;
+  const n = options.n ?? DEFAULT_BEST_N;
   if (!Number.isInteger(n) || n < 0) {
     throw new RangeError(`Number of fields must be a whole number ≥ 0: got ${n}`);
   }

@@ -5,6 +5,7 @@
  */
 
 import type { WindowShape } from "./engine_types.ts";
+import { DEFAULT_ASPECT, DEFAULT_WINDOW_AREA_MM2 } from "../defaults.ts";
 
 /** Options of {@linkcode makeWindow}. */
 export interface MakeWindowOptions {
@@ -17,7 +18,6 @@ export interface MakeWindowOptions {
 }
 
 /** The default window area, mm²: 10 fields of field number 22 at 40× (Meuten et al., Vet Pathol 2016). */
-export const DEFAULT_WINDOW_AREA_MM2 = 2.37;
 
 /**
  * Makes a counting window of a given area.
@@ -58,7 +58,7 @@ export function makeWindow(options: MakeWindowOptions = {}): WindowShape {
   if (shape !== "rect") {
     throw new RangeError(`Window shape must be "rect" or "circle": got "${shape}"`);
   }
-  const aspect = options.aspect ?? [4, 3];
+  const aspect = options.aspect ?? [...DEFAULT_ASPECT] as [number, number];
   if (
     !Array.isArray(aspect) || aspect.length !== 2 ||
     !aspect.every((v) => Number.isFinite(v) && v > 0)

@@ -9,6 +9,7 @@ import type { PreparedCase } from "./engine_types.ts";
 import { px2ToMm2 } from "../units.ts";
 import { buildValidRegion, createRegionIndex, scaleRegion } from "./_geometry.ts";
 import { tallyFigures } from "./tally_figures.ts";
+import { DEFAULT_COUNT_LABELS } from "../defaults.ts";
 
 /** Options of {@linkcode prepareCase}. */
 export interface PrepareCaseOptions {
@@ -19,7 +20,6 @@ export interface PrepareCaseOptions {
 }
 
 /** Label given to figures without one (as the annotation reader does). */
-export const DEFAULT_COUNT_LABELS: readonly string[] = ["mitotic figure"];
 
 /**
  * Prepares a case for counting.

@@ -6,9 +6,9 @@
 
 import type { FigureSet } from "../types.ts";
 import type { FigureTally } from "./engine_types.ts";
+import { DEFAULT_COUNT_LABELS } from "../defaults.ts";
 
 /** The label counted when none is chosen. */
-const DEFAULT_COUNT_LABELS: readonly string[] = ["mitotic figure"];
 
 /** Options of {@linkcode tallyFigures}. */
 export interface TallyFiguresOptions {

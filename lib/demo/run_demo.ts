@@ -19,10 +19,11 @@ import { existsSync, readdirSync } from "node:fs";
 import { join, relative, resolve } from "node:path";
 import { parseArgs } from "node:util";
 import { type CaseInput, loadCase, readCaseFile } from "../annotations/read_case.ts";
-import { buildCaseResult } from "../count/build_case_result.ts";
-import type { CaseResult } from "../count/engine_types.ts";
+import { buildCaseResult } from "../pipeline/build_case_result.ts";
+import type { CaseResult } from "../pipeline/case_result.ts";
 import { writeOutputs } from "../report/write_outputs.ts";
 import { generateDemoCohort } from "./demo_cohort.ts";
+import { DEFAULT_SEED, DEFAULT_SIMULATIONS } from "../defaults.ts";
 
 /**
  * Lists the cases of a demo folder: each `*.case.json`, then each
@@ -77,7 +78,7 @@ export interface RunDemoOptions {
  * @example A case with no admissible window
  * ```ts
  * import { summaryLine } from "./run_demo.ts";
- * import type { CaseResult } from "../count/engine_types.ts";
+ * import type { CaseResult } from "../pipeline/case_result.ts";
  * const line = summaryLine({
  *   report: { case: "QVT-24-005", hotspot: null, valid_area_mm2: 0.83, window: { area_mm2: 2.37 } },
  * } as unknown as CaseResult);
@@ -133,8 +134,8 @@ export async function runDemo(
     const caseData = await loadCase(input);
     const result = buildCaseResult(caseData, {
       scheme: schemes.get(caseData.caseId) ?? "canine-mct-2tier",
-      simulations: options.simulations ?? 999,
-      seed: 1,
+      simulations: options.simulations ?? DEFAULT_SIMULATIONS,
+      seed: DEFAULT_SEED,
     });
     results.push(result);
     print(summaryLine(result));

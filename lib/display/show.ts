@@ -18,7 +18,7 @@
  * @module
  */
 
-import type { CaseResult } from "../count/engine_types.ts";
+import type { CaseResult } from "../pipeline/case_result.ts";
 import {
   cohortFigure,
   countMapFigure,

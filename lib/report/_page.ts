@@ -6,7 +6,20 @@
 
 import { escapeHtml, jsonForScript } from "./html_escape.ts";
 import { PLOT_CONFIG } from "./plots.ts";
-import type { CaseHtmlContext } from "./report_html.ts";
+
+/** What a report page shows besides the result itself. */
+export interface CaseHtmlContext {
+  /** Relative path of the shared plotly.js, or null when it is inlined. */
+  plotlySrc: string | null;
+  /** The plotly.js source to inline when `plotlySrc` is null. */
+  plotlyInline?: string;
+  /** Generation time shown (ISO 8601), or null to leave it out. */
+  generatedAt: string | null;
+  /** hotfield version. */
+  version: string;
+  /** Options of the run, shown as given (keys sorted). */
+  options: Record<string, unknown>;
+}
 
 /** Inline a script so no text in it can close the element or open a comment. */
 export function inlineScriptSource(source: string): string {

@@ -6,7 +6,7 @@
  * @module
  */
 
-import type { CaseResult } from "../count/engine_types.ts";
+import type { CaseResult } from "../pipeline/case_result.ts";
 import { escapeHtml } from "./html_escape.ts";
 import { cohortFigure, cutoffCount } from "./plots.ts";
 import { type CaseHtmlContext, REPORT_CAUTIONS, REPORT_CSS } from "./report_html.ts";

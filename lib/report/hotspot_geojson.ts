@@ -5,7 +5,8 @@
  * @module
  */
 
-import type { CaseResult, Placement, WindowShape } from "../count/engine_types.ts";
+import type { Placement, WindowShape } from "../count/engine_types.ts";
+import type { CaseResult } from "../pipeline/case_result.ts";
 import type { Ring } from "../types.ts";
 
 /** Vertices used to draw a circular window as a polygon. */

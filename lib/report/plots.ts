@@ -16,8 +16,9 @@
  * @module
  */
 
-import type { CaseResult, Placement, WindowShape } from "../count/engine_types.ts";
-import type { ReportClassification } from "./report_types.ts";
+import type { Placement, WindowShape } from "../count/engine_types.ts";
+import type { CaseResult } from "../pipeline/case_result.ts";
+import type { ReportClassification } from "../pipeline/report_types.ts";
 import type { MultiPolygonPx, PolygonPx } from "../types.ts";
 import { windowRingUm } from "./hotspot_geojson.ts";
 

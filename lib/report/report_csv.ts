@@ -11,7 +11,7 @@
  */
 
 import { stringify } from "csv-stringify/sync";
-import type { ReportJson } from "./report_types.ts";
+import type { ReportJson } from "../pipeline/report_types.ts";
 
 /** Columns of `cases.csv`, in order. */
 export const CASE_COLUMNS = [

@@ -10,10 +10,10 @@
  * @module
  */
 
-import type { CaseResult } from "../count/engine_types.ts";
-import type { ReportPlacement } from "./report_types.ts";
+import type { CaseResult } from "../pipeline/case_result.ts";
+import type { ReportPlacement } from "../pipeline/report_types.ts";
 import { escapeHtml } from "./html_escape.ts";
-import { fmt, plotlyScriptTag, plotScripts } from "./_page.ts";
+import { type CaseHtmlContext, fmt, plotlyScriptTag, plotScripts } from "./_page.ts";
 import {
   countMapFigure,
   cutoffCount,
@@ -22,19 +22,7 @@ import {
   windowWords,
 } from "./plots.ts";
 
-/** What a report page shows besides the result itself. */
-export interface CaseHtmlContext {
-  /** Relative path of the shared plotly.js, or null when it is inlined. */
-  plotlySrc: string | null;
-  /** The plotly.js source to inline when `plotlySrc` is null. */
-  plotlyInline?: string;
-  /** Generation time shown (ISO 8601), or null to leave it out. */
-  generatedAt: string | null;
-  /** hotfield version. */
-  version: string;
-  /** Options of the run, shown as given (keys sorted). */
-  options: Record<string, unknown>;
-}
+export type { CaseHtmlContext };
 
 /** The cautions every report carries, as plain sentences. */
 export const REPORT_CAUTIONS: readonly string[] = [

@@ -19,7 +19,7 @@
 
 import { existsSync, mkdirSync, renameSync, rmSync, statSync } from "node:fs";
 import { join } from "node:path";
-import type { CaseResult } from "../count/engine_types.ts";
+import type { CaseResult } from "../pipeline/case_result.ts";
 import { writeFileAtomic } from "../io/write_atomic.ts";
 import { HOTFIELD_VERSION } from "../version.ts";
 import { caseHotspotGeoJson } from "./hotspot_geojson.ts";

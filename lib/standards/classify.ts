@@ -15,11 +15,20 @@
  * @module
  */
 
-import type { ReportClassification, ReportJson } from "../report/report_types.ts";
 import type { GradingScheme, LowerBound } from "./scheme_types.ts";
 
 /** Relative tolerance when comparing rates with cut-offs (rounding of area products). */
 const REL_TOL = 1e-9;
+/** Classification against a scheme's cut-off (the `classification` block of report.json). */
+export interface CaseClassification {
+  scheme: string;
+  cutoff: number;
+  class: "below" | "above" | "field-dependent";
+  fraction_at_or_above: number | null;
+  tier: string | null;
+  [extra: string]: unknown;
+}
+
 /** Window and basis areas closer than this (relative) are treated as equal. */
 export const SAME_AREA_TOLERANCE = 0.005;
 
@@ -194,7 +203,7 @@ export function classifyCounts(
   input: ClassifyCountsInput,
   scheme: GradingScheme,
   options: ClassifyOptions = {},
-): { classification: ReportClassification; warnings: string[] } {
+): { classification: CaseClassification; warnings: string[] } {
   const tierIndex = options.tier ?? scheme.primaryTier;
   if (!Number.isInteger(tierIndex) || tierIndex < 1 || tierIndex >= scheme.tiers.length) {
     throw new RangeError(
@@ -240,7 +249,7 @@ export function classifyCounts(
   });
   const primary = tiers[tierIndex - 1];
   const rate = input.hotspotCount === null ? null : input.hotspotCount / factor;
-  const classification: ReportClassification = {
+  const classification: CaseClassification = {
     scheme: scheme.id,
     cutoff: primary.cutoff,
     class: primary.class,
@@ -266,49 +275,11 @@ export function classifyCounts(
   return { classification, warnings };
 }
 
-/**
- * Classifies a finished report (hotspot count and lower quartile) against a scheme,
- * with the map's counts for `fraction_at_or_above`.
- *
- * @example A report and a tiny map
- * ```ts
- * import { classifyReport } from "./classify.ts";
- * import { getScheme } from "./list_schemes.ts";
- * import type { ReportJson } from "../report/report_types.ts";
- * const report = {
- *   window: { shape: "circle", area_mm2: 2.37, diameter_um: 1737.1 },
- *   hotspot: { center_px: [0, 0], count: 3, coverage: 1, per_mm2: 1.27 },
- *   distribution: { positions: 2, min: 2, q1: 2.25, median: 2.5, q3: 2.75, max: 3, mean: 2.5 },
- * } as unknown as ReportJson;
- * const map = { counts: new Int32Array([2, 3]), admissible: new Uint8Array([1, 1]) };
- * const { classification } = classifyReport(report, getScheme("canine-mct-2tier"), map);
- * if (classification.class !== "below") throw new Error();
- * ```
- */
-export function classifyReport(
-  report: ReportJson,
-  scheme: GradingScheme,
-  map: { counts: ArrayLike<number>; admissible: ArrayLike<number> },
-  options: ClassifyOptions = {},
-): { classification: ReportClassification; warnings: string[] } {
-  return classifyCounts(
-    {
-      hotspotCount: report.hotspot?.count ?? null,
-      q1: report.distribution.q1,
-      windowAreaMm2: report.window.area_mm2,
-      counts: map.counts,
-      admissible: map.admissible,
-    },
-    scheme,
-    options,
-  );
-}
-
 function decide(
   hotspot: number | null,
   q1: number | null,
   minCount: number,
-): ReportClassification["class"] {
+): CaseClassification["class"] {
   if (hotspot === null) return "field-dependent";
   if (hotspot < minCount) return "below";
   if (q1 !== null && q1 >= minCount) return "above";

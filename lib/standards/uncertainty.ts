@@ -5,8 +5,17 @@
  * @module
  */
 
-import type { ReportUncertainty } from "../report/report_types.ts";
 import { garwoodInterval, pOtherSide } from "../stats/garwood.ts";
+
+/** Counting uncertainty (the `uncertainty` block of report.json). */
+export interface CountUncertainty {
+  count_ci95: [number, number];
+  per_mm2_ci95: [number, number];
+  p_other_side: number | null;
+  scan_p: number | null;
+  simulations: number;
+  [extra: string]: unknown;
+}
 
 /** Options of {@linkcode countUncertainty}. */
 export interface CountUncertaintyOptions {
@@ -43,12 +52,12 @@ export function countUncertainty(
   count: number,
   windowAreaMm2: number,
   options: CountUncertaintyOptions = {},
-): ReportUncertainty {
+): CountUncertainty {
   if (!(windowAreaMm2 > 0) || !Number.isFinite(windowAreaMm2)) {
     throw new RangeError(`Window area must be a number > 0 mm²: got ${windowAreaMm2}`);
   }
   const [lo, hi] = garwoodInterval(count, 0.95);
-  const u: ReportUncertainty = {
+  const u: CountUncertainty = {
     count_ci95: [lo, hi],
     per_mm2_ci95: [lo / windowAreaMm2, hi / windowAreaMm2],
     p_other_side: options.minCount === undefined ? null : pOtherSide(count, options.minCount),

@@ -6,7 +6,7 @@ import { countInWindow } from "../../lib/count/window_contains.ts";
 import { percentileRank } from "../../lib/count/percentile_rank.ts";
 import { summarizeDistribution } from "../../lib/count/summarize_distribution.ts";
 import { checkFields } from "../../lib/count/check_fields.ts";
-import { buildCaseResult } from "../../lib/count/build_case_result.ts";
+import { buildCaseResult } from "../../lib/pipeline/build_case_result.ts";
 import { diskOverlapArea, rectOverlapArea } from "../../lib/geometry/window_overlap.ts";
 import type { CaseData, MultiPolygonPx } from "../../lib/types.ts";
 import type { PreparedCase } from "../../lib/count/engine_types.ts";

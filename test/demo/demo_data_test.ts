@@ -10,7 +10,7 @@ import { decode } from "fast-png";
 import { parse } from "csv-parse/sync";
 import { DEMO_SEED, generateDemoCohort } from "../../lib/demo/demo_cohort.ts";
 import { writeDemoData } from "../../lib/demo/write_demo_data.ts";
-import { loadCase, readCaseFile } from "../../lib/annotations/mod.ts";
+import { loadCase, readCaseFile } from "../../lib/mod.ts";
 import { demoCaseInputs, runDemo } from "../../lib/demo/run_demo.ts";
 
 const DEMO_DIR = join(import.meta.dirname!, "..", "..", "data", "demo");

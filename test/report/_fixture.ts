@@ -7,8 +7,9 @@
  * @module
  */
 
-import type { CaseResult, Placement, RectWindow } from "../../lib/count/engine_types.ts";
-import type { ReportJson } from "../../lib/report/report_types.ts";
+import type { Placement, RectWindow } from "../../lib/count/engine_types.ts";
+import type { CaseResult } from "../../lib/pipeline/case_result.ts";
+import type { ReportJson } from "../../lib/pipeline/report_types.ts";
 import type { MultiPolygonPx } from "../../lib/types.ts";
 import { seededRandom } from "../../lib/random.ts";
 

@@ -11,8 +11,8 @@ import { join, resolve } from "node:path";
 import { pathToFileURL } from "node:url";
 import { writeOutputs } from "../../lib/report/write_outputs.ts";
 import { loadCase } from "../../lib/annotations/read_case.ts";
-import { buildCaseResult } from "../../lib/count/build_case_result.ts";
-import type { CaseResult } from "../../lib/count/engine_types.ts";
+import { buildCaseResult } from "../../lib/pipeline/build_case_result.ts";
+import type { CaseResult } from "../../lib/pipeline/case_result.ts";
 import { fixtureResult } from "./_fixture.ts";
 import { type BrowserPage, evaluate, hasChromium, openBrowser, waitFor } from "./_cdp.ts";
 

@@ -3,9 +3,10 @@
 // lib/standards/classify.ts); the cut-offs come from the schemes' sources.
 
 import { strict as assert } from "node:assert";
-import { classifyCounts, classifyReport, minCountFor } from "../../lib/standards/classify.ts";
+import { classifyCounts, minCountFor } from "../../lib/standards/classify.ts";
+import { classifyReport } from "../../lib/pipeline/classify_report.ts";
 import { getScheme } from "../../lib/standards/list_schemes.ts";
-import type { ReportJson } from "../../lib/report/report_types.ts";
+import type { ReportJson } from "../../lib/pipeline/report_types.ts";
 
 const MCT = getScheme("canine-mct-2tier");
 

@@ -32,8 +32,9 @@
  */
 
 import type { MultiPolygonPx } from "../types.ts";
-import type { StrideGrid, WindowShape } from "../count/engine_types.ts";
+import type { StrideGrid, WindowShape } from "./engine_types.ts";
 import { seededRandom } from "../random.ts";
+import { DEFAULT_SIMULATIONS } from "../defaults.ts";
 
 /** Least and greatest number of simulations accepted. */
 export const SCAN_SIMULATIONS_MIN = 19;
@@ -119,7 +120,7 @@ export interface ScanTestResult {
  * ```
  */
 export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): ScanTestResult {
-  const simulations = options.simulations ?? 999;
+  const simulations = options.simulations ?? DEFAULT_SIMULATIONS;
   const seed = options.seed ?? 1;
   if (
     !Number.isInteger(simulations) || simulations < SCAN_SIMULATIONS_MIN ||

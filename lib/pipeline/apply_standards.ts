@@ -5,16 +5,13 @@
  * @module
  */
 
-import type {
-  ReportClassification,
-  ReportJson,
-  ReportUncertainty,
-} from "../report/report_types.ts";
+import type { ReportClassification, ReportJson, ReportUncertainty } from "./report_types.ts";
 import type { CountMap, PreparedCase, WindowShape } from "../count/engine_types.ts";
-import { getScheme } from "./list_schemes.ts";
-import { classifyCounts } from "./classify.ts";
-import { countUncertainty } from "./uncertainty.ts";
-import { scanTest } from "../stats/scan_test.ts";
+import { getScheme } from "../standards/list_schemes.ts";
+import { classifyCounts } from "../standards/classify.ts";
+import { countUncertainty } from "../standards/uncertainty.ts";
+import { scanTest } from "../count/scan_test.ts";
+import { DEFAULT_SEED, DEFAULT_SIMULATIONS } from "../defaults.ts";
 
 export { getScheme };
 
@@ -54,7 +51,7 @@ export interface ApplyStandardsOptions {
  * ```ts
  * import { applyStandards } from "./apply_standards.ts";
  * import type { CountMap, PreparedCase, WindowShape } from "../count/engine_types.ts";
- * import type { ReportJson } from "../report/report_types.ts";
+ * import type { ReportJson } from "./report_types.ts";
  * const window: WindowShape = { shape: "rect", areaMm2: 2.37, widthUm: 1777.6, heightUm: 1333.2, aspect: [4, 3] };
  * const map = {
  *   grid: { x0Um: 888.8, y0Um: 666.6, strideUm: 1777.6, nx: 2, ny: 1 }, window,
@@ -93,8 +90,8 @@ export function applyStandards(
       ],
     };
   }
-  const simulations = options.simulations ?? 999;
-  const seed = options.seed ?? 1;
+  const simulations = options.simulations ?? DEFAULT_SIMULATIONS;
+  const seed = options.seed ?? DEFAULT_SEED;
   const { report, prepared, map, window } = input;
   const { classification, warnings } = classifyCounts({
     hotspotCount: report.hotspot?.count ?? null,

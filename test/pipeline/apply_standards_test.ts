@@ -2,10 +2,10 @@
 // hand-made engine data (plain objects), and with the engine when present.
 
 import { strict as assert } from "node:assert";
-import { applyStandards } from "../../lib/standards/apply_standards.ts";
+import { applyStandards } from "../../lib/pipeline/apply_standards.ts";
 import { garwoodInterval } from "../../lib/stats/garwood.ts";
 import type { CountMap, PreparedCase, WindowShape } from "../../lib/count/engine_types.ts";
-import type { ReportJson } from "../../lib/report/report_types.ts";
+import type { ReportJson } from "../../lib/pipeline/report_types.ts";
 
 const WINDOW: WindowShape = {
   shape: "rect",

@@ -5,35 +5,34 @@
  */
 
 import type { CaseData } from "../types.ts";
-import type {
-  CaseResult,
-  CountMap,
-  Placement,
-  PreparedCase,
-  ReportOptions,
-  WindowShape,
-} from "./engine_types.ts";
+import type { CountMap, Placement, PreparedCase, WindowShape } from "../count/engine_types.ts";
+import type { CaseResult, ReportOptions } from "./case_result.ts";
 import {
   REPORT_SCHEMA,
   type ReportJson,
   type ReportPlacement,
   type ReportWindow,
-} from "../report/report_types.ts";
+} from "./report_types.ts";
 import { HOTFIELD_VERSION } from "../version.ts";
-import { makeWindow } from "./make_window.ts";
-import { prepareCase } from "./prepare_case.ts";
-import { computeCountMap, DEFAULT_MIN_COVERAGE, DEFAULT_STRIDE_UM } from "./compute_count_map.ts";
-import { createSearch, searchBest } from "./_hotspot_search.ts";
-import type { AreaIndex } from "./_hotspot_search.ts";
+import { makeWindow } from "../count/make_window.ts";
+import { prepareCase } from "../count/prepare_case.ts";
+import { computeCountMap } from "../count/compute_count_map.ts";
+import { type AreaIndex, createSearch, searchBest } from "../count/placement_search.ts";
 import {
   type BestFieldSet,
   findBestFieldSet,
   type FindBestFieldSetOptions,
-} from "./find_best_field_set.ts";
-import { summarizeDistribution } from "./summarize_distribution.ts";
-import { checkFields } from "./check_fields.ts";
-import { createOverlapIndex } from "./_geometry.ts";
-import { applyStandards } from "../standards/apply_standards.ts";
+} from "../count/find_best_field_set.ts";
+import { summarizeDistribution } from "../count/summarize_distribution.ts";
+import { checkFields } from "../count/check_fields.ts";
+import { createOverlapIndex } from "../geometry/window_overlap.ts";
+import { applyStandards } from "./apply_standards.ts";
+import {
+  DEFAULT_BEST_N,
+  DEFAULT_MIN_COVERAGE,
+  DEFAULT_STRIDE_UM,
+  DEFAULT_TOP,
+} from "../defaults.ts";
 
 /** Rounds to d decimals (stable text in report.json). */
 export function roundTo(v: number, d: number): number {
@@ -142,7 +141,7 @@ export interface CaseResultParts {
  * @example
  * ```ts
  * import { bestFieldSetOptions, finishCaseResult, startCaseResult } from "./build_case_result.ts";
- * import { findBestFieldSet } from "./find_best_field_set.ts";
+ * import { findBestFieldSet } from "../count/find_best_field_set.ts";
  * const sq = [[[0, 0], [6000, 0], [6000, 6000], [0, 6000], [0, 0]]] as [number, number][][];
  * const parts = startCaseResult({
  *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
@@ -170,8 +169,8 @@ export function startCaseResult(
   });
   const strideUm = options.strideUm ?? DEFAULT_STRIDE_UM;
   const minCoverage = options.minCoverage ?? DEFAULT_MIN_COVERAGE;
-  const topK = options.top ?? 3;
-  const bestN = options.bestN ?? 10;
+  const topK = options.top ?? DEFAULT_TOP;
+  const bestN = options.bestN ?? DEFAULT_BEST_N;
   prepared ??= prepareCaseFor(caseData, options);
   const warnings = [...prepared.warnings];
   const map = computeCountMap(prepared, window, {

@@ -7,9 +7,9 @@
 // with the engine.
 
 import { strict as assert } from "node:assert";
-import { scanTest } from "../../lib/stats/scan_test.ts";
+import { scanTest } from "../../lib/count/scan_test.ts";
 import type { WindowShape } from "../../lib/count/engine_types.ts";
-import { admissibleInBox, boxRegion, uniformInBox, windowCountsHere } from "./_helpers.ts";
+import { admissibleInBox, boxRegion, uniformInBox, windowCountsHere } from "../stats/_helpers.ts";
 
 const BOX: [number, number, number, number] = [0, 0, 8000, 6000];
 // 4:3 rectangle and circle of 2.37 mm² (REFERENCES.md §1, C): 1777.6 × 1333.2 µm, Ø 1737.1 µm.

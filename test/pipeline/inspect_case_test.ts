@@ -7,7 +7,7 @@
 import { strict as assert } from "node:assert";
 import GeoJSONReader from "jsts/org/locationtech/jts/io/GeoJSONReader.js";
 import "jsts/org/locationtech/jts/monkey.js";
-import { formatInspectTable, inspectCase } from "../../lib/annotations/inspect_case.ts";
+import { formatInspectTable, inspectCase } from "../../lib/pipeline/inspect_case.ts";
 import { parseAnnotations } from "../../lib/annotations/read_annotations.ts";
 import { loadCase } from "../../lib/annotations/read_case.ts";
 import type { CaseData } from "../../lib/types.ts";

@@ -12,6 +12,7 @@ import { createRegionIndex } from "../geometry/region_index.ts";
 import { buildValidRegion } from "../geometry/valid_region.ts";
 import type { CaseData } from "../types.ts";
 import { px2ToMm2 } from "../units.ts";
+import { DEFAULT_COUNT_LABELS } from "../defaults.ts";
 
 /** Options of {@linkcode inspectCase}. */
 export interface InspectOptions {
@@ -80,7 +81,7 @@ export function inspectCase(caseData: CaseData, options: InspectOptions = {}): I
   const minScore = options.minScore ?? 0;
   const countLabels = options.countLabels && options.countLabels.length > 0
     ? [...options.countLabels]
-    : ["mitotic figure"];
+    : [...DEFAULT_COUNT_LABELS];
   const { slide, figures } = caseData;
   const mpp = { mppX: slide.mppX, mppY: slide.mppY };
   const v = buildValidRegion({

@@ -8,6 +8,9 @@
  * @module
  */
 
+import type { CaseClassification } from "../standards/classify.ts";
+import type { CountUncertainty } from "../standards/uncertainty.ts";
+
 /** Schema id written into every report. */
 export const REPORT_SCHEMA = "hotfield.report/1" as const;
 
@@ -85,25 +88,11 @@ export interface ReportField {
   feature_index?: number;
 }
 
-/** Classification against a scheme's cut-off (standards issue). */
-export interface ReportClassification {
-  scheme: string;
-  cutoff: number;
-  class: "below" | "above" | "field-dependent";
-  fraction_at_or_above: number | null;
-  tier: string | null;
-  [extra: string]: unknown;
-}
+/** Classification against a scheme's cut-off (see `classifyCounts`). */
+export type ReportClassification = CaseClassification;
 
-/** Counting uncertainty (standards issue). */
-export interface ReportUncertainty {
-  count_ci95: [number, number];
-  per_mm2_ci95: [number, number];
-  p_other_side: number | null;
-  scan_p: number | null;
-  simulations: number;
-  [extra: string]: unknown;
-}
+/** Counting uncertainty of the hotspot count (see `countUncertainty`). */
+export type ReportUncertainty = CountUncertainty;
 
 /** The whole report. */
 export interface ReportJson {
