@@ -104,6 +104,28 @@ export interface CaseSource {
   sha256: string;
 }
 
+/**
+ * Report settings a case file names for its own case (they win over the
+ * command line's options for that case). Plain data; the pipeline checks the
+ * scheme id.
+ */
+export interface CaseSettings {
+  /** Grading scheme id. */
+  scheme?: string;
+  /** Least figure score that is counted, in [0, 1]. */
+  minScore?: number;
+  /** Figure labels that are counted. */
+  countLabels?: string[];
+  /** Window area, mm². */
+  areaMm2?: number;
+  /** Window shape. */
+  shape?: "rect" | "circle";
+  /** Spacing of window centres, µm. */
+  strideUm?: number;
+  /** Least fraction of a window inside the valid region, in (0, 1]. */
+  minCoverage?: number;
+}
+
 /** Everything hotfield read for one case, before any computation. */
 export interface CaseData {
   /** Case id: `slide.id`, else the file stem, made safe for a folder name. */
@@ -117,4 +139,12 @@ export interface CaseData {
   sources: CaseSource[];
   /** Recoverable problems found while reading (never printed by the library). */
   warnings: string[];
+  /**
+   * Problems found while reading that make any count meaningless, such as
+   * figure coordinates that fit the slide only in another unit. Each is also
+   * in `warnings`; the pipeline leaves such a case unclassified.
+   */
+  countProblems?: string[];
+  /** Report settings named by the case file, if any. */
+  settings?: CaseSettings;
 }

@@ -12,6 +12,8 @@
  *   "figures": { "path": "QVT-24-003.figures.csv", "units": "px" },
  *   "tissue_mask": { "path": "QVT-24-003.tissue.png", "mpp": 8 },
  *   "slide": { "id": "QVT-24-003", "mpp": 0.25, "width": 80000, "height": 60000 },
+ *   "scheme": "canine-mct-2tier",
+ *   "min_score": 0.5,
  *   "notes": "free text, ignored"
  * }
  * ```
@@ -26,6 +28,11 @@
  *   the annotation file's field by field (a warning names each change). With
  *   no `annotations`, `slide` must give the mpp, and the tissue comes from the
  *   mask and the figures from the CSV.
+ * - Report settings for this case may be named: `scheme` (a scheme id),
+ *   `min_score` (0–1), `count_labels` (a list of labels), `area_mm2`,
+ *   `shape` (`"rect"` or `"circle"`), `stride_um` and `min_coverage`. They win
+ *   over the command line's options for this case (a warning says when they
+ *   differ from an option given there).
  * - Unknown members are an error, so that a misspelt name is not ignored.
  *
  * ## How inputs combine
@@ -35,9 +42,14 @@
  * - Figures: when a figures CSV is given, its points are used and any
  *   `figure` features of the GeoJSON are ignored, with a warning. Combining
  *   both would count a figure twice whenever both inputs mark it.
- * - Case id: the `--id` override, else `slide.id`, else the case file's `id`,
+ * - Case id: the `--id` override, else the case file's `id`, else `slide.id`,
  *   else the file stem (annotation file, else case file), made safe with
- *   {@linkcode safeCaseId}.
+ *   {@linkcode safeCaseId}. A warning names an id that another one replaces.
+ * - Figure units: when a figures CSV's coordinates fit the slide's regions
+ *   only in the other unit (most points outside as stated, nearly all inside
+ *   when read as µm instead of px or the reverse), the case carries a count
+ *   problem (left unclassified) unless the unit was stated explicitly; then it
+ *   is a warning.
  *
  * @module
  */
@@ -46,7 +58,14 @@ import { createHash } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import { basename, dirname, isAbsolute, join } from "node:path";
 import { inputError } from "../errors.ts";
-import type { CaseData, CaseSource, RegionPart, SlideInfo } from "../types.ts";
+import type {
+  CaseData,
+  CaseSettings,
+  CaseSource,
+  FigureSet,
+  RegionPart,
+  SlideInfo,
+} from "../types.ts";
 import { checkMaskSize, decodeMaskPng, maskToPolygons } from "../tissue/read_mask.ts";
 import { describe } from "./_describe.ts";
 import { emptyFigureSet } from "./_figure_builder.ts";
@@ -65,6 +84,8 @@ export interface CaseInput {
   figuresPath?: string;
   /** Unit of the CSV's x and y. @default "px" */
   figureUnits?: "px" | "um";
+  /** True when the user stated the unit (an option or the case file), not a default. */
+  figureUnitsStated?: boolean;
   /** PNG tissue mask (non-zero pixels are tissue). */
   tissueMaskPath?: string;
   /** Micrometres per mask pixel, one value or `[x, y]`; required with a mask. */
@@ -77,10 +98,22 @@ export interface CaseInput {
   caseFileId?: string;
   /** Slide fields replacing those of the annotation file. */
   slide?: SlideMember;
+  /** Report settings named by the case file. */
+  settings?: CaseSettings;
 }
 
 /** The version of the case-file format this code reads. */
 export const CASE_FILE_VERSION = 1;
+
+const SETTING_KEYS = [
+  "scheme",
+  "min_score",
+  "count_labels",
+  "area_mm2",
+  "shape",
+  "stride_um",
+  "min_coverage",
+];
 
 const CASE_KEYS = [
   "hotfield_case",
@@ -90,6 +123,7 @@ const CASE_KEYS = [
   "tissue_mask",
   "slide",
   "notes",
+  ...SETTING_KEYS,
 ];
 
 /**
@@ -224,6 +258,7 @@ export function parseCaseFile(text: string, path: string): CaseInput {
         }
       }
       input.figuresPath = needPath(f.path, "figures.path");
+      if (f.units !== undefined) input.figureUnitsStated = true;
       const units = f.units ?? "px";
       if (units !== "px" && units !== "um") {
         throw inputError(
@@ -293,6 +328,8 @@ export function parseCaseFile(text: string, path: string): CaseInput {
     }
     input.slide = c.slide as SlideMember;
   }
+  const settings = parseSettings(c, (detail) => inputError(TypeError, what, path, detail));
+  if (Object.keys(settings).length > 0) input.settings = settings;
   if (input.annotationsPath === undefined && input.slide === undefined) {
     throw inputError(
       TypeError,
@@ -302,6 +339,52 @@ export function parseCaseFile(text: string, path: string): CaseInput {
     );
   }
   return input;
+}
+
+/** Reads the report settings members of a case file; `fail(detail)` builds the error. */
+function parseSettings(c: Record<string, unknown>, fail: (detail: string) => Error): CaseSettings {
+  const out: CaseSettings = {};
+  const num = (key: string, ok: (v: number) => boolean, range: string): number | undefined => {
+    const v = c[key];
+    if (v === undefined) return undefined;
+    if (typeof v !== "number" || !Number.isFinite(v) || !ok(v)) {
+      throw fail(`"${key}" must be a number ${range}: found ${describe(v)}`);
+    }
+    return v;
+  };
+  if (c.scheme !== undefined) {
+    if (typeof c.scheme !== "string" || c.scheme.trim() === "") {
+      throw fail(
+        `"scheme" must be a scheme id (see hotfield schemes): found ${describe(c.scheme)}`,
+      );
+    }
+    out.scheme = c.scheme.trim();
+  }
+  const minScore = num("min_score", (v) => v >= 0 && v <= 1, "in [0, 1]");
+  if (minScore !== undefined) out.minScore = minScore;
+  if (c.count_labels !== undefined) {
+    const v = c.count_labels;
+    if (
+      !Array.isArray(v) || v.length === 0 ||
+      v.some((l) => typeof l !== "string" || l.trim() === "")
+    ) {
+      throw fail(`"count_labels" must be a list of non-empty labels: found ${describe(v)}`);
+    }
+    out.countLabels = [...new Set(v.map((l: string) => l.trim()))];
+  }
+  const area = num("area_mm2", (v) => v > 0, "> 0 (mm²)");
+  if (area !== undefined) out.areaMm2 = area;
+  if (c.shape !== undefined) {
+    if (c.shape !== "rect" && c.shape !== "circle") {
+      throw fail(`"shape" must be "rect" or "circle": found ${describe(c.shape)}`);
+    }
+    out.shape = c.shape;
+  }
+  const stride = num("stride_um", (v) => v > 0, "> 0 (µm)");
+  if (stride !== undefined) out.strideUm = stride;
+  const cover = num("min_coverage", (v) => v > 0 && v <= 1, "in (0, 1]");
+  if (cover !== undefined) out.minCoverage = cover;
+  return out;
 }
 
 /**
@@ -350,6 +433,7 @@ function checkMaskMpp(
  */
 export async function loadCase(input: CaseInput): Promise<CaseData> {
   const warnings: string[] = [];
+  const countProblems: string[] = [];
   const sources: CaseSource[] = [];
   const record = (kind: CaseSource["kind"], path: string, bytes: Uint8Array) =>
     sources.push({ kind, path, sha256: createHash("sha256").update(bytes).digest("hex") });
@@ -403,6 +487,15 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
     }
     figures = csv.figures;
     warnings.push(...figurePositionWarnings(figures, slide, path, "line"));
+    const unitDoubt = figureUnitDoubt(figures, slide, [...tissue, ...tumour], {
+      path,
+      units: input.figureUnits ?? "px",
+      stated: input.figureUnitsStated === true,
+    });
+    if (unitDoubt !== null) {
+      warnings.push(unitDoubt.message);
+      if (unitDoubt.blocking) countProblems.push(unitDoubt.message);
+    }
   }
 
   if (input.tissueMaskPath !== undefined) {
@@ -456,14 +549,101 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
     );
   }
 
-  const rawId = input.idOverride ?? (slide.id !== "" ? slide.id : undefined) ?? input.caseFileId ??
-    fileStem(mainFile ?? "case");
+  const slideId = slide.id !== "" ? slide.id : undefined;
+  const named: [string, string | undefined][] = [
+    ["--id", input.idOverride],
+    ["the case file's id", input.caseFileId],
+    ["the slide id", slideId],
+  ];
+  const chosen = named.find(([, v]) => v !== undefined && v.trim() !== "");
+  const rawId = chosen?.[1] ?? fileStem(mainFile ?? "case");
+  for (const [source, value] of named) {
+    if (chosen && source !== chosen[0] && value !== undefined && value !== rawId) {
+      warnings.push(`Case id "${rawId}" (from ${chosen[0]}) replaces "${value}" (${source})`);
+    }
+  }
   const caseId = safeCaseId(rawId);
   if (caseId !== rawId.trim() && rawId.trim() !== "") {
     warnings.push(`Case id "${rawId}" is written "${caseId}" so that it is safe as a folder name`);
   }
-  if (figures.xPx.length === 0) warnings.push("The case has no figure points");
-  return { caseId, slide, tissue, tumour, exclude, figures, fields, sources, warnings };
+  if (figures.xPx.length === 0) {
+    warnings.push(
+      "The case has no figure points: a count of 0 is only as good as the annotations' completeness",
+    );
+  }
+  const out: CaseData = {
+    caseId,
+    slide,
+    tissue,
+    tumour,
+    exclude,
+    figures,
+    fields,
+    sources,
+    warnings,
+  };
+  if (countProblems.length > 0) out.countProblems = countProblems;
+  if (input.settings !== undefined) out.settings = { ...input.settings };
+  return out;
+}
+
+/** Share of points inside a box grown by 5% on each side. */
+function shareInside(
+  xs: ArrayLike<number>,
+  ys: ArrayLike<number>,
+  box: [number, number, number, number],
+  scaleX: number,
+  scaleY: number,
+): number {
+  const gx = (box[2] - box[0]) * 0.05, gy = (box[3] - box[1]) * 0.05;
+  let n = 0;
+  for (let k = 0; k < xs.length; k++) {
+    const x = xs[k] * scaleX, y = ys[k] * scaleY;
+    if (x >= box[0] - gx && x <= box[2] + gx && y >= box[1] - gy && y <= box[3] + gy) n++;
+  }
+  return xs.length === 0 ? 1 : n / xs.length;
+}
+
+/**
+ * A figures CSV whose points fit the slide's regions (or its size) only when
+ * read in the other unit: the message, and whether it voids the count (the
+ * unit was a default, not stated).
+ */
+function figureUnitDoubt(
+  figures: FigureSet,
+  slide: SlideInfo,
+  regions: RegionPart[],
+  csv: { path: string; units: "px" | "um"; stated: boolean },
+): { message: string; blocking: boolean } | null {
+  if (figures.xPx.length < 5) return null;
+  let box: [number, number, number, number] | null = null;
+  for (const part of regions) {
+    for (const polygon of part.polygons) {
+      for (const [x, y] of polygon[0] ?? []) {
+        box ??= [x, y, x, y];
+        box = [Math.min(box[0], x), Math.min(box[1], y), Math.max(box[2], x), Math.max(box[3], y)];
+      }
+    }
+  }
+  if (box === null && slide.widthPx !== undefined && slide.heightPx !== undefined) {
+    box = [0, 0, slide.widthPx, slide.heightPx];
+  }
+  if (box === null) return null;
+  // As read, points are level-0 px. Read the other way: values in µm that were
+  // taken as px are px·mpp too large; values in px taken as µm are too small.
+  const [sx, sy] = csv.units === "px" ? [1 / slide.mppX, 1 / slide.mppY] : [slide.mppX, slide.mppY];
+  const asRead = shareInside(figures.xPx, figures.yPx, box, 1, 1);
+  const other = shareInside(figures.xPx, figures.yPx, box, sx, sy);
+  if (!(asRead < 0.5 && other >= 0.9)) return null;
+  const pct = (v: number) => `${Math.round(v * 100)}%`;
+  const [stated, alt, option] = csv.units === "px"
+    ? ["pixels", "micrometres", '--units um, or "units": "um" in the case file']
+    : ["micrometres", "pixels", '--units px, or "units": "px" in the case file'];
+  const message = `Figures CSV "${csv.path}": only ${pct(asRead)} of its ${figures.xPx.length} ` +
+    `points fall within the slide's regions when x and y are read as ${stated}, but ` +
+    `${pct(other)} do when read as ${alt}: the coordinates look like ${alt} (${option})` +
+    (csv.stated ? "; the unit was stated, so the points are counted as given" : "");
+  return { message, blocking: !csv.stated };
 }
 
 /** The file name without folders and without `.case.json`, `.geojson` or `.json` (or another extension). */

@@ -84,6 +84,7 @@ export async function caseInputFromOptions(file: string, values: Values): Promis
       throw new UsageError("Option --units applies to a figures CSV: give --figures FILE.csv");
     }
     input.figureUnits = units;
+    input.figureUnitsStated = true;
   } else if (figures !== undefined) {
     input.figureUnits = "px";
   }

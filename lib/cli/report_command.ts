@@ -57,10 +57,16 @@ Options:
   --seed N               seed of the simulations (default ${DEFAULT_SEED})
   --format LIST          outputs, comma-separated from json,html,csv,geojson (default all)
   --standalone           put plotting code inside each HTML file
+  --allow-empty          classify a case even when nothing was counted (figures present,
+                         none counted) or its figures' unit is in doubt; by default it is
+                         left unclassified
+  --strict               exit 1 when any case has a warning (for unattended runs); the
+                         reports are still written
 ${CASE_OPTIONS_HELP}
   -h, --help             show this help
 
-Exit codes: 0 reports written, 1 bad input or output folder, 2 bad options.
+Exit codes: 0 reports written, 1 bad input or output folder (or a warning under
+--strict), 2 bad options.
 `;
 
 const REPORT_OPTIONS = {
@@ -73,6 +79,8 @@ const REPORT_OPTIONS = {
   top: { type: "string" },
   "best-n": { type: "string" },
   "field-area": { type: "string" },
+  "allow-empty": { type: "boolean" },
+  strict: { type: "boolean" },
   scheme: { type: "string" },
   simulations: { type: "string" },
   seed: { type: "string" },
@@ -153,6 +161,7 @@ export function reportOptionsFromValues(values: Values): ReportOptions {
     "seed",
     (v) => (Number.isInteger(v) ? undefined : "must be a whole number"),
   );
+  if (values["allow-empty"] === true) options.allowEmpty = true;
   for (const k of Object.keys(options) as (keyof ReportOptions)[]) {
     if (options[k] === undefined) delete options[k];
   }
@@ -242,6 +251,22 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
       `${r.prepared.caseId}\thotspot ${h ? `${h.count} (${h.per_mm2} /mm²)` : "none"}\t` +
         `positions ${r.report.distribution.positions}\t${where}\n`,
     );
+    io.stdout(caseNotes(r));
+  }
+  const warned = results.filter((r) => r.report.warnings.length > 0);
+  if (values.strict === true && warned.length > 0) {
+    io.stderr(
+      `report: --strict: ${warned.length} case(s) with warnings: ` +
+        `${warned.map((r) => r.prepared.caseId).join(", ")}\n`,
+    );
+    return 1;
   }
   return 0;
+}
+
+/** The verdict and every warning of a case, indented under its summary line. */
+export function caseNotes(r: Pick<CaseResult, "report">): string {
+  const lines = [`  verdict: ${r.report.verdict ?? ""}`];
+  for (const w of r.report.warnings) lines.push(`  warning: ${w}`);
+  return lines.join("\n") + "\n";
 }

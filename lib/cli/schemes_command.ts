@@ -17,7 +17,8 @@ const HELP = `Usage: hotfield schemes [options]
 Lists the grading schemes hotfield knows: id, tumour and species, the area
 their counts refer to, the mitotic cut-offs as each source states them, and
 the sources with their confidence marks (V verified, V2 verified through a
-secondary copy, C computed, M from memory, CP common practice).
+secondary copy, C computed, M unconfirmed against the primary publication, CP common
+practice).
 
 Options:
   --scheme ID    show one scheme in full
@@ -113,7 +114,8 @@ export function run(args: string[], io: CommandIo): Promise<number> {
     return lines.join("\n");
   });
   io.stdout(
-    blocks.join("\n\n") + "\n\nMarks: V verified, V2 via a secondary copy, M from memory. " +
+    blocks.join("\n\n") +
+      "\n\nMarks: V verified, V2 via a secondary copy, M unconfirmed (check against your local guideline). " +
       "Run with --scheme ID for citations and notes.\n",
   );
   return Promise.resolve(0);

@@ -113,6 +113,11 @@ export interface Placement {
   count: number;
   coverage: number;
   perMm2: number;
+  /**
+   * How far (µm) the centre can move in any direction before the count
+   * changes; set by `settlePlacement`, absent elsewhere.
+   */
+  marginUm?: number;
 }
 
 /** One reader's field checked against the count map (see `checkFields`). */

@@ -27,6 +27,11 @@ import { summarizeDistribution } from "../count/summarize_distribution.ts";
 import { checkFields } from "../count/check_fields.ts";
 import { createOverlapIndex } from "../geometry/window_overlap.ts";
 import { applyStandards } from "./apply_standards.ts";
+import { checkCounting } from "./count_checks.ts";
+import { caseVerdict } from "./verdict.ts";
+import { settlePlacement } from "../count/settle_placement.ts";
+import { countInWindow } from "../count/window_contains.ts";
+import { getScheme } from "../standards/list_schemes.ts";
 import {
   DEFAULT_BEST_N,
   DEFAULT_MIN_COVERAGE,
@@ -56,6 +61,7 @@ export function reportWindow(w: WindowShape): ReportWindow {
 
 /** A placement as report.json gives it: centres to 0.01, coverage to 6 decimals, per mm² to 4. */
 export function reportPlacement(p: Placement, rank?: number): ReportPlacement {
+  // (The centre's printed precision is settled by the caller when it matters.)
   const out: ReportPlacement = {
     center_px: [roundTo(p.centerPx[0], 2), roundTo(p.centerPx[1], 2)],
     count: p.count,
@@ -159,9 +165,11 @@ export interface CaseResultParts {
  */
 export function startCaseResult(
   caseData: CaseData,
-  options: ReportOptions = {},
+  given: ReportOptions = {},
   prepared?: PreparedCase,
 ): CaseResultParts {
+  const settingWarnings: string[] = [];
+  const options = caseOptions(caseData, given, settingWarnings);
   const window = makeWindow({
     areaMm2: options.areaMm2,
     shape: options.shape,
@@ -172,7 +180,7 @@ export function startCaseResult(
   const topK = options.top ?? DEFAULT_TOP;
   const bestN = options.bestN ?? DEFAULT_BEST_N;
   prepared ??= prepareCaseFor(caseData, options);
-  const warnings = [...prepared.warnings];
+  const warnings = [...prepared.warnings, ...settingWarnings];
   const map = computeCountMap(prepared, window, {
     strideUm,
     minCoverage,
@@ -181,7 +189,10 @@ export function startCaseResult(
   const overlap = createOverlapIndex(prepared.validUm) as AreaIndex;
   const search = createSearch(prepared, map, overlap);
   const top: Placement[] = [];
-  const hotspot: Placement | null = searchBest(search, top);
+  const found = searchBest(search, top);
+  // Off the knife edge: the same figures, a centre far from every rim.
+  const hotspot: Placement | null = found &&
+    settlePlacement(prepared, window, found, { overlap, minCoverage });
   if (hotspot) {
     top.push(hotspot);
     while (top.length < topK) {
@@ -226,7 +237,51 @@ export function startCaseResult(
  * ```
  */
 export function prepareCaseFor(caseData: CaseData, options: ReportOptions = {}): PreparedCase {
-  return prepareCase(caseData, { minScore: options.minScore, countLabels: options.countLabels });
+  const o = caseOptions(caseData, options, []);
+  return prepareCase(caseData, { minScore: o.minScore, countLabels: o.countLabels });
+}
+
+/**
+ * The options for one case: `options` with the case file's own settings
+ * laid over them (a warning for each that differs from a given option). An
+ * unknown scheme named by the case file is an error naming the file.
+ */
+function caseOptions(
+  caseData: CaseData,
+  options: ReportOptions,
+  warnings: string[],
+): ReportOptions {
+  const settings = caseData.settings;
+  if (settings === undefined) return options;
+  const file = caseData.sources.find((s) => s.kind === "case")?.path ?? caseData.caseId;
+  if (settings.scheme !== undefined) {
+    try {
+      getScheme(settings.scheme);
+    } catch (e) {
+      throw new TypeError(`Cannot read case file "${file}": ${(e as Error).message}`, { cause: e });
+    }
+  }
+  const out: ReportOptions = { ...options };
+  const names: Record<string, string> = {
+    scheme: "scheme",
+    minScore: "min_score",
+    countLabels: "count_labels",
+    areaMm2: "area_mm2",
+    shape: "shape",
+    strideUm: "stride_um",
+    minCoverage: "min_coverage",
+  };
+  for (const [key, value] of Object.entries(settings) as [keyof typeof settings, unknown][]) {
+    const before = (options as Record<string, unknown>)[key];
+    if (before !== undefined && JSON.stringify(before) !== JSON.stringify(value)) {
+      warnings.push(
+        `The case file "${file}" sets ${names[key]} to ${JSON.stringify(value)}; the option's ` +
+          `${JSON.stringify(before)} is not used for this case`,
+      );
+    }
+    (out as Record<string, unknown>)[key] = value;
+  }
+  return out;
 }
 
 /**
@@ -270,6 +325,10 @@ export function bestFieldSetOptions(
 export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | null): CaseResult {
   const { caseData, options, prepared, window, strideUm, minCoverage, topK, bestN, map, overlap } =
     parts;
+  const check = checkCounting(caseData, prepared.tally, {
+    countLabels: prepared.countLabels,
+    minScore: prepared.minScore,
+  });
   const top = parts.top;
   const hotspot = parts.hotspot;
   const warnings = [...parts.warnings];
@@ -286,6 +345,15 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
     histogram: dist.histogram,
   });
   for (const c of checks) warnings.push(...c.warnings);
+  warnings.push(...check.warnings, ...check.problems.filter((p) => !warnings.includes(p)));
+  const blocked = check.problems.length > 0 && options.allowEmpty !== true;
+  if (blocked && options.scheme) {
+    warnings.push(
+      `Not classified: the count is not meaningful (${check.problems.length} problem` +
+        `${check.problems.length === 1 ? "" : "s"} above); fix the input, or give --allow-empty ` +
+        `to classify anyway`,
+    );
+  }
   const { mppX, mppY } = prepared.slide;
   const g = map.grid;
   const report: ReportJson = {
@@ -312,7 +380,7 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
       below_score: prepared.tally.below_score,
       by_label: prepared.tally.by_label,
     },
-    hotspot: hotspot ? reportPlacement(hotspot) : null,
+    hotspot: hotspot ? settledReport(hotspot, prepared, window) : null,
     distribution: {
       positions: dist.positions,
       min: dist.min,
@@ -350,7 +418,9 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
       excluded: roundTo(prepared.areasMm2.excluded, 6),
       valid: roundTo(prepared.areasMm2.valid, 6),
     },
-    top: top.map((p, i) => reportPlacement(p, i + 1)),
+    top: top.map((p, i) =>
+      p === hotspot ? settledReport(p, prepared, window, i + 1) : reportPlacement(p, i + 1)
+    ),
     best_fields: best
       ? {
         n: bestN,
@@ -369,7 +439,17 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
       discretization: map.discretization,
     },
   };
-  if (options.scheme) {
+  report.count_problems = check.problems;
+  report.whole_area = hotspot ? null : wholeArea(prepared, window);
+  if (report.whole_area) {
+    const w = report.whole_area;
+    warnings.push(
+      `No standard window fits: the whole valid area (${w.area_mm2} mm²) holds ${w.count} counted ` +
+        `figure${w.count === 1 ? "" : "s"} (${w.per_mm2}/mm², ${w.count_per_window_area} per ` +
+        `${window.areaMm2} mm²); this is not a hotspot count and the case is not graded`,
+    );
+  }
+  if (options.scheme && !blocked) {
     // The one call into the grading schemes.
     const std = applyStandards({ report, prepared, map, window }, {
       schemeId: options.scheme,
@@ -380,6 +460,7 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
     report.uncertainty = std.uncertainty;
     report.warnings.push(...std.warnings);
   }
+  report.verdict = caseVerdict(report);
   return {
     report,
     prepared,
@@ -390,6 +471,54 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
     bestFields: best?.fields ?? [],
     bestFieldWindow: best?.window ?? null,
     caseData,
+  };
+}
+
+/**
+ * A settled placement as report.json gives it: the centre printed with the
+ * fewest decimals (2 to 9) at which a recount gives the same count, both in
+ * level-0 pixels (figures and centre times mpp) and in µm, and `margin_um`.
+ */
+function settledReport(
+  p: Placement,
+  prepared: PreparedCase,
+  window: WindowShape,
+  rank?: number,
+): ReportPlacement {
+  const out = reportPlacement(p, rank);
+  const { mppX, mppY } = prepared.slide;
+  const recount = (cx: number, cy: number) =>
+    countInWindow(prepared.xUm, prepared.yUm, window, cx, cy);
+  let px: [number, number] = [p.centerPx[0], p.centerPx[1]];
+  let um: [number, number] = [p.centerUm[0], p.centerUm[1]];
+  for (const d of [2, 3, 4, 6, 9]) {
+    const cp: [number, number] = [roundTo(p.centerPx[0], d), roundTo(p.centerPx[1], d)];
+    const cu: [number, number] = [roundTo(p.centerUm[0], d), roundTo(p.centerUm[1], d)];
+    if (recount(cp[0] * mppX, cp[1] * mppY) === p.count && recount(cu[0], cu[1]) === p.count) {
+      px = cp;
+      um = cu;
+      break;
+    }
+  }
+  out.center_px = px;
+  out.center_um = um;
+  out.margin_um = roundTo(p.marginUm ?? 0, 3);
+  return out;
+}
+
+/** The whole valid area's count when no window fits (a small sample). */
+function wholeArea(
+  prepared: PreparedCase,
+  window: WindowShape,
+): { count: number; area_mm2: number; per_mm2: number; count_per_window_area: number } | null {
+  const area = prepared.validAreaMm2;
+  if (!(area > 0)) return null;
+  const count = prepared.tally.counted;
+  return {
+    count,
+    area_mm2: roundTo(area, 6),
+    per_mm2: roundTo(count / area, 4),
+    count_per_window_area: roundTo((count / area) * window.areaMm2, 2),
   };
 }
 

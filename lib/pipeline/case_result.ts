@@ -54,4 +54,10 @@ export interface ReportOptions {
   seed?: number;
   /** Grid size limit (cells). @default 25_000_000 */
   maxGridCells?: number;
+  /**
+   * Classify even when nothing was counted (figures present, none counted) or
+   * the figures' unit is in doubt; by default such a case is left
+   * unclassified. @default false
+   */
+  allowEmpty?: boolean;
 }

@@ -13,6 +13,7 @@ import { buildValidRegion } from "../geometry/valid_region.ts";
 import type { CaseData } from "../types.ts";
 import { px2ToMm2 } from "../units.ts";
 import { DEFAULT_COUNT_LABELS } from "../defaults.ts";
+import { checkCounting } from "./count_checks.ts";
 
 /** Options of {@linkcode inspectCase}. */
 export interface InspectOptions {
@@ -94,8 +95,9 @@ export function inspectCase(caseData: CaseData, options: InspectOptions = {}): I
   const warnings = [
     ...caseData.warnings,
     ...v.warnings,
-    ...labelWarnings(caseData, countLabels, minScore),
   ];
+  const check = checkCounting(caseData, tally, { countLabels, minScore });
+  warnings.push(...check.warnings, ...check.problems.filter((p) => !warnings.includes(p)));
   const mm2 = (px2: number) => tidy(px2ToMm2(px2, mpp));
   return {
     case: caseData.caseId,
@@ -118,34 +120,6 @@ export function inspectCase(caseData: CaseData, options: InspectOptions = {}): I
 /** Twelve significant digits: hides floating-point dust, keeps far more than any measurement. */
 function tidy(v: number): number {
   return v === 0 ? 0 : Number(v.toPrecision(12));
-}
-
-function labelWarnings(caseData: CaseData, countLabels: string[], minScore: number): string[] {
-  const out: string[] = [];
-  const { figures } = caseData;
-  if (figures.xPx.length === 0) return out;
-  const present = new Set(figures.labels);
-  const squash = (s: string) => s.trim().toLowerCase().replace(/\s+/g, " ");
-  for (const label of figures.labels) {
-    if (countLabels.includes(label)) continue;
-    const near = countLabels.find((c) => squash(c) === squash(label));
-    if (near !== undefined) {
-      out.push(
-        `Figure label "${label}" differs from the counted label "${near}" only in case or spacing, so it is not counted (add --count-label "${label}" to count it)`,
-      );
-    }
-  }
-  if (!countLabels.some((c) => present.has(c))) {
-    out.push(
-      `No figure has a counted label (${
-        countLabels.map((c) => `"${c}"`).join(", ")
-      }); labels found: ${figures.labels.map((l) => `"${l}"`).join(", ")}`,
-    );
-  }
-  if (minScore > 0 && figures.score.every((s) => Number.isNaN(s))) {
-    out.push(`The minimum score ${minScore} has no effect: no figure has a score`);
-  }
-  return out;
 }
 
 /**

@@ -56,6 +56,12 @@ export interface ReportPlacement {
   /** Beside the contract. */
   center_um?: [number, number];
   rank?: number;
+  /**
+   * Hotspot only: how far (µm) the centre can move before the count changes
+   * (3 decimals). The centre is printed with the fewest decimals (2 to 9) at
+   * which a recount gives `count`.
+   */
+  margin_um?: number;
 }
 
 /** Summary of counts over every admissible grid position. */
@@ -94,6 +100,18 @@ export type ReportClassification = CaseClassification;
 /** Counting uncertainty of the hotspot count (see `countUncertainty`). */
 export type ReportUncertainty = CountUncertainty;
 
+/** The whole valid area's count of a small sample (see `ReportJson.whole_area`). */
+export interface ReportWholeArea {
+  /** Counted figures in the whole valid region. */
+  count: number;
+  /** Area of the valid region, mm². */
+  area_mm2: number;
+  /** count / area_mm2. */
+  per_mm2: number;
+  /** per_mm2 × the window area: what a window of the standard area would hold at this density. */
+  count_per_window_area: number;
+}
+
 /** The whole report. */
 export interface ReportJson {
   schema: typeof REPORT_SCHEMA;
@@ -108,6 +126,24 @@ export interface ReportJson {
   classification: ReportClassification | null;
   uncertainty?: ReportUncertainty | null;
   warnings: string[];
+  /**
+   * One plain sentence (or two): the hotspot count, the cut-off it meets or
+   * misses, the grade, and whether a reader's field choice could change it.
+   */
+  verdict?: string;
+  /**
+   * Problems that make the count meaningless (figures present but none
+   * counted, coordinates in the wrong unit); each is also in `warnings`. When
+   * any is present the case is left unclassified unless `--allow-empty`.
+   */
+  count_problems?: string[];
+  /**
+   * When no standard window fits (a small sample): the whole valid area's
+   * count, its area (mm², 6 decimals), density (per mm², 4 decimals) and
+   * that density times the window area (2 decimals). Not a hotspot count.
+   * Null when a hotspot exists.
+   */
+  whole_area?: ReportWholeArea | null;
   /** Beside the contract. */
   hotfield_version?: string;
   inputs?: { kind: string; path: string; sha256: string }[];

@@ -19,6 +19,8 @@ export interface CaseHtmlContext {
   version: string;
   /** Options of the run, shown as given (keys sorted). */
   options: Record<string, unknown>;
+  /** Relative link to the page of all cases of the run, when there is one. */
+  cohortHref?: string;
 }
 
 /** Inline a script so no text in it can close the element or open a comment. */

@@ -55,15 +55,16 @@ function keyValues(rows: [string, string][]): string {
   }</dl>`;
 }
 
-function stableStringify(value: unknown): string {
-  if (value === undefined) return "–";
-  return JSON.stringify(
-    value,
-    (_k, v) =>
-      v && typeof v === "object" && !Array.isArray(v)
-        ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, v[k]]))
-        : v,
-  );
+/** An option's value as plain text: lists joined, objects as key: value pairs. */
+function plainValue(value: unknown): string {
+  if (value === undefined || value === null) return "–";
+  if (Array.isArray(value)) return value.map((v) => plainValue(v)).join(", ");
+  if (typeof value === "object") {
+    return Object.keys(value as Record<string, unknown>).sort().map((k) =>
+      `${escapeHtml(k)}: ${plainValue((value as Record<string, unknown>)[k])}`
+    ).join("; ");
+  }
+  return escapeHtml(String(value));
 }
 
 /** Shared page style: our own quiet, print-friendly look. */
@@ -98,16 +99,39 @@ dl.kv div{display:flex;gap:8px;border-bottom:1px dotted var(--line);padding:3px 
 dl.kv dt{color:var(--muted);min-width:150px}
 dl.kv dd{margin:0;font-variant-numeric:tabular-nums}
 .warnings li{margin:2px 0}
+.verdict{font-size:17px;line-height:1.45;border-left:5px solid var(--accent);background:#eef5fb;padding:10px 14px;margin:14px 0;border-radius:2px}
+.verdict .label{display:block;font-size:12px;letter-spacing:.06em;text-transform:uppercase;color:var(--muted)}
+.problem{border-left:5px solid #b00020;background:#fdecee;padding:10px 14px;margin:14px 0;border-radius:2px}
+.problem strong{color:#b00020}
+.problem ul,.warnbox ul{margin:4px 0 0 18px;padding:0}
+.warnbox{border-left:5px solid var(--warn);background:var(--warnbg);padding:10px 14px;margin:14px 0;border-radius:2px}
+.warnbox strong{color:var(--warn)}
+.explain{font-size:13px;color:var(--muted);margin:2px 0 10px}
+.back{font-size:13px}
+dl.kv dd.text{word-break:normal;overflow-wrap:break-word}
 .none{color:var(--muted);font-style:italic}
 .noplot{padding:24px;color:var(--warn)}
 footer{margin-top:40px;font-size:12px;color:var(--muted);border-top:1px solid var(--line);padding-top:10px}
 @media print{.plot{break-inside:avoid}}
 `;
 
-function placementRow(label: string, p: ReportPlacement): string[] {
+/** Plain words for the classes. */
+const CLASS_WORDS: Record<string, string> = {
+  below: "hotspot below the cut-off",
+  above: "most placements reach the cut-off",
+  "field-dependent": "the field chosen decides",
+};
+
+/** "1 figure", "3 figures". */
+function countWords(n: number): string {
+  return `${n} figure${n === 1 ? "" : "s"}`;
+}
+
+function placementRow(label: string, p: ReportPlacement, areaMm2: number): string[] {
   return [
     label,
     fmt(p.count, 0),
+    fmt(areaMm2, 4),
     fmt(p.per_mm2, 2),
     pct(p.coverage),
     px(p.center_px),
@@ -170,6 +194,13 @@ ${plotlyScriptTag(context)}
 <body>
 <main>
 <header class="top">
+${
+    context.cohortHref
+      ? `<div class="back"><a href="${
+        escapeHtml(context.cohortHref)
+      }">← all cases of this run</a></div>`
+      : ""
+  }
 <div class="kicker">hotfield · standardized-area mitotic count</div>
 <h1>Case ${id}</h1>
 <div class="meta">hotfield ${escapeHtml(context.version)}${
@@ -179,6 +210,33 @@ ${plotlyScriptTag(context)}
 <aside class="caution" role="note"><strong>Read with care.</strong><ul>${
     REPORT_CAUTIONS.map((s) => `<li>${escapeHtml(s)}</li>`).join("")
   }</ul></aside>`);
+
+  // The verdict, then anything that makes the numbers doubtful, before any number.
+  if (typeof r.verdict === "string") {
+    parts.push(
+      `<p class="verdict" id="verdict"><span class="label">In one sentence</span>${
+        escapeHtml(r.verdict)
+      }</p>`,
+    );
+  }
+  const problems = (r.count_problems as string[] | undefined) ?? [];
+  if (problems.length > 0) {
+    parts.push(
+      `<aside class="problem" role="alert"><strong>${
+        c ? "The count is in doubt." : "Not graded: the count is not meaningful."
+      }</strong><ul>${problems.map((w) => `<li>${escapeHtml(w)}</li>`).join("")}</ul></aside>`,
+    );
+  }
+  const others = r.warnings.filter((w) => !problems.includes(w));
+  if (others.length > 0) {
+    parts.push(
+      `<aside class="warnbox" role="note" id="warnings"><strong>${others.length} warning${
+        others.length === 1 ? "" : "s"
+      }</strong><ul class="warnings">${
+        others.map((w) => `<li>${escapeHtml(w)}</li>`).join("")
+      }</ul></aside>`,
+    );
+  }
 
   // Headline figures.
   const cards: [string, string, string][] = [
@@ -193,9 +251,9 @@ ${plotlyScriptTag(context)}
   ];
   if (c) {
     cards.push([
-      "class",
-      escapeHtml(c.class),
-      `${escapeHtml(c.scheme)}${c.tier ? `, tier ${escapeHtml(c.tier)}` : ""}`,
+      "grade",
+      escapeHtml(c.tier ?? "–"),
+      `${escapeHtml(c.scheme)} · ${escapeHtml(CLASS_WORDS[c.class] ?? c.class)}`,
     ]);
   }
   if (u && Array.isArray(u.count_ci95)) {
@@ -214,13 +272,19 @@ ${plotlyScriptTag(context)}
     }</section>`,
   );
 
+  const whole = r.whole_area ?? null;
   if (!h) {
-    const why = r.warnings.length > 0
-      ? `<ul class="warnings">${r.warnings.map((w) => `<li>${escapeHtml(w)}</li>`).join("")}</ul>`
-      : "";
     parts.push(
-      `<aside class="caution" role="alert"><strong>No window of the standard area could be placed.</strong> ` +
-        `The case has no admissible position${why ? ":" : "."}${why}</aside>`,
+      `<aside class="problem" role="alert"><strong>No window of the standard area could be placed.</strong> ` +
+        (whole
+          ? `The whole valid area (${fmt(whole.area_mm2, 3)} mm²) holds ${
+            countWords(whole.count)
+          }: ${fmt(whole.per_mm2, 2)} per mm², about ${fmt(whole.count_per_window_area, 1)} per ` +
+            `${
+              escapeHtml(result.window.areaMm2)
+            } mm². This is not a hotspot count and is not graded.`
+          : "The case has no admissible position.") +
+        `</aside>`,
     );
   }
 
@@ -236,21 +300,49 @@ ${plotlyScriptTag(context)}
   // Numbers.
   parts.push(`<section id="numbers"><h2>Numbers</h2><h3>Hotspot and top windows</h3>`);
   const placements: string[][] = [];
-  if (h) placements.push(placementRow("hotspot", h));
-  (r.top ?? []).forEach((p, i) => placements.push(placementRow(`top ${p.rank ?? i + 1}`, p)));
-  (r.best_fields?.fields ?? []).forEach((p, i) =>
-    placements.push(placementRow(`best field ${p.rank ?? i + 1}`, p))
-  );
+  const area = r.window.area_mm2;
+  if (h) placements.push(placementRow("hotspot (top 1)", h, area));
+  (r.top ?? []).forEach((p, i) => {
+    const rank = p.rank ?? i + 1;
+    if (rank !== 1 || !h) placements.push(placementRow(`top ${rank}`, p, area));
+  });
   parts.push(
     placements.length > 0
       ? table(
-        ["window", "count", "per mm²", "coverage", "centre (px)", "centre (µm)"],
+        ["window", "count", "area (mm²)", "per mm²", "coverage", "centre (px)", "centre (µm)"],
         placements,
       )
       : `<p class="none">No window placed.</p>`,
   );
+  if (h && typeof h.margin_um === "number") {
+    parts.push(
+      `<p class="explain">The hotspot's centre can move ${
+        fmt(h.margin_um, 1)
+      } µm in any direction before its count changes; a recount at the printed centre gives ` +
+        `${countWords(h.count)}. Top windows do not overlap each other.</p>`,
+    );
+  }
   if (r.best_fields) {
-    parts.push(`<p class="caption">${escapeHtml(r.best_fields.guarantee)}</p>`);
+    const bf = r.best_fields;
+    parts.push(
+      `<h3>Best set of ${bf.n === 1 ? "one single field" : `${bf.n} separate single fields`}</h3>`,
+    );
+    parts.push(
+      `<p class="explain">Single microscope fields of ${fmt(bf.field_area_mm2, 4)} mm² each, ` +
+        `placed apart; their total (${countWords(bf.total)} in ${
+          fmt(bf.field_area_mm2 * bf.fields.length, 2)
+        } mm²) is what a reader choosing the best separate fields could count. Per-mm² rates ` +
+        `of single fields are not comparable with the hotspot's (different areas).</p>`,
+    );
+    parts.push(
+      bf.fields.length > 0
+        ? table(
+          ["field", "count", "area (mm²)", "per mm²", "coverage", "centre (px)", "centre (µm)"],
+          bf.fields.map((p, i) => placementRow(`field ${p.rank ?? i + 1}`, p, bf.field_area_mm2)),
+        )
+        : `<p class="none">No single field fits.</p>`,
+    );
+    parts.push(`<p class="caption">${escapeHtml(bf.guarantee)}</p>`);
   }
 
   const d = r.distribution;
@@ -310,6 +402,13 @@ ${plotlyScriptTag(context)}
       ["positions at or above", pct(c.fraction_at_or_above)],
     ];
     parts.push(keyValues(kv));
+    parts.push(
+      `<p class="explain">Class: <b>below</b> when even the hotspot misses the cut-off; ` +
+        `<b>above</b> when at least three quarters of window positions meet it; otherwise ` +
+        `<b>field-dependent</b>: the grade depends on where the count is made. ` +
+        `Positions at or above: the share of all admissible window positions whose count ` +
+        `meets the cut-off.</p>`,
+    );
     for (const key of ["definition", "note"]) {
       if (typeof c[key] === "string") {
         parts.push(`<p class="caption">${escapeHtml(c[key])}</p>`);
@@ -327,12 +426,21 @@ ${plotlyScriptTag(context)}
       ["scan test p", fmt(u.scan_p, 3)],
       ["simulations", fmt(u.simulations, 0)],
     ]));
+    parts.push(
+      `<p class="explain">95% limits: the exact Poisson interval of the hotspot count ` +
+        `(Garwood 1936). Chance of the other side: how likely a recount of the same window ` +
+        `would fall on the other side of the cut-off if counts vary as Poisson counts do. Scan ` +
+        `test p: how often a hotspot at least this high arises when the same number of ` +
+        `figures is spread evenly over the valid region (small p: a real focus).</p>`,
+    );
   }
 
   parts.push(`<h3>Warnings</h3>`);
   parts.push(
     r.warnings.length > 0
-      ? `<ul class="warnings">${r.warnings.map((w) => `<li>${escapeHtml(w)}</li>`).join("")}</ul>`
+      ? `<p class="explain">${r.warnings.length} warning${
+        r.warnings.length === 1 ? " is" : "s are"
+      } listed at the top of this page.</p>`
       : `<p class="none">None.</p>`,
   );
   parts.push(`</section>`);
@@ -376,7 +484,7 @@ ${plotlyScriptTag(context)}
     parts.push(keyValues(
       optionKeys.map((
         k,
-      ) => [escapeHtml(k), `<code>${escapeHtml(stableStringify(context.options[k]))}</code>`]),
+      ) => [escapeHtml(k), plainValue(context.options[k])]),
     ));
   }
   if (r.map?.discretization) {

@@ -176,6 +176,7 @@ export function writeOutputs(
           generatedAt,
           version: HOTFIELD_VERSION,
           options: options.runOptions ?? { ...result.report.settings },
+          cohortHref: "../index.html",
         }),
       ]);
     }
@@ -225,6 +226,8 @@ export function writeOutputs(
   };
   assetFiles.forEach(writeRunFile);
   for (const { id, files } of perCase) {
+    // A format list with nothing per case (csv only) makes no empty folder.
+    if (files.length === 0) continue;
     const finalDir = join(outDir, id);
     const stage = join(outDir, `.${id}.staging-${Deno.pid}`);
     const old = join(outDir, `.${id}.old-${Deno.pid}`);

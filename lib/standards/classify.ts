@@ -221,7 +221,9 @@ export function classifyCounts(
   if (note) warnings.push(note);
   if (scheme.mark === "M") {
     warnings.push(
-      `Scheme "${scheme.id}" rests on values from memory (unverified): ${scheme.notes[0]}`,
+      `Scheme "${scheme.id}" rests on values unconfirmed against the primary publication: check them against your local guideline (${
+        scheme.notes[0]
+      })`,
     );
   }
   let positions = 0;

@@ -67,7 +67,10 @@ export interface CountingInstruction {
 export interface GradingScheme {
   /** Short id used on the command line, e.g. `canine-mct-2tier`. */
   id: string;
+  /** Full title: tumour, scheme and what is counted. */
   title: string;
+  /** A short name for a sentence, e.g. `"two-tier canine mast cell scheme"`. */
+  shortName: string;
   /** Tumour type, e.g. `"cutaneous mast cell tumour"`. */
   tumour: string;
   species: "dog" | "cat" | "human";
@@ -85,6 +88,6 @@ export interface GradingScheme {
   sources: SchemeSource[];
   /** Overall confidence mark of the cut-offs and area basis (the weakest that matters). */
   mark: ConfidenceMark;
-  /** Notes: values from memory, discrepancies between sources, what is not assessed. */
+  /** Notes: unconfirmed values, discrepancies between sources, what is not assessed. */
   notes: string[];
 }

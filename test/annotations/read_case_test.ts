@@ -67,12 +67,14 @@ Deno.test(
       path,
       sha256: await sha256Hex(new TextEncoder().encode(text)),
     });
-    assert.deepEqual(c.warnings, ["The case has no figure points"]);
+    assert.deepEqual(c.warnings, [
+      "The case has no figure points: a count of 0 is only as good as the annotations' completeness",
+    ]);
   }),
 );
 
 Deno.test(
-  "loadCase() takes the id from the override, the slide, the case file, then the stem",
+  "loadCase() takes the id from the override, the case file, the slide, then the stem",
   withDir(async (dir) => {
     const path = join(dir, "stem.geojson");
     writeFileSync(
@@ -82,9 +84,17 @@ Deno.test(
         mpp: 0.25,
       }),
     );
-    const c = await loadCase({ annotationsPath: path, caseFileId: "from-case-file" });
+    const c = await loadCase({ annotationsPath: path });
     assert.equal(c.caseId, "QVT_24_022");
     assert.match(c.warnings.join("\n"), /Case id "QVT 24\/022" is written "QVT_24_022"/);
+    const named = await loadCase({ annotationsPath: path, caseFileId: "from-case-file" });
+    assert.equal(named.caseId, "from-case-file");
+    assert.ok(
+      named.warnings.includes(
+        `Case id "from-case-file" (from the case file's id) replaces "QVT 24/022" (the slide id)`,
+      ),
+      named.warnings.join("\n"),
+    );
     assert.equal(
       (await loadCase({ annotationsPath: path, idOverride: "QVT-24-099" })).caseId,
       "QVT-24-099",
@@ -116,6 +126,7 @@ Deno.test(
       annotationsPath: join(dir, "cases", "data", "a.geojson"),
       figuresPath: join(dir, "cases", "data", "f.csv"),
       figureUnits: "um",
+      figureUnitsStated: true,
       tissueMaskPath: join(dir, "cases", "data", "m.png"),
       maskMpp: [8, 8],
       slide: { width: 128 },
@@ -133,7 +144,7 @@ Deno.test("parseCaseFile() rejects unknown members, a missing version and a mask
     {
       name: "TypeError",
       message:
-        /^Cannot read case file "x\.case\.json": unknown member "tissue-mask"; known members: hotfield_case, id, annotations, figures, tissue_mask, slide, notes$/,
+        /^Cannot read case file "x\.case\.json": unknown member "tissue-mask"; known members: hotfield_case, id, annotations, figures, tissue_mask, slide, notes, scheme, min_score, count_labels, area_mm2, shape, stride_um, min_coverage$/,
     },
   );
   assert.throws(() => parseCaseFile('{"annotations": "a.geojson"}', "x.case.json"), {

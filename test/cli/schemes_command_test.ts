@@ -46,7 +46,8 @@ Deno.test("hotfield schemes --scheme shows one scheme with citations and notes",
   const r = await inProcess(["--scheme", "meningioma-who"]);
   assert.equal(r.code, 0);
   assert.ok(r.stdout.includes("Perry A et al."), r.stdout);
-  assert.ok(r.stdout.includes("from memory"), r.stdout);
+  assert.ok(r.stdout.includes("unconfirmed"), r.stdout);
+  assert.ok(!r.stdout.includes("from memory"), r.stdout);
 });
 
 Deno.test("hotfield schemes --scheme with an unknown id exits 2 listing the known ids", async () => {

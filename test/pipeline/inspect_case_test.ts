@@ -158,7 +158,7 @@ Deno.test("inspectCase() keeps the JSON keys of the contract", async () => {
   assert.equal(r.inputs[0].sha256.length, 64);
 });
 
-Deno.test("inspectCase() warns about labels that differ from a counted label only in case", () => {
+Deno.test("inspectCase() names a near-miss label and says nothing was counted", () => {
   const c = caseFrom([
     feature("tumour", poly(rect(0, 0, 100, 100))),
     feature("figure", { type: "Point", coordinates: [5, 5] }, { label: "Mitotic Figure" }),
@@ -166,9 +166,9 @@ Deno.test("inspectCase() warns about labels that differ from a counted label onl
   const r = inspectCase(c, { minScore: 0.5 });
   assert.equal(r.figures.counted, 0);
   assert.deepEqual(r.warnings, [
-    'Figure label "Mitotic Figure" differs from the counted label "mitotic figure" only in case or spacing, so it is not counted (add --count-label "Mitotic Figure" to count it)',
-    'No figure has a counted label ("mitotic figure"); labels found: "Mitotic Figure"',
+    'Figure label "Mitotic Figure" is close to the counted label "mitotic figure" but differs, so its 1 figure(s) are not counted (add --count-label "Mitotic Figure", or "count_labels" in a case file, to count them)',
     "The minimum score 0.5 has no effect: no figure has a score",
+    'Nothing counted: none of the 1 figure points has a counted label ("mitotic figure"); labels found: "Mitotic Figure". Did you mean --count-label "Mitotic Figure"?',
   ]);
 });
 

@@ -147,11 +147,11 @@ Deno.test("meningioma-who: 3/4/19/20 per 10 HPF (≥ 4 grade 2, ≥ 20 grade 3)"
   assert.equal(tierForRate(s, 19), "grade 2 (atypical)");
   assert.equal(tierForRate(s, 20), "grade 3 (anaplastic)");
   assert.equal(s.mark, "M");
-  assert.ok(s.basis.kind === "fields" && s.basis.note.includes("from memory"));
+  assert.ok(s.basis.kind === "fields" && s.basis.note.includes("unconfirmed"));
   // Equivalent densities (C from the M area): ≥ 2.5 /mm² and ≥ 12.5 /mm².
   assert.ok(Math.abs(4 / basisAreaMm2(s)! - 2.5) < 1e-12);
   assert.ok(Math.abs(20 / basisAreaMm2(s)! - 12.5) < 1e-12);
-  // Classification warns that the area is from memory.
+  // Classification warns that the area is unconfirmed (check against the local guideline).
   const { warnings, classification } = classifyCounts({
     hotspotCount: 20,
     q1: 5,
@@ -160,7 +160,7 @@ Deno.test("meningioma-who: 3/4/19/20 per 10 HPF (≥ 4 grade 2, ≥ 20 grade 3)"
     admissible: [1, 1],
   }, s);
   assert.equal(classification.tier, "grade 3 (anaplastic)");
-  assert.ok(warnings.some((w) => w.includes("from memory")));
+  assert.ok(warnings.some((w) => w.includes("unconfirmed") && w.includes("local guideline")));
   const grade2 = (classification.tiers as { label: string; min_count_for_window: number }[])[0];
   assert.equal(grade2.label, "grade 2 (atypical)");
   assert.equal(grade2.min_count_for_window, 4);

@@ -10,6 +10,7 @@ import type { GradingScheme } from "../scheme_types.ts";
 export const BREAST_NOTTINGHAM: GradingScheme = {
   id: "breast-nottingham",
   title: "Breast carcinoma, Nottingham mitotic score (Elston–Ellis)",
+  shortName: "Nottingham breast mitotic score",
   tumour: "invasive breast carcinoma",
   species: "human",
   basis: {
@@ -58,7 +59,7 @@ export const BREAST_NOTTINGHAM: GradingScheme = {
     "score 2. hotfield follows Elston & Ellis (≥ 20 → score 3)",
     "The field-diameter table follows from score 2 from ⌈10·A/0.274⌉ and score 3 from " +
     "⌈20·A/0.274⌉ per 10 fields of area A = π(d/2)²; hotfield scales by area the same way",
-    "The 0.44 mm row exists in three versions (6–10/≥ 11 from memory of the 1991 paper; " +
+    "The 0.44 mm row exists in three versions (6–10/≥ 11 as recalled from the 1991 paper, unconfirmed; " +
     "6–11/'11+' in PathologyOutlines 2012; 6–11/≥ 12 in CAP 2019, which the area rule reproduces)",
     "The HL7 per-mm² draft (≤ 3, 4–7, ≥ 8 /mm²) differs from the area-scaled 3.65 and 7.30 /mm²",
   ],

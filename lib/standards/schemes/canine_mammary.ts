@@ -10,6 +10,7 @@ import type { GradingScheme } from "../scheme_types.ts";
 export const CANINE_MAMMARY: GradingScheme = {
   id: "canine-mammary",
   title: "Canine mammary carcinoma, mitotic score (Peña)",
+  shortName: "canine mammary carcinoma mitotic score",
   tumour: "mammary carcinoma",
   species: "dog",
   basis: {

@@ -11,6 +11,7 @@ import type { GradingScheme } from "../scheme_types.ts";
 export const CANINE_MCT_2TIER: GradingScheme = {
   id: "canine-mct-2tier",
   title: "Canine cutaneous mast cell tumour, two-tier grade (mitotic criterion)",
+  shortName: "two-tier canine mast cell scheme",
   tumour: "cutaneous mast cell tumour",
   species: "dog",
   basis: {

@@ -6,10 +6,11 @@
 
 import type { GradingScheme } from "../scheme_types.ts";
 
-/** Canine soft tissue sarcoma mitotic score: 0–9 → 1, 10–19 → 2, ≥ 20 → 3 per 10 HPF (M). */
+/** Canine soft tissue sarcoma mitotic score: 0–9 → 1, 10–19 → 2, ≥ 20 → 3 per 10 HPF (unconfirmed). */
 export const CANINE_STS: GradingScheme = {
   id: "canine-sts",
   title: "Canine soft tissue sarcoma, mitotic score",
+  shortName: "canine soft tissue sarcoma mitotic score",
   tumour: "soft tissue sarcoma",
   species: "dog",
   basis: {
@@ -33,7 +34,8 @@ export const CANINE_STS: GradingScheme = {
       citation: "Dennis MM et al. Prognostic factors for cutaneous and subcutaneous soft " +
         "tissue sarcomas in dogs. Vet Pathol 2011;48(1):73-84. doi:10.1177/0300985810388820",
       mark: "M",
-      usedFor: "cut-offs 0–9 / 10–19 / ≥ 20 per 10 HPF, from memory (after Kuntz CA et al., " +
+      usedFor:
+        "cut-offs 0–9 / 10–19 / ≥ 20 per 10 HPF; citation confirmed, table not read (after Kuntz CA et al., " +
         "JAVMA 1997;211:1147-1151)",
     },
     {
@@ -45,7 +47,7 @@ export const CANINE_STS: GradingScheme = {
   ],
   mark: "M",
   notes: [
-    "The cut-offs are from memory (M): they were not seen on a page and mirror FNCLCC",
+    "The cut-offs are unconfirmed against the primary publication (its table could not be read) and mirror FNCLCC: check them against your local guideline",
     "The grade combines the mitotic score with differentiation (1–3) and necrosis (0–2): " +
     "grade I ≤ 4, II 5–6, III ≥ 7; hotfield gives the mitotic score only",
     "Veterinary STS grading methods are not standardised (WSAVA 2018 proceedings)",

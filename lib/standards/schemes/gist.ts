@@ -10,6 +10,7 @@ import type { GradingScheme } from "../scheme_types.ts";
 export const GIST: GradingScheme = {
   id: "gist",
   title: "Gastrointestinal stromal tumour, mitotic rate for risk assessment",
+  shortName: "GIST mitotic rate",
   tumour: "gastrointestinal stromal tumour",
   species: "human",
   basis: {
@@ -47,6 +48,6 @@ export const GIST: GradingScheme = {
   notes: [
     "Risk also depends on tumour size and site; hotfield gives the mitotic rate category only",
     "Total area: 5 mm² (AFIP/AJCC) vs 10 mm² (ESMO 2010)",
-    "WHO 5th ed. (2020) expresses the rate per 5 mm² (from memory)",
+    "WHO 5th ed. (2020) expresses the rate per 5 mm² (unconfirmed against the primary publication)",
   ],
 };

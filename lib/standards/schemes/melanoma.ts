@@ -10,6 +10,7 @@ import type { GradingScheme } from "../scheme_types.ts";
 export const MELANOMA: GradingScheme = {
   id: "melanoma",
   title: "Cutaneous melanoma, dermal mitotic rate",
+  shortName: "melanoma dermal mitotic rate",
   tumour: "cutaneous melanoma",
   species: "human",
   basis: { kind: "mm2", areaMm2: 1 },
@@ -38,7 +39,7 @@ export const MELANOMA: GradingScheme = {
         "Joint Committee on Cancer eighth edition cancer staging manual. CA Cancer J Clin 2017",
       mark: "V2",
       usedFor: "mitotic rate dropped as a T1 sub-classifier but still recorded (citation " +
-        "details from memory)",
+        "details unconfirmed against the primary publication)",
     },
   ],
   mark: "V",

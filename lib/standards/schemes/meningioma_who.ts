@@ -10,13 +10,14 @@ import type { GradingScheme } from "../scheme_types.ts";
 export const MENINGIOMA_WHO: GradingScheme = {
   id: "meningioma-who",
   title: "Meningioma, CNS WHO grade by mitotic count",
+  shortName: "WHO meningioma mitotic criteria",
   tumour: "meningioma",
   species: "human",
   basis: {
     kind: "fields",
     n: 10,
     fieldAreaMm2: 0.16,
-    note: "10 consecutive HPF; HPF = 0.16 mm² (10 HPF = 1.6 mm²) is from memory of the WHO " +
+    note: "10 consecutive HPF; HPF = 0.16 mm² (10 HPF = 1.6 mm²) is unconfirmed against the WHO " +
       "CNS5 chapter and unverified",
   },
   counting: {
@@ -65,7 +66,7 @@ export const MENINGIOMA_WHO: GradingScheme = {
   ],
   mark: "M",
   notes: [
-    "HPF = 0.16 mm² is from memory (M); the equivalent densities ≥ 2.5 /mm² and ≥ 12.5 /mm² " +
+    "HPF = 0.16 mm² is unconfirmed against the primary publication: check it against your local guideline; the equivalent densities ≥ 2.5 /mm² and ≥ 12.5 /mm² " +
     "follow from it",
     "Some secondary sources write '> 4' and '> 20'; the WHO text is '4 or more' and '20 or " +
     "more', used here",

@@ -11,6 +11,7 @@ import type { GradingScheme } from "../scheme_types.ts";
 export const NEN_WHO: GradingScheme = {
   id: "nen-who",
   title: "Neuroendocrine neoplasms (GEP-NET), WHO grade by mitotic rate",
+  shortName: "WHO neuroendocrine grade",
   tumour: "gastroenteropancreatic neuroendocrine tumour",
   species: "human",
   basis: { kind: "mm2", areaMm2: 2 },

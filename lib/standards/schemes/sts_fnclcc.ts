@@ -10,13 +10,15 @@ import type { GradingScheme } from "../scheme_types.ts";
 export const STS_FNCLCC: GradingScheme = {
   id: "sts-fnclcc",
   title: "Soft tissue sarcoma (adult), FNCLCC mitotic count score",
+  shortName: "FNCLCC mitotic score",
   tumour: "soft tissue sarcoma",
   species: "human",
   basis: {
     kind: "fields",
     n: 10,
     fieldAreaMm2: 0.1734,
-    note: "10 HPF; one HPF = 0.1734 mm² (1.734 mm²) is from memory (Trojani/Coindre)",
+    note:
+      "10 HPF; one HPF = 0.1734 mm² (1.734 mm²) was seen only in third-party study protocols (Trojani/Coindre), unconfirmed against the primary publication",
   },
   counting: { fields: 10, areaMm2: 1.734, text: "10 HPF in the most mitotically active area" },
   tiers: [
@@ -37,7 +39,7 @@ export const STS_FNCLCC: GradingScheme = {
   ],
   mark: "M",
   notes: [
-    "The HPF area 0.1734 mm² is from memory (M)",
+    "The HPF area 0.1734 mm² is unconfirmed against the primary publication: check it against your local guideline",
     "The grade adds differentiation (1–3) and necrosis (0 none, 1 < 50%, 2 ≥ 50%): grade 1 " +
     "2–3, grade 2 4–5, grade 3 6–8; hotfield gives the mitotic score only",
   ],
