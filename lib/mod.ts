@@ -56,6 +56,7 @@ export type {
   Vec2,
 } from "./types.ts";
 export { mm2ToPx2, type Mpp, mppOf, px2ToMm2, pxToUm, umToPx } from "./units.ts";
+export { roundTo } from "./numbers.ts";
 export { UsageError } from "./errors.ts";
 export { HOTFIELD_VERSION } from "./version.ts";
 export { type Random, seededRandom } from "./random.ts";

@@ -38,6 +38,7 @@ import { DEFAULT_SIMULATIONS } from "../defaults.ts";
 import { buildAlias, cellAreas } from "./_scan_sampling.ts";
 import { rectSimulator } from "./_scan_rect.ts";
 import { circleSimulator } from "./_scan_circle.ts";
+import { roundTo } from "../numbers.ts";
 
 /** Least and greatest number of simulations accepted. */
 export const SCAN_SIMULATIONS_MIN = 19;
@@ -261,18 +262,13 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
     method:
       "Monte Carlo scan test: statistic = maximum admissible window count on the fixed-size " +
       `window grid; ${simulations} simulations of ${n} figures placed uniformly over V ` +
-      `(cells of ${round(C, 3)} µm weighted by the area of V in each, uniform within a cell)` +
+      `(cells of ${roundTo(C, 3)} µm weighted by the area of V in each, uniform within a cell)` +
       (isRect
         ? ""
         : `; circle counts at cell nodes, interpolated between two node disks to the window's area`) +
       (step > 1 ? `; every ${step}th grid position along x and y scanned (${mx} × ${my})` : ""),
     warnings,
   };
-}
-
-function round(x: number, digits: number): number {
-  const f = 10 ** digits;
-  return Math.round(x * f) / f;
 }
 
 /** Bounding box [minX, minY, maxX, maxY] of a region. */

@@ -28,10 +28,10 @@ import {
   rasterize,
   reversed,
   ringBBox,
-  round1,
   toSlide,
 } from "./_shapes.ts";
 import { type CaseRecipe, DEMO_RECIPES, LOOKALIKES } from "./demo_recipes.ts";
+import { roundTo } from "../numbers.ts";
 
 /** The seed `deno task demo:data` uses for data/demo/. */
 export const DEMO_SEED = 24;
@@ -215,11 +215,11 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
 
   // Figures.
   const figures: DemoFigureRow[] = [];
-  const score = (lo: number, hi: number) => Math.round((lo + (hi - lo) * random()) * 1000) / 1000;
+  const score = (lo: number, hi: number) => roundTo(lo + (hi - lo) * random(), 3);
   const mitotic = (x: number, y: number) =>
     figures.push({
-      xPx: round1(x),
-      yPx: round1(y),
+      xPx: roundTo(x, 1),
+      yPx: roundTo(y, 1),
       label: "mitotic figure",
       score: score(0.55, 1),
     });
@@ -258,7 +258,7 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
       label = l;
       if ((t -= p) < 0) break;
     }
-    figures.push({ xPx: round1(x), yPx: round1(y), label, score: score(0.05, 0.6) });
+    figures.push({ xPx: roundTo(x, 1), yPx: roundTo(y, 1), label, score: score(0.05, 0.6) });
   };
   for (let k = 0; k < r.lookalikes; k++) {
     lookalike(...uniformIn((x, y) => inPolygon(tissue[0], x, y), tumourBox));
@@ -279,8 +279,8 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
     for (let k = 0; k < nWeak; k++) {
       const [x, y] = uniformIn((x, y) => inPolygon(tissue[0], x, y), tumourBox);
       figures.push({
-        xPx: round1(x),
-        yPx: round1(y),
+        xPx: roundTo(x, 1),
+        yPx: roundTo(y, 1),
         label: "mitotic figure",
         score: score(0.1, 0.5),
       });
@@ -296,14 +296,14 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
       return {
         type: "Feature",
         properties,
-        geometry: { type: "Point", coordinates: [round1(cx), round1(cy)] },
+        geometry: { type: "Point", coordinates: [roundTo(cx, 1), roundTo(cy, 1)] },
       };
     }
     // A hand-drawn quadrilateral of about 2.37 mm² (1777.6 × 1333.2 µm).
     const hw = 1777.6 / 2, hh = 1333.2 / 2;
     const corners: Vec2[] = [[-hw, -hh], [hw, -hh], [hw, hh], [-hw, hh]].map(([dx, dy]) => [
-      round1(cx + (dx + 40 * (random() - 0.5)) / mppX),
-      round1(cy + (dy + 40 * (random() - 0.5)) / mppY),
+      roundTo(cx + (dx + 40 * (random() - 0.5)) / mppX, 1),
+      roundTo(cy + (dy + 40 * (random() - 0.5)) / mppY, 1),
     ]);
     return {
       type: "Feature",

@@ -7,10 +7,7 @@
 
 import type { Placement } from "../count/engine_types.ts";
 import type { MultiPolygonPx } from "../types.ts";
-
-export function round3(v: number): number {
-  return Math.round(v * 1000) / 1000;
-}
+import { roundTo } from "../numbers.ts";
 
 /** Rings of a pixel region as one µm line with null breaks (plotly draws them in one trace). */
 export function regionLineUm(
@@ -25,8 +22,8 @@ export function regionLineUm(
         y.push(null);
       }
       for (const [px, py] of ring) {
-        x.push(round3(px * mpp.mppX));
-        y.push(round3(py * mpp.mppY));
+        x.push(roundTo(px * mpp.mppX, 3));
+        y.push(roundTo(py * mpp.mppY, 3));
       }
     }
   }
@@ -43,8 +40,8 @@ export function ringsLineUm(
       y.push(null);
     }
     for (const [ux, uy] of ring) {
-      x.push(round3(ux));
-      y.push(round3(uy));
+      x.push(roundTo(ux, 3));
+      y.push(roundTo(uy, 3));
     }
   }
   return { x, y };

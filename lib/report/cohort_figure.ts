@@ -5,9 +5,9 @@
  */
 
 import type { CaseResult } from "../pipeline/case_result.ts";
-import { round3 } from "./_plot_helpers.ts";
 import { cutoffCount, cutoffLabel, plotText } from "./plot_labels.ts";
 import { OKABE_ITO, PLOT_FONT, type PlotFigure } from "./plot_style.ts";
+import { roundTo } from "../numbers.ts";
 
 /**
  * The cohort at a glance: hotspot count of each case against its cut-off
@@ -31,7 +31,7 @@ import { OKABE_ITO, PLOT_FONT, type PlotFigure } from "./plot_style.ts";
 export function cohortFigure(results: readonly Pick<CaseResult, "report">[]): PlotFigure {
   const ids = results.map((r) => plotText(r.report.case));
   const counts = results.map((r) => r.report.hotspot?.count ?? null);
-  const dens = results.map((r) => r.report.hotspot ? round3(r.report.hotspot.per_mm2) : null);
+  const dens = results.map((r) => r.report.hotspot ? roundTo(r.report.hotspot.per_mm2, 3) : null);
   const ci = (
     r: Pick<CaseResult, "report">,
     key: "count_ci95" | "per_mm2_ci95",
@@ -39,7 +39,7 @@ export function cohortFigure(results: readonly Pick<CaseResult, "report">[]): Pl
   ) => {
     const u = r.report.uncertainty;
     if (!u || v === null || !Array.isArray(u[key])) return { plus: null, minus: null };
-    return { plus: round3(u[key][1] - v), minus: round3(v - u[key][0]) };
+    return { plus: roundTo(u[key][1] - v, 3), minus: roundTo(v - u[key][0], 3) };
   };
   const countCi = results.map((r, i) => ci(r, "count_ci95", counts[i]));
   const densCi = results.map((r, i) => ci(r, "per_mm2_ci95", dens[i]));

@@ -12,15 +12,10 @@
 import type { CaseResult } from "../pipeline/case_result.ts";
 import type { MultiPolygonPx, PolygonPx } from "../types.ts";
 import { windowRingUm } from "./hotspot_geojson.ts";
-import {
-  outlineTraces,
-  placementHover,
-  regionLineUm,
-  ringsLineUm,
-  round3,
-} from "./_plot_helpers.ts";
+import { outlineTraces, placementHover, regionLineUm, ringsLineUm } from "./_plot_helpers.ts";
 import { plotText, readerName, windowWords } from "./plot_labels.ts";
 import { MARK_STYLE, PLOT_FONT, type PlotFigure, readerStyles } from "./plot_style.ts";
+import { roundTo } from "../numbers.ts";
 
 /** Options of {@linkcode countMapFigure}. */
 export interface CountMapFigureOptions {
@@ -82,8 +77,8 @@ export function heatmapGrid(
     return start + ((block * factor + last) / 2) * grid.strideUm;
   };
   const xUm: number[] = [], yUm: number[] = [];
-  for (let i = 0; i < bx; i++) xUm.push(round3(centre(grid.x0Um, i, nx)));
-  for (let j = 0; j < by; j++) yUm.push(round3(centre(grid.y0Um, j, ny)));
+  for (let i = 0; i < bx; i++) xUm.push(roundTo(centre(grid.x0Um, i, nx), 3));
+  for (let j = 0; j < by; j++) yUm.push(roundTo(centre(grid.y0Um, j, ny), 3));
   const z: (number | null)[][] = [];
   for (let bj = 0; bj < by; bj++) {
     const row: (number | null)[] = [];
@@ -212,8 +207,8 @@ export function countMapFigure(
       type: "scatter",
       mode: "markers",
       name: "top windows (centres)",
-      x: result.top.map((p) => round3(p.centerUm[0])),
-      y: result.top.map((p) => round3(p.centerUm[1])),
+      x: result.top.map((p) => roundTo(p.centerUm[0], 3)),
+      y: result.top.map((p) => roundTo(p.centerUm[1], 3)),
       marker: {
         symbol: MARK_STYLE.top.symbol,
         size: 8,
@@ -254,8 +249,8 @@ export function countMapFigure(
       type: "scatter",
       mode: "markers",
       name: "hotspot centre",
-      x: [round3(h.centerUm[0])],
-      y: [round3(h.centerUm[1])],
+      x: [roundTo(h.centerUm[0], 3)],
+      y: [roundTo(h.centerUm[1], 3)],
       marker: {
         symbol: "star",
         size: 13,
@@ -376,8 +371,8 @@ function fieldTraces(
       type: "scatter",
       mode: "markers+text",
       name: `field of ${name}`,
-      x: mine.map(({ f }) => round3(f.center_px[0] * mpp.mppX)),
-      y: mine.map(({ f }) => round3(f.center_px[1] * mpp.mppY)),
+      x: mine.map(({ f }) => roundTo(f.center_px[0] * mpp.mppX, 3)),
+      y: mine.map(({ f }) => roundTo(f.center_px[1] * mpp.mppY, 3)),
       marker: {
         symbol: style.symbol,
         size: 11,
