@@ -56,6 +56,7 @@ export type {
   Vec2,
 } from "./types.ts";
 export { mm2ToPx2, type Mpp, mppOf, px2ToMm2, pxToUm, umToPx } from "./units.ts";
+export { roundTo } from "./numbers.ts";
 export { UsageError } from "./errors.ts";
 export { HOTFIELD_VERSION } from "./version.ts";
 export { type Random, seededRandom } from "./random.ts";
@@ -183,14 +184,11 @@ export { renderCaseHtml, REPORT_CAUTIONS } from "./report/report_html.ts";
 export { renderCohortIndex } from "./report/cohort_index.ts";
 export { caseRow, casesCsv, fieldsCsv } from "./report/report_csv.ts";
 export { caseHotspotGeoJson } from "./report/hotspot_geojson.ts";
-export {
-  admissibleHistogram,
-  cohortFigure,
-  countMapFigure,
-  cutoffLabel,
-  distributionFigure,
-  type PlotFigure,
-} from "./report/plots.ts";
+export { cohortFigure } from "./report/cohort_figure.ts";
+export { countMapFigure } from "./report/count_map_figure.ts";
+export { admissibleHistogram, distributionFigure } from "./report/distribution_figure.ts";
+export { cutoffLabel } from "./report/plot_labels.ts";
+export type { PlotFigure } from "./report/plot_style.ts";
 
 // Notebooks.
 export {

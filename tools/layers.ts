@@ -21,7 +21,7 @@ import { fileURLToPath } from "node:url";
 
 /** Layers, lowest first. A key is a folder of lib/ or a base file. */
 export const LAYERS: readonly (readonly string[])[] = [
-  ["types.ts", "errors.ts", "version.ts", "random.ts"],
+  ["types.ts", "errors.ts", "version.ts", "random.ts", "numbers.ts"],
   ["units.ts", "defaults.ts", "io"],
   ["geometry", "stats"],
   ["tissue", "slide"],

@@ -10,6 +10,7 @@ import { fieldOfView, fieldsForArea, MAX_FIELD_DIAMETER_MM } from "../standards/
 import { numberOption, parseOptions } from "./_args.ts";
 import type { CommandIo } from "./_io.ts";
 import { DEFAULT_WINDOW_AREA_MM2 } from "../defaults.ts";
+import { roundTo } from "../numbers.ts";
 
 /** Target areas always listed, mm²: 1 (melanoma), 2 (NEN rate), 2.37 (veterinary MC), 5 (GIST), 10 (NEN count). */
 export const COMMON_TARGETS_MM2 = [1, 2, DEFAULT_WINDOW_AREA_MM2, 5, 10];
@@ -78,7 +79,7 @@ export function run(args: string[], io: CommandIo): Promise<number> {
   const diameter = fn / (objective * tube);
   if (diameter > MAX_FIELD_DIAMETER_MM) {
     throw new UsageError(
-      `Options --fn, --objective and --tube give a field diameter of ${round(diameter, 4)} mm, ` +
+      `Options --fn, --objective and --tube give a field diameter of ${roundTo(diameter, 4)} mm, ` +
         `over ${MAX_FIELD_DIAMETER_MM} mm, which is no high-power field: check them`,
     );
   }
@@ -126,9 +127,4 @@ export function run(args: string[], io: CommandIo): Promise<number> {
 
 function fmt(x: number, digits: number): string {
   return x.toFixed(digits);
-}
-
-function round(x: number, digits: number): number {
-  const f = 10 ** digits;
-  return Math.round(x * f) / f;
 }

@@ -16,6 +16,7 @@ import {
   polygonOverlapArea,
 } from "./_geometry.ts";
 import type { AreaIndex } from "./_hotspot_search.ts";
+import { roundTo } from "../numbers.ts";
 
 /** Options of {@linkcode checkFields}. */
 export interface CheckFieldsOptions {
@@ -145,5 +146,5 @@ function clamp01(v: number): number {
 }
 
 function fmt(v: number, d: number): string {
-  return String(Math.round(v * 10 ** d) / 10 ** d);
+  return String(roundTo(v, d));
 }

@@ -13,6 +13,7 @@ import { circleCoverage, circleRaster } from "./_coverage_circle.ts";
 import { regionBounds } from "./_region_bbox.ts";
 import { createOverlapIndex } from "./_geometry.ts";
 import { DEFAULT_MAX_GRID_CELLS, DEFAULT_MIN_COVERAGE, DEFAULT_STRIDE_UM } from "../defaults.ts";
+import { roundTo } from "../numbers.ts";
 
 /** At most this many circle centres get an exact coverage (each is one disk query). */
 const MAX_EXACT_CIRCLE_REFINEMENTS = 200_000;
@@ -182,8 +183,8 @@ export function computeCountMap(
       refined++;
     }
     discretization = `Counts are exact at every centre of a ${strideUm} µm grid; ` +
-      `circle coverage is summed on ${round(raster.cellUm, 3)} µm raster cells, ` +
-      `error at most ${round(100 * raster.errorBound, 2)}% of the window area ` +
+      `circle coverage is summed on ${roundTo(raster.cellUm, 3)} µm raster cells, ` +
+      `error at most ${roundTo(100 * raster.errorBound, 2)}% of the window area ` +
       "(the cells the circle crosses); " + (options.exactAdmissibility === false
         ? "admissibility follows the raster values; "
         : "centres within that margin of the minimum coverage " +
@@ -214,9 +215,4 @@ export function computeCountMap(
     discretization,
     coverageError,
   };
-}
-
-function round(v: number, d: number): number {
-  const f = 10 ** d;
-  return Math.round(v * f) / f;
 }

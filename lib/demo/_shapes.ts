@@ -11,11 +11,7 @@
 
 import type { PolygonPx, Ring, Vec2 } from "../types.ts";
 import { normal, type Random } from "../random.ts";
-
-/** Rounds to 0.1 px, so files stay small and regenerate byte for byte. */
-export function round1(v: number): number {
-  return Math.round(v * 10) / 10;
-}
+import { roundTo } from "../numbers.ts";
 
 /** A smooth random radius profile r(θ) = 1 + Σ a_k cos(kθ + φ_k), |Σ a_k| ≤ `wobble`. */
 export interface Profile {
@@ -76,7 +72,7 @@ export function blobRing(
     const j = jitter > 0 && random ? 1 + jitter * (random() - 0.5) : 1;
     const r = scale * profileAt(p, theta) * j;
     const [x, y] = toSlide(f, u0 + r * Math.cos(theta), v0 + r * Math.sin(theta));
-    ring.push([round1(x), round1(y)]);
+    ring.push([roundTo(x, 1), roundTo(y, 1)]);
   }
   ring.push([ring[0][0], ring[0][1]]);
   return ring;

@@ -10,15 +10,8 @@
 
 import type { PolygonPx } from "../types.ts";
 import { normal, seededRandom } from "../random.ts";
-import {
-  blobRing,
-  type Frame,
-  profileAt,
-  randomProfile,
-  reversed,
-  round1,
-  toSlide,
-} from "./_shapes.ts";
+import { blobRing, type Frame, profileAt, randomProfile, reversed, toSlide } from "./_shapes.ts";
+import { roundTo } from "../numbers.ts";
 
 /** Options of {@linkcode generateBenchSlide}. */
 export interface BenchSlideOptions {
@@ -126,16 +119,16 @@ export function generateBenchSlide(seed: number, options: BenchSlideOptions = {}
   for (const f of foci) {
     const n = Math.round(nFocus * f.weight / totalWeight);
     for (let k = 0; k < n && i < nFocus; k++, i++) {
-      xPx[i] = round1(f.at[0] + f.sigmaPx * normal(random));
-      yPx[i] = round1(f.at[1] + f.sigmaPx * normal(random));
+      xPx[i] = roundTo(f.at[0] + f.sigmaPx * normal(random), 1);
+      yPx[i] = roundTo(f.at[1] + f.sigmaPx * normal(random), 1);
     }
   }
   while (i < nFigures) {
     const u = 2 * random() - 1, v = 2 * random() - 1;
     if (Math.hypot(u, v) > profileAt(profile, Math.atan2(v, u))) continue;
     const [x, y] = toSlide(frame, u, v);
-    xPx[i] = round1(x);
-    yPx[i] = round1(y);
+    xPx[i] = roundTo(x, 1);
+    yPx[i] = roundTo(y, 1);
     i++;
   }
   for (let k = 0; k < nFigures; k++) {
@@ -143,7 +136,7 @@ export function generateBenchSlide(seed: number, options: BenchSlideOptions = {}
     const label = t < 0.6 ? 0 : t < 0.8 ? 1 : t < 0.93 ? 2 : 3;
     labelIndex[k] = label;
     const s = label === 0 ? 0.3 + 0.7 * random() : 0.6 * random();
-    score[k] = Math.round(s * 1000) / 1000;
+    score[k] = roundTo(s, 3);
   }
   return {
     slide,

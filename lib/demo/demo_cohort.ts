@@ -28,9 +28,10 @@ import {
   rasterize,
   reversed,
   ringBBox,
-  round1,
   toSlide,
 } from "./_shapes.ts";
+import { type CaseRecipe, DEMO_RECIPES, LOOKALIKES } from "./demo_recipes.ts";
+import { roundTo } from "../numbers.ts";
 
 /** The seed `deno task demo:data` uses for data/demo/. */
 export const DEMO_SEED = 24;
@@ -101,316 +102,6 @@ export interface DemoCase {
   maskDrawnFrom?: PolygonPx[];
 }
 
-// ---------------------------------------------------------------------------
-// Case recipes. Positions are in the tissue's normalized frame: (0, 0) is the
-// tissue centre, the tissue outline lies at radius 0.75–1.25 and the tumour
-// outline inside radius 0.67 of it, so anything at radius ≤ 0.45 is tumour.
-
-interface ExcludeRecipe {
-  reason: string;
-  u: number;
-  v: number;
-  rxMm: number;
-  ryMm: number;
-  rotation: number;
-  /** Extra candidates placed inside the zone (mitotic-looking and lookalikes). */
-  figures: number;
-}
-
-interface FocusRecipe {
-  u: number;
-  v: number;
-  sigmaUm: number;
-  n: number;
-}
-
-interface FieldRecipe {
-  reader: string;
-  u: number;
-  v: number;
-  /** A drawn polygon of about 2.37 mm² instead of a centre point. */
-  polygon?: boolean;
-  label?: string;
-}
-
-interface CaseRecipe {
-  caseId: string;
-  tumourType: string;
-  shows: string;
-  scheme: string;
-  mpp: number | [number, number];
-  slideMm: [number, number];
-  tissue: {
-    cxMm: number;
-    cyMm: number;
-    rxMm: number;
-    ryMm: number;
-    rotation: number;
-    vertices: number;
-    holes: number;
-  };
-  /** Separate small tissue pieces (make the tissue a MultiPolygon). */
-  fragments: { angle: number; rMm: number }[];
-  tumourScale: number;
-  excludes: ExcludeRecipe[];
-  foci: FocusRecipe[];
-  /** Uniform mitotic figures per mm² inside the tumour. */
-  backgroundPerMm2: number;
-  /** Uniform mitotic figures per mm² in tissue outside the tumour. */
-  outsidePerMm2: number;
-  /** Lookalike candidates spread over the tumour. */
-  lookalikes: number;
-  /** How figures are written. */
-  figureStyle: "annotator" | "detector" | "csv";
-  fields: FieldRecipe[];
-  /** Tissue as a PNG mask with this many µm per mask pixel. */
-  maskUmPerPx?: number;
-  /** Write holes with the same winding as the outer ring (either is accepted). */
-  sameWinding?: boolean;
-}
-
-const MCT = "canine cutaneous mast cell tumour";
-
-const RECIPES: CaseRecipe[] = [
-  {
-    caseId: "QVT-24-001",
-    tumourType: MCT,
-    scheme: "canine-mct-2tier",
-    shows:
-      "A clearly high count: two strong foci over a busy background, far above 7 figures in 2.37 mm²; a small second tissue piece makes the tissue a MultiPolygon.",
-    mpp: 0.25,
-    slideMm: [25, 15],
-    tissue: { cxMm: 11.5, cyMm: 7.5, rxMm: 7, ryMm: 5, rotation: 0.3, vertices: 520, holes: 5 },
-    fragments: [{ angle: 0.2, rMm: 1.1 }],
-    tumourScale: 0.56,
-    excludes: [
-      { reason: "necrosis", u: 0.3, v: -0.22, rxMm: 0.9, ryMm: 0.6, rotation: 0.4, figures: 9 },
-      {
-        reason: "fold artefact",
-        u: -0.45,
-        v: 0.35,
-        rxMm: 1.6,
-        ryMm: 0.18,
-        rotation: -0.6,
-        figures: 3,
-      },
-    ],
-    foci: [
-      { u: -0.15, v: 0.1, sigmaUm: 450, n: 32 },
-      { u: 0.25, v: 0.22, sigmaUm: 600, n: 18 },
-    ],
-    backgroundPerMm2: 2.5,
-    outsidePerMm2: 0.3,
-    lookalikes: 70,
-    figureStyle: "annotator",
-    fields: [
-      { reader: "reader-a", u: -0.13, v: 0.12 },
-      { reader: "reader-b", u: 0.26, v: 0.2 },
-    ],
-  },
-  {
-    caseId: "QVT-24-002",
-    tumourType: MCT,
-    scheme: "canine-mct-2tier",
-    shows:
-      "A clearly low count: sparse figures and one weak focus, far below 7 in 2.37 mm² wherever the window is placed; apoptotic bodies and pyknotic nuclei must not be counted.",
-    mpp: 0.252,
-    slideMm: [20, 14],
-    tissue: { cxMm: 10, cyMm: 7, rxMm: 6, ryMm: 4.5, rotation: -0.2, vertices: 420, holes: 3 },
-    fragments: [],
-    tumourScale: 0.55,
-    excludes: [
-      { reason: "haemorrhage", u: -0.2, v: 0.25, rxMm: 0.7, ryMm: 0.5, rotation: 0, figures: 2 },
-    ],
-    foci: [{ u: 0.1, v: 0, sigmaUm: 700, n: 3 }],
-    backgroundPerMm2: 0.3,
-    outsidePerMm2: 0.1,
-    lookalikes: 60,
-    figureStyle: "annotator",
-    fields: [{ reader: "reader-a", u: 0.12, v: 0.02 }],
-  },
-  {
-    caseId: "QVT-24-003",
-    tumourType: MCT,
-    scheme: "canine-mct-2tier",
-    shows:
-      "Borderline: the best 2.37 mm² holds about the cut-off of 7 figures while most placements hold fewer, so the class depends on the field; one reader drew a polygon instead of marking a centre.",
-    mpp: 0.246,
-    slideMm: [22, 16],
-    tissue: { cxMm: 11, cyMm: 8, rxMm: 6.5, ryMm: 5.2, rotation: 0.9, vertices: 460, holes: 4 },
-    fragments: [],
-    tumourScale: 0.56,
-    excludes: [
-      { reason: "out of focus", u: 0.35, v: -0.3, rxMm: 1.2, ryMm: 0.8, rotation: 0.2, figures: 3 },
-    ],
-    foci: [
-      { u: -0.1, v: -0.1, sigmaUm: 500, n: 5 },
-      { u: 0.3, v: 0.25, sigmaUm: 550, n: 4 },
-    ],
-    backgroundPerMm2: 0.6,
-    outsidePerMm2: 0.2,
-    lookalikes: 50,
-    figureStyle: "annotator",
-    fields: [
-      { reader: "reader-a", u: -0.1, v: -0.08 },
-      { reader: "reader-b", u: 0.29, v: 0.24, polygon: true, label: "10 HPF drawn" },
-      { reader: "trainee-1", u: -0.3, v: 0.3 },
-    ],
-  },
-  {
-    caseId: "QVT-24-004",
-    tumourType: MCT,
-    scheme: "canine-mct-2tier",
-    shows:
-      "Borderline, scanned with unequal pixel sides (0.2485 × 0.2512 µm): detector points with scores, one focus near the cut-off, an out-of-focus band excluded.",
-    mpp: [0.2485, 0.2512],
-    slideMm: [18, 14],
-    tissue: { cxMm: 9, cyMm: 7, rxMm: 5.5, ryMm: 4.6, rotation: -0.5, vertices: 400, holes: 3 },
-    fragments: [],
-    tumourScale: 0.55,
-    excludes: [
-      {
-        reason: "out of focus",
-        u: -0.3,
-        v: -0.05,
-        rxMm: 2.2,
-        ryMm: 0.35,
-        rotation: 1.2,
-        figures: 4,
-      },
-    ],
-    foci: [{ u: 0.05, v: 0.12, sigmaUm: 420, n: 5 }],
-    backgroundPerMm2: 0.8,
-    outsidePerMm2: 0.2,
-    lookalikes: 80,
-    figureStyle: "detector",
-    fields: [{ reader: "reader-c", u: 0.07, v: 0.1 }],
-  },
-  {
-    caseId: "QVT-24-005",
-    tumourType: MCT,
-    scheme: "canine-mct-2tier",
-    shows:
-      "A small incisional biopsy: valid tumour tissue is well under 2.37 mm², so no window of the standard area fits and no hotspot can be placed.",
-    mpp: 0.25,
-    slideMm: [15, 10],
-    tissue: { cxMm: 6.5, cyMm: 5, rxMm: 1.0, ryMm: 0.8, rotation: 0.1, vertices: 160, holes: 1 },
-    fragments: [{ angle: 0.0, rMm: 0.45 }, { angle: 2.6, rMm: 0.35 }],
-    tumourScale: 0.6,
-    excludes: [
-      {
-        reason: "crush artefact",
-        u: 0.2,
-        v: 0.15,
-        rxMm: 0.18,
-        ryMm: 0.12,
-        rotation: 0.5,
-        figures: 1,
-      },
-    ],
-    foci: [{ u: 0, v: 0, sigmaUm: 250, n: 4 }],
-    backgroundPerMm2: 2.0,
-    outsidePerMm2: 0.5,
-    lookalikes: 8,
-    figureStyle: "detector",
-    fields: [{ reader: "reader-a", u: 0, v: 0 }],
-  },
-  {
-    caseId: "QVT-24-006",
-    tumourType: MCT,
-    scheme: "canine-mct-2tier",
-    shows:
-      "A poor choice of field: one strong focus holds well over 7 figures, but trainee-2 counted a quiet area below the cut-off; reader-a found the focus.",
-    mpp: 0.2505,
-    slideMm: [24, 16],
-    tissue: { cxMm: 12, cyMm: 8, rxMm: 7.2, ryMm: 5.4, rotation: 0.15, vertices: 500, holes: 6 },
-    fragments: [],
-    tumourScale: 0.57,
-    excludes: [
-      { reason: "necrosis", u: -0.05, v: -0.3, rxMm: 1.0, ryMm: 0.7, rotation: 0.9, figures: 8 },
-      { reason: "ulceration", u: -0.35, v: 0.4, rxMm: 1.4, ryMm: 0.5, rotation: 0.1, figures: 2 },
-    ],
-    foci: [{ u: 0.3, v: -0.15, sigmaUm: 380, n: 20 }],
-    backgroundPerMm2: 0.8,
-    outsidePerMm2: 0.2,
-    lookalikes: 60,
-    figureStyle: "detector",
-    fields: [
-      { reader: "reader-a", u: 0.29, v: -0.14 },
-      { reader: "trainee-2", u: -0.3, v: 0.05, label: "first field examined" },
-    ],
-  },
-  {
-    caseId: "QVT-24-007",
-    tumourType: "canine soft tissue sarcoma",
-    scheme: "canine-sts",
-    shows:
-      "Tissue from a PNG mask at 16 µm per mask pixel (not the slide's 0.25 µm/px), tied to the annotations by a case file; moderate foci.",
-    mpp: 0.25,
-    slideMm: [28, 18],
-    tissue: { cxMm: 13, cyMm: 9, rxMm: 9, ryMm: 6, rotation: -0.35, vertices: 600, holes: 6 },
-    fragments: [{ angle: 0.3, rMm: 1.4 }],
-    tumourScale: 0.56,
-    excludes: [
-      { reason: "necrosis", u: 0.2, v: 0.3, rxMm: 1.5, ryMm: 1.0, rotation: 0.3, figures: 10 },
-    ],
-    foci: [
-      { u: -0.25, v: -0.1, sigmaUm: 550, n: 10 },
-      { u: 0.3, v: -0.2, sigmaUm: 500, n: 8 },
-    ],
-    backgroundPerMm2: 0.9,
-    outsidePerMm2: 0.2,
-    lookalikes: 60,
-    figureStyle: "annotator",
-    fields: [{ reader: "reader-b", u: -0.24, v: -0.12 }],
-    maskUmPerPx: 16,
-  },
-  {
-    caseId: "QVT-24-008",
-    tumourType: "canine mammary carcinoma",
-    scheme: "canine-mammary",
-    shows:
-      "Figures from a detector's CSV (x,y,label,score) with many low-score candidates and lookalikes, tied to the outlines by a case file; several foci.",
-    mpp: 0.243,
-    slideMm: [24, 16],
-    tissue: { cxMm: 12, cyMm: 8, rxMm: 7, ryMm: 5.5, rotation: 0.5, vertices: 480, holes: 5 },
-    fragments: [{ angle: 3.4, rMm: 1.0 }],
-    tumourScale: 0.56,
-    excludes: [
-      { reason: "necrosis", u: 0.1, v: 0.3, rxMm: 1.1, ryMm: 0.8, rotation: 0, figures: 12 },
-      {
-        reason: "fold artefact",
-        u: -0.4,
-        v: -0.3,
-        rxMm: 1.3,
-        ryMm: 0.15,
-        rotation: 0.7,
-        figures: 2,
-      },
-    ],
-    foci: [
-      { u: -0.2, v: 0.05, sigmaUm: 450, n: 16 },
-      { u: 0.25, v: -0.15, sigmaUm: 500, n: 11 },
-      { u: 0.05, v: 0.35, sigmaUm: 400, n: 8 },
-    ],
-    backgroundPerMm2: 1.8,
-    outsidePerMm2: 0.3,
-    lookalikes: 400,
-    figureStyle: "csv",
-    fields: [
-      { reader: "reader-a", u: -0.2, v: 0.06 },
-      { reader: "trainee-1", u: 0.0, v: -0.38 },
-    ],
-  },
-];
-
-/** Lookalike labels and how often each is drawn. */
-const LOOKALIKES: [string, number][] = [
-  ["apoptotic body", 0.45],
-  ["pyknotic nucleus", 0.35],
-  ["hyperchromatic nucleus", 0.2],
-];
-
 /**
  * Generates the demo cohort from a seed.
  *
@@ -428,7 +119,7 @@ const LOOKALIKES: [string, number][] = [
  * ```
  */
 export function generateDemoCohort(seed: number = DEMO_SEED): DemoCase[] {
-  return RECIPES.map((recipe, i) => generateCase(recipe, seededRandom(seed * 1000 + i + 1)));
+  return DEMO_RECIPES.map((recipe, i) => generateCase(recipe, seededRandom(seed * 1000 + i + 1)));
 }
 
 function mppPair(mpp: number | [number, number]): [number, number] {
@@ -524,11 +215,11 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
 
   // Figures.
   const figures: DemoFigureRow[] = [];
-  const score = (lo: number, hi: number) => Math.round((lo + (hi - lo) * random()) * 1000) / 1000;
+  const score = (lo: number, hi: number) => roundTo(lo + (hi - lo) * random(), 3);
   const mitotic = (x: number, y: number) =>
     figures.push({
-      xPx: round1(x),
-      yPx: round1(y),
+      xPx: roundTo(x, 1),
+      yPx: roundTo(y, 1),
       label: "mitotic figure",
       score: score(0.55, 1),
     });
@@ -567,7 +258,7 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
       label = l;
       if ((t -= p) < 0) break;
     }
-    figures.push({ xPx: round1(x), yPx: round1(y), label, score: score(0.05, 0.6) });
+    figures.push({ xPx: roundTo(x, 1), yPx: roundTo(y, 1), label, score: score(0.05, 0.6) });
   };
   for (let k = 0; k < r.lookalikes; k++) {
     lookalike(...uniformIn((x, y) => inPolygon(tissue[0], x, y), tumourBox));
@@ -588,8 +279,8 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
     for (let k = 0; k < nWeak; k++) {
       const [x, y] = uniformIn((x, y) => inPolygon(tissue[0], x, y), tumourBox);
       figures.push({
-        xPx: round1(x),
-        yPx: round1(y),
+        xPx: roundTo(x, 1),
+        yPx: roundTo(y, 1),
         label: "mitotic figure",
         score: score(0.1, 0.5),
       });
@@ -605,14 +296,14 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
       return {
         type: "Feature",
         properties,
-        geometry: { type: "Point", coordinates: [round1(cx), round1(cy)] },
+        geometry: { type: "Point", coordinates: [roundTo(cx, 1), roundTo(cy, 1)] },
       };
     }
     // A hand-drawn quadrilateral of about 2.37 mm² (1777.6 × 1333.2 µm).
     const hw = 1777.6 / 2, hh = 1333.2 / 2;
     const corners: Vec2[] = [[-hw, -hh], [hw, -hh], [hw, hh], [-hw, hh]].map(([dx, dy]) => [
-      round1(cx + (dx + 40 * (random() - 0.5)) / mppX),
-      round1(cy + (dy + 40 * (random() - 0.5)) / mppY),
+      roundTo(cx + (dx + 40 * (random() - 0.5)) / mppX, 1),
+      roundTo(cy + (dy + 40 * (random() - 0.5)) / mppY, 1),
     ]);
     return {
       type: "Feature",

@@ -12,21 +12,17 @@
  *   package and inlined once per kernel session behind a guard (no network);
  * - `text/plain`: a one-line summary.
  *
- * The plot specs are those of the HTML reports (`lib/report/plots.ts`).
+ * The plot specs are those of the HTML reports (`lib/report/*_figure.ts`).
  * Nothing here touches `Deno.jupyter`, so the module loads anywhere.
  *
  * @module
  */
 
 import type { CaseResult } from "../pipeline/case_result.ts";
-import {
-  cohortFigure,
-  countMapFigure,
-  type CountMapFigureOptions,
-  distributionFigure,
-  PLOT_CONFIG,
-  type PlotFigure,
-} from "../report/plots.ts";
+import { cohortFigure } from "../report/cohort_figure.ts";
+import { countMapFigure, type CountMapFigureOptions } from "../report/count_map_figure.ts";
+import { distributionFigure } from "../report/distribution_figure.ts";
+import { PLOT_CONFIG, type PlotFigure } from "../report/plot_style.ts";
 import { escapeHtml, jsonForScript } from "../report/html_escape.ts";
 import { readPlotlyJs } from "../report/plotly_asset.ts";
 

@@ -38,13 +38,7 @@ import {
   DEFAULT_STRIDE_UM,
   DEFAULT_TOP,
 } from "../defaults.ts";
-
-/** Rounds to d decimals (stable text in report.json). */
-export function roundTo(v: number, d: number): number {
-  const f = 10 ** d;
-  const r = Math.round(v * f) / f;
-  return Object.is(r, -0) ? 0 : r;
-}
+import { roundTo } from "../numbers.ts";
 
 /** A window as report.json gives it (µm to 0.01). */
 export function reportWindow(w: WindowShape): ReportWindow {

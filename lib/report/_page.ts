@@ -5,7 +5,7 @@
  */
 
 import { escapeHtml, jsonForScript } from "./html_escape.ts";
-import { PLOT_CONFIG } from "./plots.ts";
+import { PLOT_CONFIG } from "./plot_style.ts";
 
 /** What a report page shows besides the result itself. */
 export interface CaseHtmlContext {

@@ -8,7 +8,8 @@
 
 import type { CaseResult } from "../pipeline/case_result.ts";
 import { escapeHtml } from "./html_escape.ts";
-import { cohortFigure, cutoffCount } from "./plots.ts";
+import { cohortFigure } from "./cohort_figure.ts";
+import { cutoffCount } from "./plot_labels.ts";
 import { type CaseHtmlContext, REPORT_CAUTIONS, REPORT_CSS } from "./report_html.ts";
 import { fmt, plotlyScriptTag, plotScripts } from "./_page.ts";
 

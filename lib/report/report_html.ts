@@ -14,13 +14,9 @@ import type { CaseResult } from "../pipeline/case_result.ts";
 import type { ReportPlacement } from "../pipeline/report_types.ts";
 import { escapeHtml } from "./html_escape.ts";
 import { type CaseHtmlContext, fmt, plotlyScriptTag, plotScripts } from "./_page.ts";
-import {
-  countMapFigure,
-  cutoffCount,
-  distributionFigure,
-  readerName,
-  windowWords,
-} from "./plots.ts";
+import { countMapFigure } from "./count_map_figure.ts";
+import { distributionFigure } from "./distribution_figure.ts";
+import { cutoffCount, readerName, windowWords } from "./plot_labels.ts";
 
 export type { CaseHtmlContext };
 

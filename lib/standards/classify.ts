@@ -16,6 +16,7 @@
  */
 
 import type { GradingScheme, LowerBound } from "./scheme_types.ts";
+import { roundTo } from "../numbers.ts";
 
 /** Relative tolerance when comparing rates with cut-offs (rounding of area products). */
 const REL_TOL = 1e-9;
@@ -56,7 +57,7 @@ export function describeBasis(scheme: GradingScheme): string {
   if (b.kind === "fields") {
     return b.fieldAreaMm2 === undefined
       ? `per ${b.n} HPF (field area not fixed)`
-      : `per ${b.n} HPF (${round(b.n * b.fieldAreaMm2, 4)} mm²)`;
+      : `per ${b.n} HPF (${roundTo(b.n * b.fieldAreaMm2, 4)} mm²)`;
   }
   return "area undefined by the source";
 }
@@ -84,7 +85,7 @@ export function areaFactor(
     return {
       factor: 1,
       note: `Scheme "${scheme.id}" fixes no counting area (${describeBasis(scheme)}); its ` +
-        `cut-offs are applied to the ${round(windowAreaMm2, 4)} mm² window count unchanged`,
+        `cut-offs are applied to the ${roundTo(windowAreaMm2, 4)} mm² window count unchanged`,
     };
   }
   const ratio = windowAreaMm2 / basis;
@@ -92,7 +93,7 @@ export function areaFactor(
   return {
     factor: ratio,
     note: `Scheme "${scheme.id}" counts ${describeBasis(scheme)}; its cut-offs were converted ` +
-      `by area to the ${round(windowAreaMm2, 4)} mm² window (× ${round(ratio, 4)})`,
+      `by area to the ${roundTo(windowAreaMm2, 4)} mm² window (× ${roundTo(ratio, 4)})`,
   };
 }
 
@@ -241,7 +242,7 @@ export function classifyCounts(
       cutoff: value,
       cutoff_rule: strict ? ">" : "≥",
       source_text: t.sourceText,
-      cutoff_for_window: round(value * factor, 6),
+      cutoff_for_window: roundTo(value * factor, 6),
       min_count_for_window: minCount,
       class: decide(input.hotspotCount, input.q1, minCount),
       fraction_at_or_above: positions === 0
@@ -265,7 +266,7 @@ export function classifyCounts(
     cutoff_for_window: primary.cutoff_for_window,
     min_count_for_window: primary.min_count_for_window,
     hotspot_count: input.hotspotCount,
-    hotspot_rate_per_basis: rate === null ? null : round(rate, 6),
+    hotspot_rate_per_basis: rate === null ? null : roundTo(rate, 6),
     tiers,
     definition: "below: the hotspot count does not meet the cut-off; above: the lower " +
       "quartile of admissible window counts meets it; otherwise field-dependent. " +
@@ -302,9 +303,4 @@ function boundParts(bound: LowerBound): { value: number; strict: boolean } {
   return "above" in bound
     ? { value: bound.above, strict: true }
     : { value: bound.atLeast, strict: false };
-}
-
-function round(x: number, digits: number): number {
-  const f = 10 ** digits;
-  return Math.round(x * f) / f;
 }

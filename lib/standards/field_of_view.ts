@@ -6,6 +6,8 @@
  * @module
  */
 
+import { roundTo } from "../numbers.ts";
+
 /** Largest field diameter accepted, mm: wider fields are not high-power fields. */
 export const MAX_FIELD_DIAMETER_MM = 2;
 
@@ -56,7 +58,9 @@ export function fieldOfView(options: FieldOfViewOptions): FieldOfView {
   if (diameterMm > MAX_FIELD_DIAMETER_MM) {
     throw new RangeError(
       `Field diameter must be at most ${MAX_FIELD_DIAMETER_MM} mm for a high-power field: got ` +
-        `${round(diameterMm, 4)} mm (field number ${fieldNumberMm} mm, objective ${objective}×, ` +
+        `${
+          roundTo(diameterMm, 4)
+        } mm (field number ${fieldNumberMm} mm, objective ${objective}×, ` +
         `tube ${tube}×)`,
     );
   }
@@ -157,9 +161,4 @@ function positive(v: number, what: string, unit: string): void {
   if (typeof v !== "number" || !Number.isFinite(v) || v <= 0) {
     throw new RangeError(`${what} must be a number > 0${unit}: got ${v}`);
   }
-}
-
-function round(x: number, digits: number): number {
-  const f = 10 ** digits;
-  return Math.round(x * f) / f;
 }

@@ -9,6 +9,7 @@ import { decode } from "fast-png";
 import type { MultiPolygonPx, PolygonPx, RegionPart, Ring, SlideInfo } from "../types.ts";
 import { inputError } from "../errors.ts";
 import { ringAreaPx2 } from "../geometry/planar_area.ts";
+import { roundTo } from "../numbers.ts";
 
 /** A binary mask, row-major, `data[y·width + x]` is 1 for tissue and 0 for background. */
 export interface Mask {
@@ -323,7 +324,7 @@ export function checkMaskSize(
     ["width", mask.width, mx, slide.mppX, slide.widthPx, 0],
     ["height", mask.height, my, slide.mppY, slide.heightPx, 1],
   ];
-  const r = (v: number) => String(Math.round(v * 10) / 10);
+  const r = (v: number) => String(roundTo(v, 1));
   for (const [name, maskPx, maskMppAxis, slideMpp, slidePx] of axes) {
     if (slidePx === undefined || !(slidePx > 0)) {
       warnings.push(
@@ -344,7 +345,7 @@ export function checkMaskSize(
         } µm (${maskPx} px at ${maskMppAxis} µm/px) but the slide ${name} is ${
           r(slideUm)
         } µm (${slidePx} px at ${slideMpp} µm/px); a mask mpp of about ${
-          Math.round(slideUm / maskPx * 1e4) / 1e4
+          roundTo(slideUm / maskPx, 4)
         } µm/px would fit`,
       );
     }

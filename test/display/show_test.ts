@@ -8,7 +8,7 @@ import {
   showDistribution,
   showTable,
 } from "../../lib/display/show.ts";
-import { countMapFigure } from "../../lib/report/plots.ts";
+import { countMapFigure } from "../../lib/report/count_map_figure.ts";
 import { fixtureResult } from "../report/_fixture.ts";
 
 const FAKE = "window.Plotly={newPlot:function(){}};";

@@ -9,7 +9,8 @@ import { renderCaseHtml } from "../../lib/report/report_html.ts";
 import { renderCohortIndex } from "../../lib/report/cohort_index.ts";
 import { escapeHtml, jsonForScript } from "../../lib/report/html_escape.ts";
 import { findPlotlyPath, PLOTLY_PACKAGE, PLOTLY_VERSION } from "../../lib/report/plotly_asset.ts";
-import { countMapFigure, heatmapGrid, plotText } from "../../lib/report/plots.ts";
+import { countMapFigure, heatmapGrid } from "../../lib/report/count_map_figure.ts";
+import { plotText } from "../../lib/report/plot_labels.ts";
 import { caseHotspotGeoJson } from "../../lib/report/hotspot_geojson.ts";
 import { fixtureResult } from "./_fixture.ts";
 

@@ -1,0 +1,170 @@
+/**
+ * The distribution of window counts of a case as a plotly.js figure (plain data).
+ *
+ * @module
+ */
+
+import type { CaseResult } from "../pipeline/case_result.ts";
+import { cutoffCount, cutoffLabel, plotText, readerName } from "./plot_labels.ts";
+import { MARK_STYLE, OKABE_ITO, PLOT_FONT, type PlotFigure, readerStyles } from "./plot_style.ts";
+
+/**
+ * Histogram of admissible window counts: index = count, value = number of positions.
+ *
+ * @example
+ * ```ts
+ * import { admissibleHistogram } from "./distribution_figure.ts";
+ * const h = admissibleHistogram({
+ *   map: { counts: new Int32Array([0, 2, 2, 5]), admissible: new Uint8Array([1, 1, 1, 0]) },
+ * } as never);
+ * if (h.join() !== "1,0,2") throw new Error(h.join());
+ * ```
+ */
+export function admissibleHistogram(result: Pick<CaseResult, "map">): number[] {
+  const { counts, admissible } = result.map;
+  const hist: number[] = [];
+  for (let k = 0; k < counts.length; k++) {
+    if (!admissible[k]) continue;
+    const c = counts[k];
+    while (hist.length <= c) hist.push(0);
+    hist[c]++;
+  }
+  return hist;
+}
+
+/**
+ * The distribution of window counts over every admissible position (bars),
+ * with the classification's cut-off (dashed line) when there is one, the
+ * hotspot (solid line) and each reader's field (marker per reader).
+ *
+ * @param result The engine result.
+ * @returns The figure.
+ *
+ * @example Bars count positions per count
+ * ```ts
+ * import { distributionFigure } from "./distribution_figure.ts";
+ * const fig = distributionFigure({
+ *   report: { case: "QVT-24-001", fields: [], classification: null },
+ *   map: { counts: new Int32Array([0, 2, 2]), admissible: new Uint8Array([1, 1, 1]) },
+ *   hotspot: null,
+ * } as never);
+ * const y = fig.data[0].y as number[];
+ * if (y.join() !== "1,0,2") throw new Error(y.join());
+ * ```
+ */
+export function distributionFigure(result: CaseResult): PlotFigure {
+  const hist = admissibleHistogram(result);
+  const total = hist.reduce((a, b) => a + b, 0);
+  const data: Record<string, unknown>[] = [{
+    type: "bar",
+    name: "window positions",
+    x: hist.map((_, i) => i),
+    y: hist,
+    marker: { color: "#8da0b6", line: { color: "#4a5a6e", width: 0.6 } },
+    hovertemplate: "%{x} figures: %{y} positions<extra></extra>",
+  }];
+  const peak = Math.max(1, ...hist);
+  const shapes: Record<string, unknown>[] = [];
+  const annotations: Record<string, unknown>[] = [];
+  const cutoff = cutoffCount(result.report.classification);
+  if (cutoff !== null) {
+    const at = Number.isInteger(cutoff) ? cutoff - 0.5 : cutoff;
+    shapes.push({
+      type: "line",
+      x0: at,
+      x1: at,
+      y0: 0,
+      y1: 1,
+      yref: "paper",
+      line: { color: OKABE_ITO.black, width: 2, dash: "dash" },
+    });
+    annotations.push({
+      x: at,
+      y: 1,
+      yref: "paper",
+      text: plotText(cutoffLabel(result.report.classification)),
+      showarrow: false,
+      xanchor: "left",
+      yanchor: "bottom",
+      font: { size: 12 },
+    });
+  }
+  if (result.hotspot) {
+    data.push({
+      type: "scatter",
+      mode: "lines",
+      name: `hotspot: ${result.hotspot.count}`,
+      x: [result.hotspot.count, result.hotspot.count],
+      y: [0, peak * 1.08],
+      line: { color: MARK_STYLE.hotspot.color, width: 3 },
+      hovertemplate: `hotspot: ${result.hotspot.count} figures<extra></extra>`,
+    });
+  }
+  const fields = result.report.fields;
+  const styles = readerStyles(fields.map((f) => f.reader));
+  let n = 0;
+  for (const [reader, style] of styles) {
+    const mine = fields.filter((f) => f.reader === reader);
+    const name = plotText(readerName(reader));
+    data.push({
+      type: "scatter",
+      mode: "markers",
+      name: `field of ${name}`,
+      x: mine.map((f) => f.count),
+      y: mine.map(() => peak * (1.16 + 0.07 * n)),
+      marker: {
+        symbol: style.symbol,
+        size: 12,
+        color: style.color,
+        line: { color: "#1a1a1a", width: 1 },
+      },
+      text: mine.map((f) =>
+        `${name}: ${f.count} figures` +
+        (f.percentile === null ? "" : `, ${f.percentile.toFixed(1)}th percentile`)
+      ),
+      hovertemplate: "%{text}<extra></extra>",
+    });
+    n++;
+  }
+  if (total === 0) {
+    annotations.push({
+      x: 0.5,
+      y: 0.5,
+      xref: "paper",
+      yref: "paper",
+      text: "No admissible window position",
+      showarrow: false,
+      font: { size: 16, color: "#8a4b00" },
+    });
+  }
+  const layout: Record<string, unknown> = {
+    title: { text: `Counts of all admissible windows: ${plotText(result.report.case)}`, x: 0 },
+    font: PLOT_FONT,
+    height: 380,
+    margin: { l: 70, r: 20, t: 60, b: 55 },
+    bargap: 0.08,
+    paper_bgcolor: "#ffffff",
+    plot_bgcolor: "#ffffff",
+    xaxis: {
+      title: { text: "figures in the window" },
+      rangemode: "tozero",
+      ticks: "outside",
+      gridcolor: "#e5e5e5",
+    },
+    yaxis: {
+      title: { text: "grid positions" },
+      rangemode: "tozero",
+      gridcolor: "#e5e5e5",
+    },
+    shapes,
+    annotations,
+    legend: { orientation: "h", x: 0, y: -0.22, xanchor: "left", yanchor: "top" },
+  };
+  return {
+    data,
+    layout,
+    caption: total === 0
+      ? "No admissible window position, so there is no distribution to draw."
+      : `How many of the ${total} admissible window positions hold each count.`,
+  };
+}
