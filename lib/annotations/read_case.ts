@@ -587,27 +587,33 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
   return out;
 }
 
-/** Share of points inside a box grown by 5% on each side. */
-function shareInside(
+/** Share of points inside a box grown by 5% on each side, and the points' extent. */
+function fitToBox(
   xs: ArrayLike<number>,
   ys: ArrayLike<number>,
   box: [number, number, number, number],
   scaleX: number,
   scaleY: number,
-): number {
+): { share: number; width: number; height: number } {
   const gx = (box[2] - box[0]) * 0.05, gy = (box[3] - box[1]) * 0.05;
-  let n = 0;
+  let n = 0, x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
   for (let k = 0; k < xs.length; k++) {
     const x = xs[k] * scaleX, y = ys[k] * scaleY;
     if (x >= box[0] - gx && x <= box[2] + gx && y >= box[1] - gy && y <= box[3] + gy) n++;
+    x0 = Math.min(x0, x), x1 = Math.max(x1, x), y0 = Math.min(y0, y), y1 = Math.max(y1, y);
   }
-  return xs.length === 0 ? 1 : n / xs.length;
+  return { share: xs.length === 0 ? 1 : n / xs.length, width: x1 - x0, height: y1 - y0 };
 }
 
 /**
  * A figures CSV whose points fit the slide's regions (or its size) only when
  * read in the other unit: the message, and whether it voids the count (the
  * unit was a default, not stated).
+ *
+ * Read the other way, the points fit the regions' bounding box (90% inside)
+ * while as read either most fall outside it, or (µm taken as px, at fine
+ * mpp) they huddle in a corner: less than 70% of the box's width and height,
+ * where the other reading spreads them over at least half of it.
  */
 function figureUnitDoubt(
   figures: FigureSet,
@@ -630,18 +636,27 @@ function figureUnitDoubt(
   }
   if (box === null) return null;
   // As read, points are level-0 px. Read the other way: values in µm that were
-  // taken as px are px·mpp too large; values in px taken as µm are too small.
+  // taken as px are px·mpp too small; values in px taken as µm are too large.
   const [sx, sy] = csv.units === "px" ? [1 / slide.mppX, 1 / slide.mppY] : [slide.mppX, slide.mppY];
-  const asRead = shareInside(figures.xPx, figures.yPx, box, 1, 1);
-  const other = shareInside(figures.xPx, figures.yPx, box, sx, sy);
-  if (!(asRead < 0.5 && other >= 0.9)) return null;
+  const asRead = fitToBox(figures.xPx, figures.yPx, box, 1, 1);
+  const other = fitToBox(figures.xPx, figures.yPx, box, sx, sy);
+  const bw = box[2] - box[0], bh = box[3] - box[1];
+  const huddled = csv.units === "px" && slide.mppX <= 0.7 && slide.mppY <= 0.7 &&
+    asRead.width < 0.7 * bw && asRead.height < 0.7 * bh &&
+    (other.width >= 0.5 * bw || other.height >= 0.5 * bh);
+  if (!(other.share >= 0.9 && (asRead.share < 0.5 || huddled))) return null;
   const pct = (v: number) => `${Math.round(v * 100)}%`;
   const [stated, alt, option] = csv.units === "px"
     ? ["pixels", "micrometres", '--units um, or "units": "um" in the case file']
     : ["micrometres", "pixels", '--units px, or "units": "px" in the case file'];
-  const message = `Figures CSV "${csv.path}": only ${pct(asRead)} of its ${figures.xPx.length} ` +
-    `points fall within the slide's regions when x and y are read as ${stated}, but ` +
-    `${pct(other)} do when read as ${alt}: the coordinates look like ${alt} (${option})` +
+  const how = asRead.share < 0.5
+    ? `only ${pct(asRead.share)} of its ${figures.xPx.length} points fall within the slide's ` +
+      `regions when x and y are read as ${stated}, but ${pct(other.share)} do when read as ${alt}`
+    : `read as ${stated}, its ${figures.xPx.length} points crowd into a corner of the slide's ` +
+      `regions (${pct(Math.max(asRead.width / bw, asRead.height / bh))} of their extent); read ` +
+      `as ${alt} they spread over them`;
+  const message =
+    `Figures CSV "${csv.path}": ${how}: the coordinates look like ${alt} (${option})` +
     (csv.stated ? "; the unit was stated, so the points are counted as given" : "");
   return { message, blocking: !csv.stated };
 }
