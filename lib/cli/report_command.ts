@@ -57,6 +57,8 @@ Options:
   --seed N               seed of the simulations (default ${DEFAULT_SEED})
   --format LIST          outputs, comma-separated from json,html,csv,geojson (default all)
   --standalone           put plotting code inside each HTML file
+  --map-scale linear|sqrt  colour scale of the count map (default linear; sqrt keeps a
+                         weaker second focus visible)
   --allow-empty          classify a case even when nothing was counted (figures present,
                          none counted) or its figures' unit is in doubt; by default it is
                          left unclassified
@@ -80,6 +82,7 @@ const REPORT_OPTIONS = {
   "best-n": { type: "string" },
   "field-area": { type: "string" },
   "allow-empty": { type: "boolean" },
+  "map-scale": { type: "string" },
   strict: { type: "boolean" },
   scheme: { type: "string" },
   simulations: { type: "string" },
@@ -241,7 +244,15 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
       throw e;
     }
   }
-  writeOutputs(results, out, { formats, standalone: values.standalone === true });
+  const mapScale = values["map-scale"];
+  if (mapScale !== undefined && mapScale !== "linear" && mapScale !== "sqrt") {
+    throw new UsageError(`Option --map-scale must be linear or sqrt: got "${mapScale}"`);
+  }
+  writeOutputs(results, out, {
+    formats,
+    standalone: values.standalone === true,
+    ...(mapScale ? { mapScale } : {}),
+  });
   for (const r of results) {
     const h = r.report.hotspot;
     const where = formats.includes("json")

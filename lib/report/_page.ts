@@ -21,6 +21,8 @@ export interface CaseHtmlContext {
   options: Record<string, unknown>;
   /** Relative link to the page of all cases of the run, when there is one. */
   cohortHref?: string;
+  /** Colour scale of the count map. @default "linear" */
+  mapScale?: "linear" | "sqrt";
 }
 
 /** Inline a script so no text in it can close the element or open a comment. */

@@ -82,7 +82,9 @@ export function outlineTraces(
 }
 
 export function placementHover(kind: string, p: Placement): string {
-  return `${kind}<br>${p.count} figures, coverage ${(p.coverage * 100).toFixed(1)}%<br>${
-    p.perMm2.toFixed(2)
-  } per mm²<br>centre ${p.centerPx[0].toFixed(0)}, ${p.centerPx[1].toFixed(0)} px`;
+  return `${kind}<br>${p.count} figure${p.count === 1 ? "" : "s"}, coverage ${
+    (p.coverage * 100).toFixed(1)
+  }%<br>${p.perMm2.toFixed(2)} per mm²<br>centre ${p.centerPx[0].toFixed(0)}, ${
+    p.centerPx[1].toFixed(0)
+  } px`;
 }

@@ -13,6 +13,32 @@ import { cutoffCount } from "./plot_labels.ts";
 import { type CaseHtmlContext, REPORT_CAUTIONS, REPORT_CSS } from "./report_html.ts";
 import { fmt, plotlyScriptTag, plotScripts } from "./_page.ts";
 
+/** Sorts a table by a clicked heading: numbers by `data-v`, text as text. */
+const SORT_SCRIPT = `(function () {
+  var table = document.getElementById("cases");
+  if (!table) return;
+  var heads = table.tHead.rows[0].cells;
+  Array.prototype.forEach.call(heads, function (th, col) {
+    th.style.cursor = "pointer";
+    th.title = "sort by this column";
+    th.addEventListener("click", function () {
+      var down = th.getAttribute("aria-sort") !== "descending";
+      Array.prototype.forEach.call(heads, function (h) { h.removeAttribute("aria-sort"); });
+      th.setAttribute("aria-sort", down ? "descending" : "ascending");
+      var body = table.tBodies[0];
+      var rows = Array.prototype.slice.call(body.rows);
+      rows.sort(function (a, b) {
+        var x = a.cells[col], y = b.cells[col];
+        var vx = x.getAttribute("data-v"), vy = y.getAttribute("data-v");
+        var c = vx !== null && vy !== null ? Number(vx) - Number(vy)
+          : x.textContent.localeCompare(y.textContent);
+        return down ? -c : c;
+      });
+      rows.forEach(function (r) { body.appendChild(r); });
+    });
+  });
+})();`;
+
 /** What the cohort page shows besides the results. */
 export interface CohortHtmlContext extends Omit<CaseHtmlContext, "options"> {
   /** Link each case to `<case>/report.html` (else to `<case>/report.json`). @default true */
@@ -45,16 +71,23 @@ export function renderCohortIndex(
 ): string {
   const fig = cohortFigure(results);
   const linkHtml = context.linkHtml ?? true;
+  // Numeric cells carry their value for sorting (data-v); "none" sorts lowest.
+  const num = (v: number | null | undefined, digits: number, none = "–") =>
+    `<td data-v="${typeof v === "number" && Number.isFinite(v) ? v : -1}">${
+      typeof v === "number" ? fmt(v, digits) : none
+    }</td>`;
   const rows = results.map((res) => {
     const r = res.report, h = r.hotspot, c = r.classification;
     const folder = encodeURIComponent(res.prepared.caseId);
     const href = `${folder}/${linkHtml ? "report.html" : "report.json"}`;
+    const problems = ((r.count_problems as string[] | undefined) ?? []).length;
+    const cls = c ? escapeHtml(c.class) : problems > 0 ? "<b>not graded</b>" : "–";
     return `<tr><td><a href="${escapeHtml(href)}">${escapeHtml(r.case)}</a></td>` +
-      `<td>${h ? fmt(h.count, 0) : "none"}</td><td>${h ? fmt(h.per_mm2, 2) : "–"}</td>` +
-      `<td>${fmt(r.valid_area_mm2, 2)}</td><td>${fmt(r.distribution.positions, 0)}</td>` +
-      `<td>${c ? escapeHtml(c.scheme) : "–"}</td><td>${c ? fmt(cutoffCount(c), 0) : "–"}</td>` +
-      `<td>${c ? escapeHtml(c.class) : "–"}</td><td>${c?.tier ? escapeHtml(c.tier) : "–"}</td>` +
-      `<td>${fmt(r.fields.length, 0)}</td><td>${fmt(r.warnings.length, 0)}</td></tr>`;
+      num(h?.count, 0, "none") + num(h?.per_mm2, 2) +
+      num(r.valid_area_mm2, 2) + num(r.distribution.positions, 0) +
+      `<td>${c ? escapeHtml(c.scheme) : "–"}</td>` + num(c ? cutoffCount(c) : null, 0) +
+      `<td>${cls}</td><td>${c?.tier ? escapeHtml(c.tier) : "–"}</td>` +
+      num(r.fields.length, 0) + num(r.warnings.length, 0) + `</tr>`;
   });
   const csvNote = (context.linkCsv ?? true)
     ? `<p class="caption">The same numbers as tables: <a href="cases.csv">cases.csv</a> ` +
@@ -83,13 +116,17 @@ ${plotlyScriptTag(context)}
     REPORT_CAUTIONS.map((s) => `<li>${escapeHtml(s)}</li>`).join("")
   }</ul></aside>
 <section><h2>Cases</h2>
-<div class="table-wrap"><table><thead><tr><th>case</th><th>hotspot count</th><th>per mm²</th>` +
+<p class="caption">Click a column's heading to sort by it; click again to reverse.</p>
+<div class="table-wrap${
+    results.length > 25 ? " scroll" : ""
+  }"><table id="cases" class="sortable"><thead><tr><th>case</th><th>hotspot count</th><th>per mm²</th>` +
     `<th>valid mm²</th><th>positions</th><th>scheme</th><th>cut-off (count)</th><th>class</th>` +
     `<th>tier</th><th>fields</th><th>warnings</th></tr></thead>
 <tbody>
 ${rows.join("\n")}
 </tbody></table></div>
 ${csvNote}
+<script>${SORT_SCRIPT}</script>
 </section>
 <section><h2>Hotspots by case</h2>
 <div id="plot-cohort" class="plot" style="min-height:${(fig.layout.height as number) + 2}px"></div>

@@ -13,7 +13,7 @@ import type { CaseResult } from "../pipeline/case_result.ts";
 import type { MultiPolygonPx, PolygonPx } from "../types.ts";
 import { windowRingUm } from "./hotspot_geojson.ts";
 import { outlineTraces, placementHover, regionLineUm, ringsLineUm } from "./_plot_helpers.ts";
-import { plotText, readerName, windowWords } from "./plot_labels.ts";
+import { figureWords, plotText, readerName, windowWords } from "./plot_labels.ts";
 import { MARK_STYLE, PLOT_FONT, type PlotFigure, readerStyles } from "./plot_style.ts";
 import { roundTo } from "../numbers.ts";
 
@@ -27,6 +27,12 @@ export interface CountMapFigureOptions {
   maxCells?: number;
   /** Plot height in CSS pixels. @default from the region's aspect, 420 to 980 */
   height?: number;
+  /**
+   * Colour scale of window counts: `linear`, or `sqrt` (square root) so that
+   * a second, weaker focus stays visible beside a strong one.
+   * @default "linear"
+   */
+  colorScale?: "linear" | "sqrt";
 }
 
 /** The reduction of a count map for drawing. */
@@ -97,19 +103,61 @@ export function heatmapGrid(
   return { factor, xUm, yUm, z };
 }
 
+/** A µm line as a mm line (plotly draws the map in mm). */
+function lineMm(line: { x: (number | null)[]; y: (number | null)[] }): {
+  x: (number | null)[];
+  y: (number | null)[];
+} {
+  const mm = (v: number | null) => (v === null ? null : roundTo(v / 1000, 6));
+  return { x: line.x.map(mm), y: line.y.map(mm) };
+}
+
+/** Keeps at most about `budget` vertices over all rings, every k-th (drawing only). */
+function thinRegion(region: MultiPolygonPx, budget: number): { region: MultiPolygonPx; k: number } {
+  let n = 0;
+  for (const polygon of region) for (const ring of polygon) n += ring.length;
+  const k = Math.max(1, Math.ceil(n / budget));
+  if (k === 1) return { region, k };
+  const thin = region.map((polygon) =>
+    polygon.map((ring) => {
+      const kept = ring.filter((_, i) => i % k === 0);
+      kept.push(ring[ring.length - 1]);
+      return kept;
+    })
+  );
+  return { region: thin, k };
+}
+
+/** The most figures drawn as points; more are thinned to every k-th. */
+export const MAX_FIGURES_DRAWN = 5000;
+
+/** Outline styles of the slide's regions, one per kind. */
+const REGION_STYLE = {
+  tissue: { color: "#6b6b6b", dash: "solid", width: 1.2 },
+  tumour: { color: "#1a1a1a", dash: "longdash", width: 1.6 },
+  exclude: { color: "#3d3d3d", dash: "dot", width: 1 },
+} as const;
+
+/** The plot's background: where no admissible window centre lies. */
+const NOT_ADMISSIBLE = "#f2eee4";
+
 /**
  * The count map of a case over the slide: window counts at every admissible
- * grid position (cividis; inadmissible positions blank), the valid-region
- * outline, the exclusions (reason on hover), the hotspot, the top-k windows,
- * the best set of separate fields and the readers' fields, labelled.
+ * grid position (cividis; positions that are not admissible show the pale
+ * background, with its own legend entry), the tissue, tumour and exclusion
+ * outlines (one style per kind; exclusions hatched, reason on hover), every
+ * counted figure (thinned to every k-th above {@linkcode MAX_FIGURES_DRAWN},
+ * said in the caption), the best set of separate fields, the further top
+ * windows, the readers' fields (named in the legend, never in text over the
+ * map) and the hotspot on top.
  *
- * Axes in µm from the slide origin, y down (reversed), equal aspect.
+ * Axes in mm from the slide origin, y down (reversed), equal aspect.
  *
  * @param result The engine result.
- * @param options Cell budget and height.
- * @returns The figure and its caption (states any reduction factor).
+ * @param options Cell budget, height and colour scale.
+ * @returns The figure and its caption (states any reduction factor and thinning).
  *
- * @example A tiny map draws a heatmap and the valid outline
+ * @example A tiny map draws a heatmap in mm, y down
  * ```ts
  * import { countMapFigure } from "./count_map_figure.ts";
  * const result = {
@@ -117,17 +165,22 @@ export function heatmapGrid(
  *   prepared: {
  *     slide: { id: "QVT-24-001", mppX: 1, mppY: 1 },
  *     validPx: [[[[0, 0], [30, 0], [30, 20], [0, 20], [0, 0]]]], excludePx: [], fields: [],
+ *     xUm: new Float64Array([12]), yUm: new Float64Array([8]),
  *   },
  *   window: { shape: "rect", areaMm2: 0.0001, widthUm: 10, heightUm: 10, aspect: [1, 1] },
  *   map: {
  *     grid: { x0Um: 5, y0Um: 5, strideUm: 10, nx: 3, ny: 2 },
- *     counts: new Int32Array(6), admissible: new Uint8Array(6).fill(1),
+ *     counts: new Int32Array(6), admissible: new Uint8Array(6).fill(1), minCoverage: 0.95,
  *   },
  *   hotspot: null, top: [], bestFields: [], bestFieldWindow: null,
+ *   caseData: { tissue: [], tumour: [] },
  * };
  * const fig = countMapFigure(result as never);
- * if (fig.data[0].type !== "heatmap") throw new Error();
- * if ((fig.layout.yaxis as { autorange: string }).autorange !== "reversed") throw new Error();
+ * if (fig.data[0].type !== "heatmap") throw new Error(`first trace ${fig.data[0].type}`);
+ * if ((fig.layout.yaxis as { autorange: string }).autorange !== "reversed") {
+ *   throw new Error("y must point down");
+ * }
+ * if (!fig.data.some((t) => t.name === "counted figure (1)")) throw new Error("figures drawn");
  * ```
  */
 export function countMapFigure(
@@ -137,34 +190,83 @@ export function countMapFigure(
   const { prepared, map, report } = result;
   const mpp = { mppX: prepared.slide.mppX, mppY: prepared.slide.mppY };
   const g = heatmapGrid(result, options.maxCells ?? 40000);
+  const sqrt = options.colorScale === "sqrt";
+  let zmax = 0;
+  for (const row of g.z) for (const v of row) if (v !== null && v > zmax) zmax = v;
   const data: Record<string, unknown>[] = [];
+  const ticks = sqrt ? sqrtTicks(zmax) : null;
   data.push({
     type: "heatmap",
     name: "window count",
-    x: g.xUm,
-    y: g.yUm,
-    z: g.z,
+    x: g.xUm.map((v) => roundTo(v / 1000, 6)),
+    y: g.yUm.map((v) => roundTo(v / 1000, 6)),
+    z: sqrt
+      ? g.z.map((row) => row.map((v) => (v === null ? null : roundTo(Math.sqrt(v), 6))))
+      : g.z,
+    text: sqrt ? g.z : undefined,
     colorscale: "Cividis",
     zmin: 0,
     hoverongaps: false,
     colorbar: {
-      title: { text: "figures<br>per window", side: "top" },
+      title: { text: `figures<br>per window${sqrt ? "<br>(√ scale)" : ""}`, side: "top" },
       thickness: 14,
       outlinewidth: 0,
+      ...(ticks ? { tickvals: ticks.map(Math.sqrt), ticktext: ticks.map(String) } : {}),
     },
     hovertemplate: (g.factor > 1 ? "highest in block<br>" : "") +
-      "x %{x:.0f} µm, y %{y:.0f} µm<br>%{z} figures<extra></extra>",
+      `x %{x:.2f} mm, y %{y:.2f} mm<br>%{${sqrt ? "text" : "z"}} figures<extra></extra>`,
   });
-  // Valid region V.
-  data.push(
-    ...outlineTraces(
-      "valid region",
-      regionLineUm(prepared.validPx, mpp),
-      MARK_STYLE.valid,
-      "valid region outline",
-      "valid",
-    ),
-  );
+  // Where no window is admissible: the background, named in the legend.
+  data.push({
+    type: "scatter",
+    mode: "markers",
+    name: `not admissible (under ${
+      (map.minCoverage * 100).toFixed(0)
+    }% of a window in the valid region)`,
+    x: [null],
+    y: [null],
+    marker: {
+      symbol: "square",
+      size: 14,
+      color: NOT_ADMISSIBLE,
+      line: { color: "#b9b2a3", width: 1 },
+    },
+    hoverinfo: "skip",
+  });
+  // The slide's regions, one style per kind.
+  let thinned = 1;
+  const caseData = result.caseData;
+  for (const kind of ["tissue", "tumour"] as const) {
+    const parts = caseData?.[kind] ?? [];
+    if (parts.length === 0) continue;
+    const t = thinRegion(parts.flatMap((p) => p.polygons), 20000);
+    thinned = Math.max(thinned, t.k);
+    const line = lineMm(regionLineUm(t.region, mpp));
+    data.push({
+      type: "scatter",
+      mode: "lines",
+      name: `${kind} outline`,
+      x: line.x,
+      y: line.y,
+      line: REGION_STYLE[kind],
+      hoverinfo: "skip",
+    });
+  }
+  if (!(caseData?.tissue?.length || caseData?.tumour?.length) && prepared.validPx.length > 0) {
+    // No outlines came with the result: draw the valid region instead.
+    const t = thinRegion(prepared.validPx, 20000);
+    thinned = Math.max(thinned, t.k);
+    const line = lineMm(regionLineUm(t.region, mpp));
+    data.push({
+      type: "scatter",
+      mode: "lines",
+      name: "valid region outline",
+      x: line.x,
+      y: line.y,
+      line: REGION_STYLE.tissue,
+      hoverinfo: "skip",
+    });
+  }
   // Exclusions, grouped by reason so the legend stays short.
   const byReason = new Map<string, MultiPolygonPx>();
   for (const e of prepared.excludePx) {
@@ -175,7 +277,7 @@ export function countMapFigure(
   }
   for (const reason of [...byReason.keys()].sort()) {
     const label = reason === "" ? "excluded" : `excluded: ${plotText(reason)}`;
-    const line = regionLineUm(byReason.get(reason)!, mpp);
+    const line = lineMm(regionLineUm(byReason.get(reason)!, mpp));
     data.push({
       type: "scatter",
       mode: "lines",
@@ -183,42 +285,45 @@ export function countMapFigure(
       x: line.x,
       y: line.y,
       fill: "toself",
-      fillcolor: "rgba(60,60,60,0.28)",
-      line: { color: MARK_STYLE.exclude.color, width: 1, dash: MARK_STYLE.exclude.dash },
+      fillcolor: "rgba(40,40,40,0.45)",
+      fillpattern: {
+        shape: "/",
+        bgcolor: "rgba(70,70,70,0.55)",
+        fgcolor: "#ffffff",
+        size: 7,
+        solidity: 0.3,
+      },
+      line: REGION_STYLE.exclude,
       hoveron: "fills+points",
       text: label,
       hovertemplate: "%{text}<extra></extra>",
       legendgroup: "exclude",
     });
   }
-  // Top-k windows (beyond the hotspot itself).
-  if (result.top.length > 0) {
-    const rings = result.top.map((p) => windowRingUm(result.window, p.centerUm));
-    data.push(
-      ...outlineTraces(
-        `top ${result.top.length} windows`,
-        ringsLineUm(rings),
-        MARK_STYLE.top,
-        "one of the top windows",
-        "top",
-      ),
-    );
+  // Counted figures, thinned deterministically when there are many.
+  const n = prepared.xUm?.length ?? 0;
+  const every = Math.max(1, Math.ceil(n / MAX_FIGURES_DRAWN));
+  if (n > 0) {
+    const fx: number[] = [], fy: number[] = [];
+    for (let k = 0; k < n; k += every) {
+      fx.push(roundTo(prepared.xUm[k] / 1000, 6));
+      fy.push(roundTo(prepared.yUm[k] / 1000, 6));
+    }
     data.push({
       type: "scatter",
       mode: "markers",
-      name: "top windows (centres)",
-      x: result.top.map((p) => roundTo(p.centerUm[0], 3)),
-      y: result.top.map((p) => roundTo(p.centerUm[1], 3)),
+      name: every > 1
+        ? `counted figures (every ${every}th of ${n})`
+        : `counted figure${n === 1 ? "" : "s"} (${n})`,
+      x: fx,
+      y: fy,
       marker: {
-        symbol: MARK_STYLE.top.symbol,
-        size: 8,
-        color: MARK_STYLE.top.color,
-        line: { color: "#fff", width: 1 },
+        symbol: "circle",
+        size: 5,
+        color: "#111111",
+        line: { color: "#ffffff", width: 1 },
       },
-      text: result.top.map((p, i) => placementHover(`top window ${i + 1}`, p)),
-      hovertemplate: "%{text}<extra></extra>",
-      showlegend: false,
-      legendgroup: "top",
+      hovertemplate: "figure at x %{x:.3f} mm, y %{y:.3f} mm<extra></extra>",
     });
   }
   if (result.bestFieldWindow && result.bestFields.length > 0) {
@@ -226,67 +331,69 @@ export function countMapFigure(
     const rings = result.bestFields.map((p) => windowRingUm(w, p.centerUm));
     data.push(
       ...outlineTraces(
-        `best ${result.bestFields.length} separate fields`,
-        ringsLineUm(rings),
+        result.bestFields.length === 1
+          ? "best single field"
+          : `best ${result.bestFields.length} separate single fields`,
+        lineMm(ringsLineUm(rings)),
         MARK_STYLE.best,
-        "one of the best separate fields",
+        "one of the best separate single fields",
         "best",
       ),
     );
   }
+  // Top windows beyond the hotspot (top 1 is the hotspot, drawn last).
+  const further = result.top.filter((p) => p !== result.hotspot);
+  if (further.length > 0) {
+    const rings = further.map((p) => windowRingUm(result.window, p.centerUm));
+    const first = result.top.length - further.length + 1;
+    data.push(
+      ...outlineTraces(
+        further.length === 1 ? `top window ${first}` : `top windows ${first}–${result.top.length}`,
+        lineMm(ringsLineUm(rings)),
+        MARK_STYLE.top,
+        "one of the top windows",
+        "top",
+      ),
+    );
+  }
+  data.push(...fieldTraces(result, mpp));
   if (result.hotspot) {
     const h = result.hotspot;
     data.push(
       ...outlineTraces(
-        `hotspot: ${h.count} figures`,
-        ringsLineUm([windowRingUm(result.window, h.centerUm)]),
+        `hotspot: ${figureWords(h.count)}`,
+        lineMm(ringsLineUm([windowRingUm(result.window, h.centerUm)])),
         MARK_STYLE.hotspot,
         placementHover("hotspot", h),
         "hotspot",
       ),
     );
-    data.push({
-      type: "scatter",
-      mode: "markers",
-      name: "hotspot centre",
-      x: [roundTo(h.centerUm[0], 3)],
-      y: [roundTo(h.centerUm[1], 3)],
-      marker: {
-        symbol: "star",
-        size: 13,
-        color: MARK_STYLE.hotspot.color,
-        line: { color: "#fff", width: 1.2 },
-      },
-      text: [placementHover("hotspot", h)],
-      hovertemplate: "%{text}<extra></extra>",
-      showlegend: false,
-      legendgroup: "hotspot",
-    });
   }
-  data.push(...fieldTraces(result, mpp));
   const reduced = g.factor > 1
     ? ` Drawn reduced by a factor of ${g.factor} along each axis (${map.grid.nx} × ${map.grid.ny} grid positions): each cell shows the highest count of its ${g.factor} × ${g.factor} block.`
     : "";
+  const thin = every > 1 ? ` Every ${every}th of the ${n} counted figures is drawn.` : "";
+  const outlines = thinned > 1 ? ` Outlines are drawn with every ${thinned}th vertex.` : "";
   const caption = `Window counts (${windowWords(result.window)}) at every admissible centre of a ` +
-    `${map.grid.strideUm} µm grid; blank where less than ${
-      (map.minCoverage * 100).toFixed(0)
-    }% of the window lies in the valid region.${reduced} Axes in µm from the slide origin, y down.`;
+    `${map.grid.strideUm} µm grid${sqrt ? ", colours on a square-root scale" : ""}; the pale ` +
+    `background is where less than ${(map.minCoverage * 100).toFixed(0)}% of the window would ` +
+    `lie in the valid region.${reduced}${thin}${outlines} Axes in mm from the slide origin, y down.`;
   const layout: Record<string, unknown> = {
     title: { text: `Count map: ${plotText(report.case)}`, x: 0, xanchor: "left" },
     font: PLOT_FONT,
     height: options.height ?? mapHeight(prepared.validPx, mpp, map),
     margin: { l: 70, r: 20, t: 50, b: 60 },
     paper_bgcolor: "#ffffff",
-    plot_bgcolor: "#ececec",
+    plot_bgcolor: NOT_ADMISSIBLE,
     xaxis: {
-      title: { text: "x (µm)" },
+      title: { text: "x (mm)" },
       zeroline: false,
       showgrid: false,
       constrain: "domain",
       ticks: "outside",
     },
     yaxis: {
-      title: { text: "y (µm)" },
+      title: { text: "y (mm)" },
       autorange: "reversed",
       scaleanchor: "x",
       scaleratio: 1,
@@ -306,6 +413,16 @@ export function countMapFigure(
     hoverlabel: { font: { family: PLOT_FONT.family } },
   };
   return { data, layout, caption };
+}
+
+/** Whole-number ticks for a square-root colour scale up to `max`. */
+function sqrtTicks(max: number): number[] {
+  const out = [0];
+  for (const t of [1, 2, 5, 10, 20, 50, 100, 200, 500, 1000, 2000, 5000]) {
+    if (t <= max) out.push(t);
+  }
+  if (max > out[out.length - 1]) out.push(max);
+  return out;
 }
 
 /** A plot height that suits the region's aspect at a plot area about 880 px wide. */
@@ -357,10 +474,17 @@ function fieldTraces(
       }
     }
     const name = plotText(readerName(reader));
+    const words = (f: (typeof fields)[number]) =>
+      figureWords(f.count) +
+      (f.percentile === null ? "" : `, percentile ${roundTo(f.percentile, 1)}`);
+    // The count and percentile go in the legend, never as text over the map.
+    const label = mine.length === 1
+      ? `${name}'s field: ${words(mine[0].f)}`
+      : `${name}'s ${mine.length} fields`;
     out.push(
       ...outlineTraces(
-        `field of ${name}`,
-        ringsLineUm(rings),
+        label,
+        lineMm(ringsLineUm(rings)),
         { color: style.color, dash: "dashdot", width: 2.5 },
         `field of ${name}`,
         `reader-${name}`,
@@ -369,23 +493,18 @@ function fieldTraces(
     );
     out.push({
       type: "scatter",
-      mode: "markers+text",
-      name: `field of ${name}`,
-      x: mine.map(({ f }) => roundTo(f.center_px[0] * mpp.mppX, 3)),
-      y: mine.map(({ f }) => roundTo(f.center_px[1] * mpp.mppY, 3)),
+      mode: "markers",
+      name: label,
+      x: mine.map(({ f }) => roundTo((f.center_px[0] * mpp.mppX) / 1000, 6)),
+      y: mine.map(({ f }) => roundTo((f.center_px[1] * mpp.mppY) / 1000, 6)),
       marker: {
         symbol: style.symbol,
         size: 11,
         color: style.color,
         line: { color: "#1a1a1a", width: 1 },
       },
-      text: mine.map(({ f }) => `${name}: ${f.count}`),
-      textposition: "top center",
-      textfont: { color: "#111111", size: 12 },
-      customdata: mine.map(({ f }) =>
-        f.percentile === null ? "n/a" : `${f.percentile.toFixed(1)}th percentile`
-      ),
-      hovertemplate: "%{text} figures<br>%{customdata}<extra></extra>",
+      text: mine.map(({ f }) => `${name}: ${words(f)}`),
+      hovertemplate: "%{text}<extra></extra>",
       legendgroup: `reader-${name}`,
     });
   }

@@ -5,7 +5,7 @@
  */
 
 import type { CaseResult } from "../pipeline/case_result.ts";
-import { cutoffCount, cutoffLabel, plotText, readerName } from "./plot_labels.ts";
+import { cutoffCount, cutoffLabel, figureWords, plotText, readerName } from "./plot_labels.ts";
 import { MARK_STYLE, OKABE_ITO, PLOT_FONT, type PlotFigure, readerStyles } from "./plot_style.ts";
 
 /**
@@ -97,7 +97,7 @@ export function distributionFigure(result: CaseResult): PlotFigure {
       x: [result.hotspot.count, result.hotspot.count],
       y: [0, peak * 1.08],
       line: { color: MARK_STYLE.hotspot.color, width: 3 },
-      hovertemplate: `hotspot: ${result.hotspot.count} figures<extra></extra>`,
+      hovertemplate: `hotspot: ${figureWords(result.hotspot.count)}<extra></extra>`,
     });
   }
   const fields = result.report.fields;
@@ -119,8 +119,8 @@ export function distributionFigure(result: CaseResult): PlotFigure {
         line: { color: "#1a1a1a", width: 1 },
       },
       text: mine.map((f) =>
-        `${name}: ${f.count} figures` +
-        (f.percentile === null ? "" : `, ${f.percentile.toFixed(1)}th percentile`)
+        `${name}: ${figureWords(f.count)}` +
+        (f.percentile === null ? "" : `, percentile ${f.percentile.toFixed(1)}`)
       ),
       hovertemplate: "%{text}<extra></extra>",
     });

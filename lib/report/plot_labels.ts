@@ -91,3 +91,16 @@ export function windowWords(w: WindowShape): string {
     ? `${w.areaMm2} mm² circle, ${w.diameterUm.toFixed(1)} µm across`
     : `${w.areaMm2} mm² rectangle, ${w.widthUm.toFixed(1)} × ${w.heightUm.toFixed(1)} µm`;
 }
+
+/**
+ * A count of figures in words: "1 figure", "3 figures".
+ *
+ * @example
+ * ```ts
+ * import { figureWords } from "./plot_labels.ts";
+ * if (figureWords(1) !== "1 figure") throw new Error(figureWords(1));
+ * ```
+ */
+export function figureWords(n: number): string {
+  return `${n} figure${n === 1 ? "" : "s"}`;
+}

@@ -86,6 +86,8 @@ h3{font-size:15px;margin:18px 0 6px}
 .plot{width:100%;min-height:360px;border:1px solid var(--line);border-radius:4px}
 .caption{font-size:13px;color:var(--muted);margin:6px 0 0}
 .table-wrap{overflow-x:auto}
+.table-wrap.scroll{max-height:560px;overflow-y:auto;border:1px solid var(--line)}
+.table-wrap.scroll thead th{position:sticky;top:0;z-index:1}
 table{border-collapse:collapse;width:100%;font-size:14px;font-variant-numeric:tabular-nums;margin:4px 0 8px}
 th,td{text-align:left;padding:5px 10px;border-bottom:1px solid var(--line);vertical-align:top}
 th{background:var(--panel);font-weight:600}
@@ -171,7 +173,7 @@ function placementRow(label: string, p: ReportPlacement, areaMm2: number): strin
 export function renderCaseHtml(result: CaseResult, context: CaseHtmlContext): string {
   const r = result.report;
   const id = escapeHtml(r.case);
-  const mapFig = countMapFigure(result);
+  const mapFig = countMapFigure(result, { colorScale: context.mapScale });
   const distFig = distributionFigure(result);
   const c = r.classification;
   const u = r.uncertainty ?? null;
@@ -385,6 +387,15 @@ ${
       )
       : `<p class="none">No reader marked a field in this case.</p>`,
   );
+  if (r.fields.length > 0) {
+    parts.push(
+      `<p class="explain">Percentile: the share of all admissible window positions holding fewer ` +
+        `figures than the reader's field (ties count half); 100 would be the hotspot itself. ` +
+        `Short of hotspot: hotspot count minus the field's count. Scaled to window: a drawn ` +
+        `field's count times the window area over the field's area, when they differ by more ` +
+        `than 5%.</p>`,
+    );
+  }
 
   parts.push(`<h3>Classification</h3>`);
   if (c) {

@@ -49,6 +49,8 @@ export interface WriteOutputsOptions {
   runOptions?: Record<string, unknown>;
   /** The plotly.js source, when the caller already has it. @default read from the npm package */
   plotlyJs?: string;
+  /** Colour scale of the count maps: `sqrt` keeps a weaker second focus visible. @default "linear" */
+  mapScale?: "linear" | "sqrt";
 }
 
 /**
@@ -177,6 +179,7 @@ export function writeOutputs(
           version: HOTFIELD_VERSION,
           options: options.runOptions ?? { ...result.report.settings },
           cohortHref: "../index.html",
+          mapScale: options.mapScale,
         }),
       ]);
     }

@@ -109,9 +109,38 @@ Deno.test({
         page,
         "[...document.querySelectorAll('#plot-map .legendtext')].map((t) => t.textContent)",
       ) as string[];
-      assert.ok(legend.includes('field of <img src=x onerror="alert(1)">'), legend.join(" | "));
-      assert.ok(legend.includes("field of </script>&"), legend.join(" | "));
+      assert.ok(
+        legend.some((t) => t.startsWith(`<img src=x onerror="alert(1)">'s field`)),
+        legend.join(" | "),
+      );
+      assert.ok(legend.some((t) => t.startsWith("</script>&'s field")), legend.join(" | "));
       await checkPage(page, join(dir, "index.html"), 1, "index.png");
+
+      // Every kind of mark on the demo map has a legend entry, and no text sits on the map.
+      await checkPage(page, join(dir, "QVT-24-006", "report.html"), 2, "report_QVT-24-006.png");
+      const marks = await evaluate(
+        page,
+        "[...document.querySelectorAll('#plot-map .legendtext')].map((t) => t.textContent)",
+      ) as string[];
+      for (
+        const kind of [
+          /^not admissible/,
+          /^tissue outline$/,
+          /^tumour outline$/,
+          /^excluded/,
+          /^counted figures \(\d+\)$/,
+          /^best \d+ separate single fields$/,
+          /^top windows 2–3$/,
+          /^hotspot: \d+ figures$/,
+        ]
+      ) {
+        assert.ok(marks.some((t) => kind.test(t)), `legend entry ${kind}: ${marks.join(" | ")}`);
+      }
+      assert.equal(
+        await evaluate(page, "document.querySelectorAll('#plot-map .textpoint').length"),
+        0,
+        "no text labels drawn over the map",
+      );
 
       const alone = mkdtempSync(join(tmpdir(), "hotfield-browser-alone-"));
       writeOutputs([results[0]], alone, {
@@ -122,6 +151,67 @@ Deno.test({
       rmSync(join(alone, "assets"), { recursive: true, force: true });
       await checkPage(page, join(alone, "QVT-24-006", "report.html"), 2, "report_standalone.png");
       rmSync(alone, { recursive: true, force: true });
+    } finally {
+      await page.close();
+      rmSync(dir, { recursive: true, force: true });
+    }
+  },
+});
+
+Deno.test({
+  name: "a 200-case cohort page renders with sorted, non-overlapping case labels",
+  ignore: !available && !inCi,
+  sanitizeResources: false,
+  sanitizeOps: false,
+  async fn() {
+    assert.ok(available, "CI needs /usr/bin/chromium: apt-get install -y chromium");
+    const dir = mkdtempSync(join(tmpdir(), "hotfield-browser-200-"));
+    const page = await openBrowser();
+    try {
+      const results: CaseResult[] = [];
+      for (let i = 0; i < 200; i++) {
+        const r = fixtureResult();
+        // Distinct ids and counts; the engine result is shared, the report is what the page reads.
+        const id = `QVT-24-${String(400 + i)}`;
+        const count = (i * 37) % 61;
+        results.push({
+          ...r,
+          prepared: { ...r.prepared, caseId: id },
+          report: {
+            ...r.report,
+            case: id,
+            hotspot: r.report.hotspot && { ...r.report.hotspot, count, per_mm2: count / 2.37 },
+          },
+        });
+      }
+      writeOutputs(results, dir, { generatedAt: "2026-01-01T00:00:00Z", formats: ["html"] });
+      await checkPage(page, join(dir, "index.html"), 1, "index_200.png");
+      const boxes = await evaluate(
+        page,
+        "[...document.querySelectorAll('#plot-cohort .ytick text')].map((t) => {" +
+          " const b = t.getBoundingClientRect(); return [b.top, b.bottom, t.textContent]; })",
+      ) as [number, number, string][];
+      assert.equal(boxes.length, 200, "one label per case");
+      boxes.sort((a, b) => a[0] - b[0]);
+      for (let k = 1; k < boxes.length; k++) {
+        assert.ok(
+          boxes[k][0] >= boxes[k - 1][1] - 0.5,
+          `labels overlap: ${boxes[k - 1][2]}, ${boxes[k][2]}`,
+        );
+      }
+      // Highest count on top.
+      assert.equal(
+        boxes[0][2],
+        "QVT-24-428",
+        "the top label: highest count (60), first id of the tie",
+      );
+      // The table sorts on a click.
+      await evaluate(page, "document.querySelectorAll('#cases th')[1].click()");
+      const first = await evaluate(
+        page,
+        "document.querySelector('#cases tbody tr td:nth-child(2)').textContent",
+      );
+      assert.equal(first, "60", "sorted by hotspot count, highest first");
     } finally {
       await page.close();
       rmSync(dir, { recursive: true, force: true });

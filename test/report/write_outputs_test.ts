@@ -84,7 +84,10 @@ Deno.test("renderCaseHtml() shows names from input as text, never markup", () =>
   assert.equal(specs.length, 2);
   const names = specs[0].figure.data.map((t) => t.name ?? "");
   // plotly.js reads tags and entities in labels, so labels carry escaped text.
-  assert.ok(names.includes(`field of ${plotText(HOSTILE_READERS[0])}`), names.join(" | "));
+  assert.ok(
+    names.some((n) => n.startsWith(`${plotText(HOSTILE_READERS[0])}'s field`)),
+    names.join(" | "),
+  );
   assert.ok(names.includes(`excluded: ${plotText(HOSTILE_REASON)}`));
   assert.ok(!names.some((n) => n.includes("<")));
 });
@@ -95,7 +98,8 @@ Deno.test("renderCohortIndex() escapes case ids and links folders by URL encodin
   assert.ok(!html.includes(HOSTILE_CASE));
   assert.ok(html.includes(`>${escapeHtml(HOSTILE_CASE)}</a>`));
   assert.ok(html.includes('href="QVT-24-901/report.html"'));
-  assert.equal(html.match(/<script/gi)?.length, 3);
+  // plotly.js, the table sorter, the plot data and the draw code.
+  assert.equal(html.match(/<script/gi)?.length, 4);
   plotJson(html);
 });
 
@@ -340,7 +344,7 @@ Deno.test("countMapFigure() reduces a huge grid and states the factor in the cap
   assert.ok(html.length < 1_500_000, `report stays small: ${html.length} bytes`);
 });
 
-Deno.test("countMapFigure() draws µm axes, y down, equal aspect, cividis and the marks", () => {
+Deno.test("countMapFigure() draws mm axes, y down, equal aspect, cividis and the marks", () => {
   const r = fixtureResult({ standards: true });
   const fig = countMapFigure(r);
   const layout = fig.layout as {
@@ -350,12 +354,19 @@ Deno.test("countMapFigure() draws µm axes, y down, equal aspect, cividis and th
   assert.equal(layout.yaxis.autorange, "reversed");
   assert.equal(layout.yaxis.scaleanchor, "x");
   assert.equal(layout.yaxis.scaleratio, 1);
-  assert.equal(layout.xaxis.title.text, "x (µm)");
+  assert.equal(layout.xaxis.title.text, "x (mm)");
   const names = fig.data.map((t) => String(t.name ?? ""));
   assert.equal(fig.data[0].colorscale, "Cividis");
-  for (const n of ["valid region", "excluded: necrosis", "top 3 windows", "field of reader-a"]) {
+  for (const n of ["excluded: necrosis", "top windows 2–3"]) {
     assert.ok(names.includes(n), `${n} in ${names.join(" | ")}`);
   }
+  assert.ok(names.some((n) => n.startsWith("not admissible")), names.join(" | "));
+  assert.ok(names.some((n) => n.startsWith("reader-a's field: ")), names.join(" | "));
+  assert.ok(names.some((n) => /^counted figures \(\d+\)$/.test(n)), names.join(" | "));
+  // No text is drawn over the map: labels live in the legend.
+  assert.ok(fig.data.every((t) => !String(t.mode ?? "").includes("text")));
+  // The hotspot is drawn last, on top of everything.
+  assert.ok(String(fig.data[fig.data.length - 1].name).startsWith("hotspot: "));
   assert.ok(names.some((n) => n.startsWith("hotspot: ")));
   // Inadmissible positions are blank: the corner centre (0, 0) is outside V.
   assert.equal((fig.data[0].z as (number | null)[][])[0][0], null);
