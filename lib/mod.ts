@@ -55,7 +55,17 @@ export type {
   SlideInfo,
   Vec2,
 } from "./types.ts";
-export { mm2ToPx2, type Mpp, mppOf, px2ToMm2, pxToUm, umToPx } from "./units.ts";
+export {
+  mm2ToPx2,
+  type Mpp,
+  mppOf,
+  px2ToMm2,
+  pxToUm,
+  regionPxToUm,
+  ringPxToUm,
+  ringUmToPx,
+  umToPx,
+} from "./units.ts";
 export { roundTo } from "./numbers.ts";
 export { UsageError } from "./errors.ts";
 export { HOTFIELD_VERSION } from "./version.ts";
@@ -81,6 +91,7 @@ export {
   type ValidRegionParts,
 } from "./geometry/valid_region.ts";
 export { createRegionIndex, type RegionIndex } from "./geometry/region_index.ts";
+export { regionBBox } from "./geometry/region_bbox.ts";
 export { createOverlapIndex, type OverlapIndex } from "./geometry/window_overlap.ts";
 
 // Statistics.

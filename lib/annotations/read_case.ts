@@ -186,6 +186,7 @@ export function parseCaseFile(text: string, path: string): CaseInput {
       where
         ? `not valid JSON: line ${where.line}, column ${where.column}: ${where.problem}`
         : `not valid JSON: ${(e as Error).message}`,
+      e,
     );
   }
   if (raw === null || typeof raw !== "object" || Array.isArray(raw)) {
@@ -680,7 +681,7 @@ async function readBytes(path: string, what: string): Promise<Uint8Array> {
       : code === "EACCES" || code === "EPERM"
       ? "permission denied"
       : `the file cannot be read (${(e as Error).message})`;
-    throw new Error(`Cannot read ${what} "${path}": ${problem}`);
+    throw new Error(`Cannot read ${what} "${path}": ${problem}`, { cause: e });
   }
 }
 

@@ -1,10 +1,10 @@
 /**
- * Scaling and bounding boxes of regions in the plane.
+ * Scaling of regions in the plane.
  *
  * @module
  */
 
-import type { BBoxPx, MultiPolygonPx } from "../types.ts";
+import type { MultiPolygonPx } from "../types.ts";
 
 /**
  * Scales every position by `(sx, sy)` about the origin, e.g. to go from
@@ -41,35 +41,4 @@ export function scaleRegion(region: MultiPolygonPx, sx: number, sy: number): Mul
       return flip ? r.reverse() : r;
     })
   );
-}
-
-/**
- * Axis-aligned bounding box of a region.
- *
- * @param region Polygons in pixels.
- * @returns `[minX, minY, maxX, maxY]`; for an empty region
- *   `[Infinity, Infinity, -Infinity, -Infinity]`.
- *
- * @example The box of a triangle
- * ```ts
- * import { regionBBox } from "./transform.ts";
- * const tri: [number, number][] = [[1, 2], [5, 2], [3, 7], [1, 2]];
- * const b = regionBBox([[tri]]);
- * if (b.join() !== "1,2,5,7") throw new Error(b.join());
- * ```
- */
-export function regionBBox(region: MultiPolygonPx): BBoxPx {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (const poly of region) {
-    for (const ring of poly) {
-      for (const p of ring) {
-        const x = p[0], y = p[1];
-        if (x < minX) minX = x;
-        if (x > maxX) maxX = x;
-        if (y < minY) minY = y;
-        if (y > maxY) maxY = y;
-      }
-    }
-  }
-  return [minX, minY, maxX, maxY];
 }

@@ -39,6 +39,7 @@ import {
   DEFAULT_TOP,
 } from "../defaults.ts";
 import { roundTo } from "../numbers.ts";
+import { umToPx } from "../units.ts";
 
 /** A window as report.json gives it (µm to 0.01). */
 export function reportWindow(w: WindowShape): ReportWindow {
@@ -349,6 +350,8 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
     );
   }
   const { mppX, mppY } = prepared.slide;
+  const originPx = umToPx([map.grid.x0Um, map.grid.y0Um], prepared.slide);
+  const stridePx = umToPx([map.grid.strideUm, map.grid.strideUm], prepared.slide);
   const g = map.grid;
   const report: ReportJson = {
     schema: REPORT_SCHEMA,
@@ -428,8 +431,8 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
     map: {
       nx: g.nx,
       ny: g.ny,
-      origin_px: [roundTo(g.x0Um / mppX, 2), roundTo(g.y0Um / mppY, 2)],
-      stride_px: [roundTo(g.strideUm / mppX, 4), roundTo(g.strideUm / mppY, 4)],
+      origin_px: [roundTo(originPx[0], 2), roundTo(originPx[1], 2)],
+      stride_px: [roundTo(stridePx[0], 4), roundTo(stridePx[1], 4)],
       discretization: map.discretization,
     },
   };

@@ -8,6 +8,7 @@
 import type { Placement, WindowShape } from "../count/engine_types.ts";
 import type { CaseResult } from "../pipeline/case_result.ts";
 import type { Ring } from "../types.ts";
+import { ringUmToPx } from "../units.ts";
 
 /** Vertices used to draw a circular window as a polygon. */
 const CIRCLE_VERTICES = 128;
@@ -60,7 +61,7 @@ export function windowRingPx(
   centerUm: [number, number],
   mpp: { mppX: number; mppY: number },
 ): Ring {
-  return windowRingUm(window, centerUm).map(([x, y]) => [x / mpp.mppX, y / mpp.mppY]);
+  return ringUmToPx(windowRingUm(window, centerUm), mpp);
 }
 
 /**

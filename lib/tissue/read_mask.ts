@@ -54,7 +54,7 @@ export function decodeMaskPng(bytes: Uint8Array, options: DecodeMaskOptions): Ma
     png = decode(bytes, { checkCrc: true });
   } catch (e) {
     const why = e instanceof Error ? e.message : String(e);
-    throw inputError(SyntaxError, "tissue mask", fileName, `not a readable PNG image (${why})`);
+    throw inputError(SyntaxError, "tissue mask", fileName, `not a readable PNG image (${why})`, e);
   }
   const { width, height, channels, depth } = png;
   if (!(width > 0 && height > 0)) {
