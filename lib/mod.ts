@@ -56,9 +56,7 @@ export type {
   Vec2,
 } from "./types.ts";
 export {
-  mm2ToPx2,
   type Mpp,
-  mppOf,
   px2ToMm2,
   pxToUm,
   regionPxToUm,

@@ -7,7 +7,7 @@
  * @module
  */
 
-import type { MultiPolygonPx, Ring, SlideInfo, Vec2 } from "./types.ts";
+import type { MultiPolygonPx, Ring, Vec2 } from "./types.ts";
 
 /** Micrometres per pixel along x and y. */
 export interface Mpp {
@@ -31,19 +31,6 @@ export interface Mpp {
  */
 export function px2ToMm2(areaPx2: number, mpp: Mpp): number {
   return areaPx2 * mpp.mppX * mpp.mppY / 1e6;
-}
-
-/**
- * Converts an area in mm² to px².
- *
- * @example
- * ```ts
- * import { mm2ToPx2 } from "./units.ts";
- * if (mm2ToPx2(1, { mppX: 0.5, mppY: 0.5 }) !== 4e6) throw new Error();
- * ```
- */
-export function mm2ToPx2(areaMm2: number, mpp: Mpp): number {
-  return areaMm2 * 1e6 / (mpp.mppX * mpp.mppY);
 }
 
 /**
@@ -170,18 +157,4 @@ export function pointsPxToUm(
     m++;
   }
   return { xUm, yUm };
-}
-
-/**
- * Takes the micrometres per pixel of a slide.
- *
- * @example
- * ```ts
- * import { mppOf } from "./units.ts";
- * const m = mppOf({ id: "s", mppX: 0.25, mppY: 0.26 });
- * if (m.mppY !== 0.26) throw new Error();
- * ```
- */
-export function mppOf(slide: SlideInfo): Mpp {
-  return { mppX: slide.mppX, mppY: slide.mppY };
 }

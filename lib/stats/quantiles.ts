@@ -76,22 +76,6 @@ export function fiveNumberSummary(sorted: ArrayLike<number>): FiveNumberSummary 
 }
 
 /**
- * First quartile, median and third quartile (R-7) of ascending values.
- *
- * @example
- * ```ts
- * import { quantilesR7 } from "./quantiles.ts";
- * const [q1, m, q3] = quantilesR7([3, 6, 7, 8, 8, 10, 13, 15, 16, 20]);
- * if (q1 !== 7.25 || m !== 9 || q3 !== 14.5) throw new Error();
- * ```
- */
-export function quantilesR7(
-  sorted: ArrayLike<number>,
-): [number | null, number | null, number | null] {
-  return [quantileSorted(sorted, 0.25), quantileSorted(sorted, 0.5), quantileSorted(sorted, 0.75)];
-}
-
-/**
  * R-7 quantile of non-negative integer values given as a histogram
  * (`histogram[v]` = how many values equal v), without expanding it.
  * Gives the same result as {@linkcode quantileSorted} on the sorted values.
