@@ -39,7 +39,7 @@ import {
   DEFAULT_TOP,
 } from "../defaults.ts";
 import { roundTo } from "../numbers.ts";
-import { umToPx } from "../units.ts";
+import { pxToUm, umToPx } from "../units.ts";
 
 /** A window as report.json gives it (µm to 0.01). */
 export function reportWindow(w: WindowShape): ReportWindow {
@@ -483,7 +483,6 @@ function settledReport(
   rank?: number,
 ): ReportPlacement {
   const out = reportPlacement(p, rank);
-  const { mppX, mppY } = prepared.slide;
   const recount = (cx: number, cy: number) =>
     countInWindow(prepared.xUm, prepared.yUm, window, cx, cy);
   let px: [number, number] = [p.centerPx[0], p.centerPx[1]];
@@ -491,7 +490,8 @@ function settledReport(
   for (const d of [2, 3, 4, 6, 9]) {
     const cp: [number, number] = [roundTo(p.centerPx[0], d), roundTo(p.centerPx[1], d)];
     const cu: [number, number] = [roundTo(p.centerUm[0], d), roundTo(p.centerUm[1], d)];
-    if (recount(cp[0] * mppX, cp[1] * mppY) === p.count && recount(cu[0], cu[1]) === p.count) {
+    const cpUm = pxToUm(cp, prepared.slide);
+    if (recount(cpUm[0], cpUm[1]) === p.count && recount(cu[0], cu[1]) === p.count) {
       px = cp;
       um = cu;
       break;
