@@ -16,6 +16,7 @@
 
 /** A command-line option is missing, malformed or out of range (CLI exit code 2). */
 export class UsageError extends Error {
+  /** Always "UsageError". */
   override name = "UsageError";
 }
 
@@ -25,6 +26,7 @@ export class UsageError extends Error {
  * see it; the CLI turns it into a usage error about `--stride-um`.
  */
 export class GridSizeError extends RangeError {
+  /** Always "GridSizeError". */
   override name = "GridSizeError";
 }
 

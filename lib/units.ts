@@ -11,7 +11,9 @@ import type { MultiPolygonPx, Ring, Vec2 } from "./types.ts";
 
 /** Micrometres per pixel along x and y. */
 export interface Mpp {
+  /** Micrometres per pixel along x. */
   mppX: number;
+  /** Micrometres per pixel along y. */
   mppY: number;
 }
 

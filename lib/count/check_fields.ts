@@ -15,14 +15,14 @@ import {
   polygonAreaPx2,
   polygonOverlapArea,
 } from "./_geometry.ts";
-import type { AreaIndex } from "./_hotspot_search.ts";
 import { roundTo } from "../numbers.ts";
 import { pxToUm, ringPxToUm } from "../units.ts";
+import type { OverlapIndex } from "../geometry/window_overlap.ts";
 
 /** Options of {@linkcode checkFields}. */
 export interface CheckFieldsOptions {
   /** Exact area index of V in µm, to reuse. */
-  overlap?: AreaIndex;
+  overlap?: OverlapIndex;
   /** Histogram of the map's admissible counts, to reuse. */
   histogram?: number[];
 }
@@ -74,7 +74,7 @@ export function checkFields(
 ): FieldCheck[] {
   if (prepared.fields.length === 0) return [];
   const mpp = prepared.slide;
-  const overlap = options.overlap ?? (createOverlapIndex(prepared.validUm) as AreaIndex);
+  const overlap = options.overlap ?? createOverlapIndex(prepared.validUm);
   const histogram = options.histogram ?? summarizeDistribution(map).histogram;
   const e = windowExtents(window);
   const windowAreaMm2 = e.areaUm2 / 1e6;

@@ -87,7 +87,9 @@ export interface ScanTestResult {
   p: number;
   /** Observed maximum admissible window count (on the scanned positions). */
   observed: number;
+  /** Number of simulations run. */
   simulations: number;
+  /** Seed of the simulations. */
   seed: number;
   /** Number of simulations whose maximum was ≥ observed. */
   atLeastObserved: number;
@@ -97,6 +99,7 @@ export interface ScanTestResult {
   gridStep: number;
   /** Plain words: statistic and approximations. */
   method: string;
+  /** Problems with the test's input, in words. */
   warnings: string[];
 }
 

@@ -44,12 +44,17 @@ function interpolate(at: (k: number) => number, n: number, p: number): number {
   return f === 0 ? a : a + f * (at(lo + 1) - a);
 }
 
-/** Five-number summary. */
+/** Five-number summary (all null for no values). */
 export interface FiveNumberSummary {
+  /** Least value. */
   min: number | null;
+  /** Lower quartile. */
   q1: number | null;
+  /** Median. */
   median: number | null;
+  /** Upper quartile. */
   q3: number | null;
+  /** Greatest value. */
   max: number | null;
 }
 

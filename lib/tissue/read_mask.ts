@@ -13,8 +13,11 @@ import { roundTo } from "../numbers.ts";
 
 /** A binary mask, row-major, `data[y·width + x]` is 1 for tissue and 0 for background. */
 export interface Mask {
+  /** Width in mask pixels. */
   width: number;
+  /** Height in mask pixels. */
   height: number;
+  /** `width × height` values, 1 for tissue and 0 for background. */
   data: Uint8Array;
 }
 
