@@ -526,10 +526,9 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
         `${path}: mask mpp ${maskMppX}, ${maskMppY} is finer than the slide's ${slide.mppX}, ${slide.mppY} µm/px; masks are usually coarser`,
       );
     }
-    const polygons = maskToPolygons(mask, {
-      scaleX: maskMppX / slide.mppX,
-      scaleY: maskMppY / slide.mppY,
-    });
+    // One mask pixel, in µm, as slide pixels along x and y.
+    const [scaleX, scaleY] = umToPx([maskMppX, maskMppY], slide);
+    const polygons = maskToPolygons(mask, { scaleX, scaleY });
     if (polygons.length === 0) {
       warnings.push(`${path}: the mask has no tissue pixels (all zero)`);
     } else {
