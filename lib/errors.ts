@@ -16,7 +16,18 @@
 
 /** A command-line option is missing, malformed or out of range (CLI exit code 2). */
 export class UsageError extends Error {
+  /** Always "UsageError". */
   override name = "UsageError";
+}
+
+/**
+ * A count grid would hold more cells than its limit: the stride is too small
+ * for the region. A `RangeError`, so callers that catch range problems still
+ * see it; the CLI turns it into a usage error about `--stride-um`.
+ */
+export class GridSizeError extends RangeError {
+  /** Always "GridSizeError". */
+  override name = "GridSizeError";
 }
 
 /** The error classes used for bad input. */
@@ -32,6 +43,7 @@ export type InputErrorClass =
  * @param what What was being read, e.g. `annotations`, `figures CSV`, `tissue mask`.
  * @param file The file's path as the user gave it.
  * @param detail The place and the problem, e.g. `feature 7 has no "role"`.
+ * @param cause The lower-level error this one explains, kept as `cause`.
  * @returns The error, ready to throw.
  *
  * @example Naming the file and the feature
@@ -48,6 +60,8 @@ export function inputError(
   what: string,
   file: string,
   detail: string,
+  cause?: unknown,
 ): Error {
-  return new ErrorClass(`Cannot read ${what} "${file}": ${detail}`);
+  const message = `Cannot read ${what} "${file}": ${detail}`;
+  return cause === undefined ? new ErrorClass(message) : new ErrorClass(message, { cause });
 }

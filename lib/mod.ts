@@ -45,6 +45,7 @@
 export type {
   BBoxPx,
   CaseData,
+  CaseSettings,
   CaseSource,
   FieldSpec,
   FigureSet,
@@ -55,11 +56,18 @@ export type {
   SlideInfo,
   Vec2,
 } from "./types.ts";
-export { mm2ToPx2, type Mpp, mppOf, px2ToMm2, pxToUm, umToPx } from "./units.ts";
+export {
+  type Mpp,
+  px2ToMm2,
+  pxToUm,
+  regionPxToUm,
+  ringPxToUm,
+  ringUmToPx,
+  umToPx,
+} from "./units.ts";
 export { roundTo } from "./numbers.ts";
-export { UsageError } from "./errors.ts";
+export { GridSizeError } from "./errors.ts";
 export { HOTFIELD_VERSION } from "./version.ts";
-export { type Random, seededRandom } from "./random.ts";
 export {
   DEFAULT_ASPECT,
   DEFAULT_BEST_N,
@@ -81,18 +89,16 @@ export {
   type ValidRegionParts,
 } from "./geometry/valid_region.ts";
 export { createRegionIndex, type RegionIndex } from "./geometry/region_index.ts";
+export { regionBBox } from "./geometry/region_bbox.ts";
 export { createOverlapIndex, type OverlapIndex } from "./geometry/window_overlap.ts";
 
 // Statistics.
-export { type FiveNumberSummary, fiveNumberSummary, quantileSorted } from "./stats/quantiles.ts";
-export { garwoodInterval, pOtherSide } from "./stats/garwood.ts";
+export { garwoodInterval } from "./stats/garwood.ts";
 export { type Agreement, binaryKappa, cohenKappa } from "./stats/kappa.ts";
-
-// Tissue masks.
-export { decodeMaskPng, type Mask, maskToPolygons } from "./tissue/read_mask.ts";
 
 // Reading a case.
 export {
+  ANNOTATION_ROLES,
   type AnnotationRole,
   parseAnnotations,
   type ParseAnnotationsOptions,
@@ -100,7 +106,7 @@ export {
 } from "./annotations/read_annotations.ts";
 export { parseFiguresCsv, type ParseFiguresCsvOptions } from "./annotations/read_figures_csv.ts";
 export { type CaseInput, loadCase, parseCaseFile, readCaseFile } from "./annotations/read_case.ts";
-export { safeCaseId } from "./annotations/case_id.ts";
+export type { SlideMember } from "./annotations/slide_info.ts";
 
 // The count engine.
 export type {
@@ -127,29 +133,50 @@ export {
 export { type Distribution, summarizeDistribution } from "./count/summarize_distribution.ts";
 export { percentileRank } from "./count/percentile_rank.ts";
 export { checkFields, type CheckFieldsOptions } from "./count/check_fields.ts";
-export { countInWindow } from "./count/window_contains.ts";
-export { scanTest, type ScanTestOptions, type ScanTestResult } from "./count/scan_test.ts";
+export {
+  scanTest,
+  type ScanTestInput,
+  type ScanTestOptions,
+  type ScanTestResult,
+} from "./count/scan_test.ts";
 
 // Standards: field optics, grading schemes, classes, uncertainty.
-export type { GradingScheme } from "./standards/scheme_types.ts";
+export type {
+  AreaBasis,
+  ConfidenceMark,
+  CountingInstruction,
+  GradingScheme,
+  LowerBound,
+  SchemeSource,
+  SchemeTier,
+} from "./standards/scheme_types.ts";
 export { getScheme, listSchemes } from "./standards/list_schemes.ts";
 export {
   convertCount,
-  digitalFieldArea,
   type FieldOfView,
   fieldOfView,
   type FieldOfViewOptions,
   fieldsForArea,
 } from "./standards/field_of_view.ts";
-export { nottinghamCutoffs, nottinghamScore } from "./standards/nottingham.ts";
+export {
+  type NottinghamCutoffs,
+  nottinghamCutoffs,
+  nottinghamScore,
+} from "./standards/nottingham.ts";
 export {
   type CaseClassification,
   classifyCounts,
   type ClassifyCountsInput,
+  type ClassifyOptions,
   rateForBasis,
+  type TierClassification,
   tierForRate,
 } from "./standards/classify.ts";
-export { type CountUncertainty, countUncertainty } from "./standards/uncertainty.ts";
+export {
+  type CountUncertainty,
+  countUncertainty,
+  type CountUncertaintyOptions,
+} from "./standards/uncertainty.ts";
 
 // The per-case pipeline and report.json.
 export type { CaseResult, ReportOptions } from "./pipeline/case_result.ts";
@@ -163,14 +190,18 @@ export {
 } from "./pipeline/inspect_case.ts";
 export {
   REPORT_SCHEMA,
+  type ReportAreas,
+  type ReportBestFields,
   type ReportClassification,
   type ReportDistribution,
   type ReportField,
   type ReportFigures,
   type ReportJson,
+  type ReportMap,
   type ReportPlacement,
   type ReportSettings,
   type ReportUncertainty,
+  type ReportWholeArea,
   type ReportWindow,
 } from "./pipeline/report_types.ts";
 
@@ -180,12 +211,10 @@ export {
   writeOutputs,
   type WriteOutputsOptions,
 } from "./report/write_outputs.ts";
-export { renderCaseHtml, REPORT_CAUTIONS } from "./report/report_html.ts";
-export { renderCohortIndex } from "./report/cohort_index.ts";
-export { caseRow, casesCsv, fieldsCsv } from "./report/report_csv.ts";
-export { caseHotspotGeoJson } from "./report/hotspot_geojson.ts";
+export { REPORT_CAUTIONS } from "./report/report_html.ts";
+export { CASE_COLUMNS, caseRow } from "./report/report_csv.ts";
 export { cohortFigure } from "./report/cohort_figure.ts";
-export { countMapFigure } from "./report/count_map_figure.ts";
+export { countMapFigure, type CountMapFigureOptions } from "./report/count_map_figure.ts";
 export { admissibleHistogram, distributionFigure } from "./report/distribution_figure.ts";
 export { cutoffLabel } from "./report/plot_labels.ts";
 export type { PlotFigure } from "./report/plot_style.ts";
@@ -195,12 +224,14 @@ export {
   type Displayable,
   JUPYTER_DISPLAY,
   type MimeBundle,
+  type PlotlyInlining,
   showCohort,
   showCountMap,
   showDistribution,
+  type ShowPlotOptions,
   showTable,
+  type ShowTableOptions,
 } from "./display/show.ts";
 
 // Demo data.
-export { generateDemoCohort } from "./demo/demo_cohort.ts";
 export { demoCaseInputs } from "./demo/run_demo.ts";

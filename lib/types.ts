@@ -130,12 +130,19 @@ export interface CaseSettings {
 export interface CaseData {
   /** Case id: `slide.id`, else the file stem, made safe for a folder name. */
   caseId: string;
+  /** The slide: id, micrometres per pixel and size when known. */
   slide: SlideInfo;
+  /** Tissue outlines (their union bounds the valid region); may be empty when a tumour is given. */
   tissue: RegionPart[];
+  /** Tumour outlines (their union bounds the valid region); may be empty when tissue is given. */
   tumour: RegionPart[];
+  /** Outlines taken out of the valid region (necrosis, artefact…), with reasons. */
   exclude: RegionPart[];
+  /** Every figure point, counted or not. */
   figures: FigureSet;
+  /** Readers' fields, in file order. */
   fields: FieldSpec[];
+  /** The files read, with their hashes. */
   sources: CaseSource[];
   /** Recoverable problems found while reading (never printed by the library). */
   warnings: string[];

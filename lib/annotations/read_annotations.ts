@@ -113,8 +113,11 @@ export function parseAnnotations(
   options: ParseAnnotationsOptions,
 ): ParsedAnnotations {
   const file = options.fileName;
-  const fail = (Cls: typeof TypeError | typeof RangeError | typeof SyntaxError, detail: string) =>
-    inputError(Cls, WHAT, file, detail);
+  const fail = (
+    Cls: typeof TypeError | typeof RangeError | typeof SyntaxError,
+    detail: string,
+    cause?: unknown,
+  ) => inputError(Cls, WHAT, file, detail, cause);
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   if (text.trim() === "") {
     throw fail(
@@ -134,6 +137,7 @@ export function parseAnnotations(
           csvHint(file, text)
         }`
         : `not valid JSON: ${(e as Error).message}`,
+      e,
     );
   }
   if (root === null || typeof root !== "object" || Array.isArray(root)) {

@@ -58,6 +58,8 @@ import { createHash } from "node:crypto";
 import { readFile } from "node:fs/promises";
 import { basename, dirname, isAbsolute, join } from "node:path";
 import { inputError } from "../errors.ts";
+import { regionBBox } from "../geometry/region_bbox.ts";
+import { pxToUm, umToPx } from "../units.ts";
 import type {
   CaseData,
   CaseSettings,
@@ -186,6 +188,7 @@ export function parseCaseFile(text: string, path: string): CaseInput {
       where
         ? `not valid JSON: line ${where.line}, column ${where.column}: ${where.problem}`
         : `not valid JSON: ${(e as Error).message}`,
+      e,
     );
   }
   if (raw === null || typeof raw !== "object" || Array.isArray(raw)) {
@@ -523,10 +526,9 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
         `${path}: mask mpp ${maskMppX}, ${maskMppY} is finer than the slide's ${slide.mppX}, ${slide.mppY} µm/px; masks are usually coarser`,
       );
     }
-    const polygons = maskToPolygons(mask, {
-      scaleX: maskMppX / slide.mppX,
-      scaleY: maskMppY / slide.mppY,
-    });
+    // One mask pixel, in µm, as slide pixels along x and y.
+    const [scaleX, scaleY] = umToPx([maskMppX, maskMppY], slide);
+    const polygons = maskToPolygons(mask, { scaleX, scaleY });
     if (polygons.length === 0) {
       warnings.push(`${path}: the mask has no tissue pixels (all zero)`);
     } else {
@@ -622,22 +624,15 @@ function figureUnitDoubt(
   csv: { path: string; units: "px" | "um"; stated: boolean },
 ): { message: string; blocking: boolean } | null {
   if (figures.xPx.length < 5) return null;
-  let box: [number, number, number, number] | null = null;
-  for (const part of regions) {
-    for (const polygon of part.polygons) {
-      for (const [x, y] of polygon[0] ?? []) {
-        box ??= [x, y, x, y];
-        box = [Math.min(box[0], x), Math.min(box[1], y), Math.max(box[2], x), Math.max(box[3], y)];
-      }
-    }
-  }
+  let box = regionBBox(regions.flatMap((part) => part.polygons));
   if (box === null && slide.widthPx !== undefined && slide.heightPx !== undefined) {
     box = [0, 0, slide.widthPx, slide.heightPx];
   }
   if (box === null) return null;
   // As read, points are level-0 px. Read the other way: values in µm that were
   // taken as px are px·mpp too small; values in px taken as µm are too large.
-  const [sx, sy] = csv.units === "px" ? [1 / slide.mppX, 1 / slide.mppY] : [slide.mppX, slide.mppY];
+  // The scale of one unit read the other way: 1 µm in px, or 1 px in µm.
+  const [sx, sy] = csv.units === "px" ? umToPx([1, 1], slide) : pxToUm([1, 1], slide);
   const asRead = fitToBox(figures.xPx, figures.yPx, box, 1, 1);
   const other = fitToBox(figures.xPx, figures.yPx, box, sx, sy);
   const bw = box[2] - box[0], bh = box[3] - box[1];
@@ -680,7 +675,7 @@ async function readBytes(path: string, what: string): Promise<Uint8Array> {
       : code === "EACCES" || code === "EPERM"
       ? "permission denied"
       : `the file cannot be read (${(e as Error).message})`;
-    throw new Error(`Cannot read ${what} "${path}": ${problem}`);
+    throw new Error(`Cannot read ${what} "${path}": ${problem}`, { cause: e });
   }
 }
 

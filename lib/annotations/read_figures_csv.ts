@@ -20,6 +20,7 @@
 import { parse } from "csv-parse/sync";
 import { inputError } from "../errors.ts";
 import type { FigureSet } from "../types.ts";
+import { umToPx } from "../units.ts";
 import { DEFAULT_FIGURE_LABEL, FigureSetBuilder } from "./_figure_builder.ts";
 
 /** Options of {@linkcode parseFiguresCsv}. */
@@ -68,8 +69,11 @@ export function parseFiguresCsv(
 ): { figures: FigureSet; warnings: string[] } {
   const file = options.fileName;
   const units = options.units ?? "px";
-  const fail = (Cls: typeof TypeError | typeof RangeError | typeof SyntaxError, detail: string) =>
-    inputError(Cls, WHAT, file, detail);
+  const fail = (
+    Cls: typeof TypeError | typeof RangeError | typeof SyntaxError,
+    detail: string,
+    cause?: unknown,
+  ) => inputError(Cls, WHAT, file, detail, cause);
   if (units !== "px" && units !== "um") {
     throw fail(TypeError, `unknown units "${units}"; use "px" or "um"`);
   }
@@ -99,7 +103,7 @@ export function parseFiguresCsv(
   } catch (e) {
     const err = e as Error & { lines?: number };
     const line = typeof err.lines === "number" ? `line ${err.lines}: ` : "";
-    throw fail(SyntaxError, `${line}not valid CSV (RFC 4180): ${err.message}`);
+    throw fail(SyntaxError, `${line}not valid CSV (RFC 4180): ${err.message}`, e);
   }
   const header = rows[0].record.map((h) => h.trim().toLowerCase());
   const col: Partial<Record<typeof KNOWN[number], number>> = {};
@@ -179,8 +183,10 @@ export function parseFiguresCsv(
         throw fail(RangeError, `line ${line}: score ${rawScore} is outside [0, 1]${hint}`);
       }
     }
-    if (units === "um") figures.add(x / options.mppX, y / options.mppY, label, score, line);
-    else figures.add(x, y, label, score, line);
+    if (units === "um") {
+      const [xPx, yPx] = umToPx([x, y], options);
+      figures.add(xPx, yPx, label, score, line);
+    } else figures.add(x, y, label, score, line);
   }
   if (decimalCommaUsed > 0) {
     warnings.push(

@@ -32,6 +32,7 @@ export function parseOptions(
     // node:util appends multi-line advice; keep the first sentence.
     throw new UsageError(
       (e as Error).message.replace(/[.?]?\s*(Did you forget|To specify).*$/s, ""),
+      { cause: e },
     );
   }
 }

@@ -7,7 +7,7 @@
  */
 
 import { join } from "node:path";
-import { UsageError } from "../errors.ts";
+import { GridSizeError, UsageError } from "../errors.ts";
 import { loadCase } from "../annotations/read_case.ts";
 import { buildCaseResult } from "../pipeline/build_case_result.ts";
 import type { CaseResult, ReportOptions } from "../pipeline/case_result.ts";
@@ -147,7 +147,7 @@ export function reportOptionsFromValues(values: Values): ReportOptions {
     try {
       getScheme(String(scheme));
     } catch (e) {
-      throw new UsageError(`Option --scheme: ${(e as Error).message}`);
+      throw new UsageError(`Option --scheme: ${(e as Error).message}`, { cause: e });
     }
     options.scheme = String(scheme);
   }
@@ -236,9 +236,10 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     try {
       results.push(buildCaseResult(caseData, options));
     } catch (e) {
-      if (e instanceof RangeError && e.message.startsWith("The count grid")) {
+      if (e instanceof GridSizeError) {
         throw new UsageError(
           `Option --stride-um is too small for case "${caseData.caseId}": ${e.message}`,
+          { cause: e },
         );
       }
       throw e;

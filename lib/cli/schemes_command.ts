@@ -89,7 +89,7 @@ export function run(args: string[], io: CommandIo): Promise<number> {
     try {
       schemes = [getScheme(values.scheme)];
     } catch (e) {
-      throw new UsageError(`Option --scheme: ${(e as Error).message}`);
+      throw new UsageError(`Option --scheme: ${(e as Error).message}`, { cause: e });
     }
   } else {
     schemes = listSchemes();

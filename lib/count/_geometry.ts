@@ -11,6 +11,6 @@ export {
   diskOverlapArea,
   polygonOverlapArea,
 } from "../geometry/window_overlap.ts";
-export { scaleRegion } from "../geometry/transform.ts";
+export { regionBBox } from "../geometry/region_bbox.ts";
 export { rasterizeArea } from "../geometry/raster_coverage.ts";
 export { buildValidRegion } from "../geometry/valid_region.ts";

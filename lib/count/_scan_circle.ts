@@ -87,7 +87,7 @@ export function circleSimulator(o: {
  * smallest with at least that many, as half-widths per row offset (−1: row
  * empty), and the weight w with n_in + w·(n_out − n_in) = π·r².
  */
-export function diskStencils(radiusNodes: number): {
+function diskStencils(radiusNodes: number): {
   reach: number;
   halfIn: Int32Array;
   halfOut: Int32Array;

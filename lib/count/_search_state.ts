@@ -10,6 +10,7 @@ import { stampWindowCounts } from "./stamp_window_counts.ts";
 import { type WindowExtents, windowExtents } from "./window_contains.ts";
 import { bucketFigures, type FigureBuckets } from "./_figure_buckets.ts";
 import { createOverlapIndex } from "./_geometry.ts";
+import { umToPx } from "../units.ts";
 
 /** Coverage within this of the minimum counts as admissible (floating-point slack). */
 export const ADMIT_EPS = 1e-9;
@@ -216,7 +217,7 @@ export function placement(
 ): Placement {
   return {
     centerUm: [cx, cy],
-    centerPx: [cx / st.mpp.mppX, cy / st.mpp.mppY],
+    centerPx: umToPx([cx, cy], st.mpp),
     count,
     coverage,
     perMm2: count / st.window.areaMm2,

@@ -15,13 +15,14 @@ import {
   polygonAreaPx2,
   polygonOverlapArea,
 } from "./_geometry.ts";
-import type { AreaIndex } from "./_hotspot_search.ts";
 import { roundTo } from "../numbers.ts";
+import { pxToUm, ringPxToUm } from "../units.ts";
+import type { OverlapIndex } from "../geometry/window_overlap.ts";
 
 /** Options of {@linkcode checkFields}. */
 export interface CheckFieldsOptions {
   /** Exact area index of V in µm, to reuse. */
-  overlap?: AreaIndex;
+  overlap?: OverlapIndex;
   /** Histogram of the map's admissible counts, to reuse. */
   histogram?: number[];
 }
@@ -72,13 +73,13 @@ export function checkFields(
   options: CheckFieldsOptions = {},
 ): FieldCheck[] {
   if (prepared.fields.length === 0) return [];
-  const { mppX, mppY } = prepared.slide;
-  const overlap = options.overlap ?? (createOverlapIndex(prepared.validUm) as AreaIndex);
+  const mpp = prepared.slide;
+  const overlap = options.overlap ?? createOverlapIndex(prepared.validUm);
   const histogram = options.histogram ?? summarizeDistribution(map).histogram;
   const e = windowExtents(window);
   const windowAreaMm2 = e.areaUm2 / 1e6;
   return prepared.fields.map((field, n) => {
-    const centerUm: [number, number] = [field.centerPx[0] * mppX, field.centerPx[1] * mppY];
+    const centerUm = pxToUm(field.centerPx, mpp);
     const warnings: string[] = [];
     const who = `Field ${n + 1}${
       field.reader ? ` (${field.reader})` : ""
@@ -86,9 +87,7 @@ export function checkFields(
     let count: number, coverage: number, areaMm2: number;
     let countScaledToWindow: number | null = null;
     if (field.kind === "polygon" && field.polygon) {
-      const polyUm: PolygonPx = field.polygon.map((ring) =>
-        ring.map(([x, y]) => [x * mppX, y * mppY] as [number, number])
-      );
+      const polyUm: PolygonPx = field.polygon.map((ring) => ringPxToUm(ring, mpp));
       const areaUm2 = Math.abs(polygonAreaPx2(polyUm));
       areaMm2 = areaUm2 / 1e6;
       const inside = createRegionIndex([polyUm]).containsPoints(prepared.xUm, prepared.yUm);

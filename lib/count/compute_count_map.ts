@@ -10,10 +10,10 @@ import { stampWindowCounts } from "./stamp_window_counts.ts";
 import { windowExtents } from "./window_contains.ts";
 import { rectCoverage } from "./_coverage_rect.ts";
 import { circleCoverage, circleRaster } from "./_coverage_circle.ts";
-import { regionBounds } from "./_region_bbox.ts";
-import { createOverlapIndex } from "./_geometry.ts";
+import { createOverlapIndex, regionBBox } from "./_geometry.ts";
 import { DEFAULT_MAX_GRID_CELLS, DEFAULT_MIN_COVERAGE, DEFAULT_STRIDE_UM } from "../defaults.ts";
 import { roundTo } from "../numbers.ts";
+import { GridSizeError } from "../errors.ts";
 
 /** At most this many circle centres get an exact coverage (each is one disk query). */
 const MAX_EXACT_CIRCLE_REFINEMENTS = 200_000;
@@ -67,7 +67,7 @@ export function planCountGrid(
   minCoverage: number,
 ): { bboxUm: [number, number, number, number]; marginUm: [number, number]; cells: number } {
   const e = windowExtents(window);
-  const bounds = regionBounds(validUm);
+  const bounds = regionBBox(validUm);
   if (bounds === null) return { bboxUm: [0, 0, 0, 0], marginUm: [0, 0], cells: 1 };
   const bboxUm = bounds;
   // A centre outside bbox(V) sees at most half its window inside V, so for
@@ -95,9 +95,10 @@ export function planCountGrid(
  * @param window The counting window.
  * @param options Stride, minimum coverage, grid limit.
  * @returns The map.
- * @throws RangeError when the stride or minimum coverage is out of range, or
- *   when the grid would exceed `maxGridCells` (the message gives the number of
- *   cells and the memory it would need).
+ * @throws {RangeError} When the stride or minimum coverage is out of range.
+ * @throws {GridSizeError} (a RangeError) When the grid would exceed
+ *   `maxGridCells`; the message gives the number of cells and the memory it
+ *   would need.
  *
  * @example A 2 × 2 mm square of tissue with one figure in the middle
  * ```ts
@@ -130,7 +131,7 @@ export function computeCountMap(
   const plan = planCountGrid(prepared.validUm, window, strideUm, minCoverage);
   if (plan.cells > maxGridCells) {
     const mb = Math.ceil(plan.cells * BYTES_PER_GRID_CELL / 1e6);
-    throw new RangeError(
+    throw new GridSizeError(
       `The count grid at a stride of ${strideUm} µm would have ${plan.cells} cells ` +
         `(about ${mb} MB), more than the limit of ${maxGridCells}: use a larger stride`,
     );

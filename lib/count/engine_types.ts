@@ -12,9 +12,13 @@ import type { FieldSpec, MultiPolygonPx, SlideInfo } from "../types.ts";
 
 /** An axis-aligned rectangle window (W along slide x) of a given area. */
 export interface RectWindow {
+  /** A rectangle, sides parallel to the slide axes. */
   shape: "rect";
+  /** Window area, mm², as asked for. */
   areaMm2: number;
+  /** Width along slide x, µm (not rounded). */
   widthUm: number;
+  /** Height along slide y, µm (not rounded). */
   heightUm: number;
   /** Aspect W:H as given. */
   aspect: [number, number];
@@ -22,8 +26,11 @@ export interface RectWindow {
 
 /** A circular window of a given area. */
 export interface CircleWindow {
+  /** A circle. */
   shape: "circle";
+  /** Window area, mm², as asked for. */
   areaMm2: number;
+  /** Diameter, µm (not rounded). */
   diameterUm: number;
 }
 
@@ -49,7 +56,9 @@ export interface FigureTally {
  * micrometre plane, with everything needed to report back in pixels.
  */
 export interface PreparedCase {
+  /** The case id. */
   caseId: string;
+  /** The slide: id and micrometres per pixel. */
   slide: SlideInfo;
   /** Valid region V in micrometres. */
   validUm: MultiPolygonPx;
@@ -59,15 +68,21 @@ export interface PreparedCase {
   validAreaMm2: number;
   /** Areas of union(tissue), union(tumour), union(exclude), mm² (0 when absent). */
   areasMm2: { tissue: number; tumour: number; excluded: number; valid: number };
-  /** Counted figures (label counted, score passes, inside V), micrometres. */
+  /** x of the counted figures (label counted, score passes, inside V), µm. */
   xUm: Float64Array;
+  /** y of the counted figures, µm (same order as `xUm`). */
   yUm: Float64Array;
+  /** Figure tallies by reason. */
   tally: FigureTally;
+  /** The readers' fields as read (pixels). */
   fields: FieldSpec[];
   /** Exclusion polygons in pixels, with reasons, for drawing. */
   excludePx: { polygons: MultiPolygonPx; reason?: string }[];
+  /** The minimum score used. */
   minScore: number;
+  /** The labels counted. */
   countLabels: string[];
+  /** Warnings from reading the case and building V. */
   warnings: string[];
 }
 
@@ -77,16 +92,23 @@ export interface PreparedCase {
  * origin + i × stride, never by repeated addition.
  */
 export interface StrideGrid {
+  /** x of the first centre, µm from the slide origin. */
   x0Um: number;
+  /** y of the first centre, µm from the slide origin. */
   y0Um: number;
+  /** Spacing of centres along x and y, µm. */
   strideUm: number;
+  /** Centres along x. */
   nx: number;
+  /** Centres along y. */
   ny: number;
 }
 
 /** Window counts and coverage at every grid centre (row-major, index j·nx + i). */
 export interface CountMap {
+  /** The grid of window centres. */
   grid: StrideGrid;
+  /** The window counted at each centre. */
   window: WindowShape;
   /** Exact count of counted figures in the closed window at each centre. */
   counts: Int32Array;
@@ -94,6 +116,7 @@ export interface CountMap {
   coverage: Float32Array;
   /** 1 where coverage ≥ minCoverage. */
   admissible: Uint8Array;
+  /** The least coverage admitted, (0, 1]. */
   minCoverage: number;
   /** Number of admissible centres. */
   positions: number;
@@ -108,10 +131,15 @@ export interface CountMap {
 
 /** One placed window. */
 export interface Placement {
+  /** Window centre, µm from the slide origin. */
   centerUm: [number, number];
+  /** Window centre, level-0 pixels. */
   centerPx: [number, number];
+  /** Counted figures in the closed window. */
   count: number;
+  /** area(window ∩ V) / area(window), 0–1. */
   coverage: number;
+  /** `count` per mm² of window. */
   perMm2: number;
   /**
    * How far (µm) the centre can move in any direction before the count
@@ -122,9 +150,13 @@ export interface Placement {
 
 /** One reader's field checked against the count map (see `checkFields`). */
 export interface FieldCheck {
+  /** The reader's name ("" when none). */
   reader: string;
+  /** A centre point (the standard window there) or a drawn polygon. */
   kind: "point" | "polygon";
+  /** Centre in level-0 pixels (a polygon's centroid). */
   centerPx: [number, number];
+  /** Centre in µm from the slide origin. */
   centerUm: [number, number];
   /** Exact count of counted figures in the field (standard window or polygon). */
   count: number;
@@ -138,6 +170,7 @@ export interface FieldCheck {
   areaMm2: number;
   /** count × window area / polygon area, for polygons more than 5% off the window area. */
   countScaledToWindow: number | null;
+  /** Index of the field's feature in the annotation file, from 0. */
   featureIndex: number;
   /** Problems with this field, in words. */
   warnings: string[];

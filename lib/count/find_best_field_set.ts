@@ -7,8 +7,9 @@
 import type { CountMap, Placement, PreparedCase, WindowShape } from "./engine_types.ts";
 import { computeCountMap } from "./compute_count_map.ts";
 import { makeWindow } from "./make_window.ts";
-import { type AreaIndex, createSearch, searchBest } from "./_hotspot_search.ts";
+import { createSearch, searchBest } from "./_hotspot_search.ts";
 import { DEFAULT_BEST_N, DEFAULT_FIELD_AREA_MM2 } from "../defaults.ts";
+import type { OverlapIndex } from "../geometry/window_overlap.ts";
 
 /** Area of one high-power field of field number 22 at a 40× objective, mm²: π·0.275². */
 
@@ -27,17 +28,20 @@ export interface FindBestFieldSetOptions {
   /** Minimum coverage of each field. @default 0.95 */
   minCoverage?: number;
   /** Exact area index of V in µm, to reuse. */
-  overlap?: AreaIndex;
+  overlap?: OverlapIndex;
   /** A count map of the field window already computed, to reuse. */
   map?: CountMap;
 }
 
 /** Result of {@linkcode findBestFieldSet}. */
 export interface BestFieldSet {
+  /** The fields, best first; fewer than asked for when no more fit. */
   fields: Placement[];
   /** Sum of the fields' counts. */
   total: number;
+  /** The window of one field. */
   window: WindowShape;
+  /** In words, what the search guarantees about `total`. */
   guarantee: string;
 }
 

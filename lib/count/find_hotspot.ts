@@ -5,12 +5,13 @@
  */
 
 import type { CountMap, Placement, PreparedCase } from "./engine_types.ts";
-import { type AreaIndex, createSearch, searchBest } from "./_hotspot_search.ts";
+import { createSearch, searchBest } from "./_hotspot_search.ts";
+import type { OverlapIndex } from "../geometry/window_overlap.ts";
 
 /** Options of {@linkcode findHotspot}. */
 export interface FindHotspotOptions {
   /** Exact area index of V in µm (from `createOverlapIndex(prepared.validUm)`), to reuse. */
-  overlap?: AreaIndex;
+  overlap?: OverlapIndex;
 }
 
 /**

@@ -5,12 +5,13 @@
  */
 
 import type { CountMap, Placement, PreparedCase } from "./engine_types.ts";
-import { type AreaIndex, createSearch, searchBest } from "./_hotspot_search.ts";
+import { createSearch, searchBest } from "./_hotspot_search.ts";
+import type { OverlapIndex } from "../geometry/window_overlap.ts";
 
 /** Options of {@linkcode findTopHotspots}. */
 export interface FindTopHotspotsOptions {
   /** Exact area index of V in µm, to reuse. */
-  overlap?: AreaIndex;
+  overlap?: OverlapIndex;
 }
 
 /**

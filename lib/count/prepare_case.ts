@@ -6,8 +6,8 @@
 
 import type { CaseData } from "../types.ts";
 import type { PreparedCase } from "./engine_types.ts";
-import { px2ToMm2 } from "../units.ts";
-import { buildValidRegion, createRegionIndex, scaleRegion } from "./_geometry.ts";
+import { pointsPxToUm, px2ToMm2, regionPxToUm } from "../units.ts";
+import { buildValidRegion, createRegionIndex } from "./_geometry.ts";
 import { tallyFigures } from "./tally_figures.ts";
 import { DEFAULT_COUNT_LABELS } from "../defaults.ts";
 
@@ -67,20 +67,12 @@ export function prepareCase(caseData: CaseData, options: PrepareCaseOptions = {}
   const index = createRegionIndex(valid.region);
   const inside = index.containsPoints(figures.xPx, figures.yPx);
   const { tally, counted } = tallyFigures(figures, inside, { minScore, countLabels });
-  let n = 0;
-  for (let k = 0; k < counted.length; k++) if (counted[k]) n++;
-  const xUm = new Float64Array(n), yUm = new Float64Array(n);
-  for (let k = 0, m = 0; k < counted.length; k++) {
-    if (!counted[k]) continue;
-    xUm[m] = figures.xPx[k] * mpp.mppX;
-    yUm[m] = figures.yPx[k] * mpp.mppY;
-    m++;
-  }
+  const { xUm, yUm } = pointsPxToUm(figures.xPx, figures.yPx, mpp, counted);
   const validAreaMm2 = px2ToMm2(valid.validAreaPx2, mpp);
   return {
     caseId: caseData.caseId,
     slide,
-    validUm: scaleRegion(valid.region, mpp.mppX, mpp.mppY),
+    validUm: regionPxToUm(valid.region, mpp),
     validPx: valid.region,
     validAreaMm2,
     areasMm2: {

@@ -36,6 +36,7 @@ import type { StrideGrid, WindowShape } from "./engine_types.ts";
 import { seededRandom } from "../random.ts";
 import { DEFAULT_SIMULATIONS } from "../defaults.ts";
 import { buildAlias, cellAreas } from "./_scan_sampling.ts";
+import { regionBBox } from "./_geometry.ts";
 import { rectSimulator } from "./_scan_rect.ts";
 import { circleSimulator } from "./_scan_circle.ts";
 import { roundTo } from "../numbers.ts";
@@ -86,7 +87,9 @@ export interface ScanTestResult {
   p: number;
   /** Observed maximum admissible window count (on the scanned positions). */
   observed: number;
+  /** Number of simulations run. */
   simulations: number;
+  /** Seed of the simulations. */
   seed: number;
   /** Number of simulations whose maximum was ≥ observed. */
   atLeastObserved: number;
@@ -96,6 +99,7 @@ export interface ScanTestResult {
   gridStep: number;
   /** Plain words: statistic and approximations. */
   method: string;
+  /** Problems with the test's input, in words. */
   warnings: string[];
 }
 
@@ -183,7 +187,8 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
   // strides (m may be a fraction 1/q of a large stride) with edges on nodes;
   // for circles F = S/q centred on the nodes of a lattice of spacing F that
   // holds the scanned nodes (a point then counts at its node).
-  const bbox = regionBBox(input.validUm);
+  // An empty V places nothing (no alias table below), so any box will do.
+  const bbox = regionBBox(input.validUm) ?? [0, 0, 0, 0];
   const q = Math.max(1, Math.ceil(S / CELL_UM));
   const m = isRect ? (S <= CELL_UM ? Math.max(1, Math.round(CELL_UM / S)) : 1 / q) : 1 / q;
   const C = m * S;
@@ -269,21 +274,4 @@ export function scanTest(input: ScanTestInput, options: ScanTestOptions = {}): S
       (step > 1 ? `; every ${step}th grid position along x and y scanned (${mx} × ${my})` : ""),
     warnings,
   };
-}
-
-/** Bounding box [minX, minY, maxX, maxY] of a region. */
-function regionBBox(region: MultiPolygonPx): [number, number, number, number] {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (const poly of region) {
-    for (const ring of poly) {
-      for (const [x, y] of ring) {
-        if (x < minX) minX = x;
-        if (x > maxX) maxX = x;
-        if (y < minY) minY = y;
-        if (y > maxY) maxY = y;
-      }
-    }
-  }
-  if (!Number.isFinite(minX)) return [0, 0, 0, 0];
-  return [minX, minY, maxX, maxY];
 }

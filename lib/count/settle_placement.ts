@@ -10,6 +10,7 @@
 
 import type { Placement, PreparedCase, WindowShape } from "./engine_types.ts";
 import { windowExtents } from "./window_contains.ts";
+import { umToPx } from "../units.ts";
 
 /** Options of {@linkcode settlePlacement}. */
 export interface SettlePlacementOptions {
@@ -130,7 +131,7 @@ export function settlePlacement(
   }
   return {
     centerUm: [cx, cy],
-    centerPx: [cx / prepared.slide.mppX, cy / prepared.slide.mppY],
+    centerPx: umToPx([cx, cy], prepared.slide),
     count: p.count,
     coverage: cov,
     perMm2: p.perMm2,

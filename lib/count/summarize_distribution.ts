@@ -9,15 +9,23 @@ import { QUANTILE_METHOD, quantileOfHistogram } from "../stats/quantiles.ts";
 
 /** Summary of counts over admissible grid positions (nulls when there are none). */
 export interface Distribution {
+  /** Number of admissible grid positions. */
   positions: number;
+  /** Least admissible count. */
   min: number | null;
+  /** Lower quartile (R-7, not rounded). */
   q1: number | null;
+  /** Median (R-7, not rounded). */
   median: number | null;
+  /** Upper quartile (R-7, not rounded). */
   q3: number | null;
+  /** Greatest admissible count. */
   max: number | null;
+  /** Mean admissible count (not rounded). */
   mean: number | null;
   /** `histogram[c]` = number of admissible positions with count c. */
   histogram: number[];
+  /** How the quartiles were computed, in words. */
   quantileMethod: string;
 }
 

@@ -106,18 +106,6 @@ export function inAny(polygons: PolygonPx[], x: number, y: number): boolean {
   return false;
 }
 
-/** Bounding box of a ring. */
-export function ringBBox(ring: Ring): [number, number, number, number] {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (const [x, y] of ring) {
-    if (x < minX) minX = x;
-    if (y < minY) minY = y;
-    if (x > maxX) maxX = x;
-    if (y > maxY) maxY = y;
-  }
-  return [minX, minY, maxX, maxY];
-}
-
 /** Signed shoelace area of a closed ring, px² (positive = clockwise on screen with y down). */
 export function ringArea(ring: Ring): number {
   let a = 0;

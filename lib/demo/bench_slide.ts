@@ -12,6 +12,7 @@ import type { PolygonPx } from "../types.ts";
 import { normal, seededRandom } from "../random.ts";
 import { blobRing, type Frame, profileAt, randomProfile, reversed, toSlide } from "./_shapes.ts";
 import { roundTo } from "../numbers.ts";
+import { umToPx } from "../units.ts";
 
 /** Options of {@linkcode generateBenchSlide}. */
 export interface BenchSlideOptions {
@@ -109,7 +110,7 @@ export function generateBenchSlide(seed: number, options: BenchSlideOptions = {}
     const rad = 0.55 * Math.sqrt(random()), ang = 2 * Math.PI * random();
     return {
       at: toSlide(frame, rad * Math.cos(ang), rad * Math.sin(ang)),
-      sigmaPx: (300 + 1200 * random()) / mpp,
+      sigmaPx: umToPx([300 + 1200 * random(), 0], { mppX: mpp, mppY: mpp })[0],
       weight: 0.2 + random(),
     };
   });

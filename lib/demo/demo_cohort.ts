@@ -27,11 +27,12 @@ import {
   randomProfile,
   rasterize,
   reversed,
-  ringBBox,
   toSlide,
 } from "./_shapes.ts";
 import { type CaseRecipe, DEMO_RECIPES, LOOKALIKES } from "./demo_recipes.ts";
 import { roundTo } from "../numbers.ts";
+import { px2ToMm2, pxToUm, umToPx } from "../units.ts";
+import { regionBBox } from "../geometry/region_bbox.ts";
 
 /** The seed `deno task demo:data` uses for data/demo/. */
 export const DEMO_SEED = 24;
@@ -128,8 +129,9 @@ function mppPair(mpp: number | [number, number]): [number, number] {
 
 function generateCase(r: CaseRecipe, random: Random): DemoCase {
   const [mppX, mppY] = mppPair(r.mpp);
-  const mmX = (mm: number) => mm * 1000 / mppX;
-  const mmY = (mm: number) => mm * 1000 / mppY;
+  const mpp = { mppX, mppY };
+  const mmX = (mm: number) => umToPx([mm * 1000, 0], mpp)[0];
+  const mmY = (mm: number) => umToPx([0, mm * 1000], mpp)[1];
   const slide: DemoSlide = {
     id: r.caseId,
     mpp: r.mpp,
@@ -173,7 +175,7 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
     holes.push(r.sameWinding ? ring : reversed(ring));
   }
   const tissue: PolygonPx[] = [[mainOuter, ...holes]];
-  const mainBox = ringBBox(mainOuter);
+  const mainBox = regionBBox([[mainOuter]])!;
   for (const frag of r.fragments) {
     const reach = Math.max(mainBox[2] - frame.cx, frame.cx - mainBox[0]);
     const dist = reach + mmX(frag.rMm) * 1.5 + mmX(0.3);
@@ -187,7 +189,7 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
     tissue.push([blobRing(f, randomProfile(random, 0.25), 90, { jitter: 0.02, random })]);
   }
   for (const p of tissue) {
-    const [x0, y0, x1, y1] = ringBBox(p[0]);
+    const [x0, y0, x1, y1] = regionBBox([[p[0]]])!;
     if (x0 < 0 || y0 < 0 || x1 > slide.width || y1 > slide.height) {
       throw new Error(`Demo recipe ${r.caseId}: tissue leaves the slide`);
     }
@@ -226,12 +228,13 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
   for (const focus of r.foci) {
     const [cx, cy] = toSlide(frame, focus.u, focus.v);
     for (let k = 0; k < focus.n; k++) {
-      const [x, y] = gaussianPoint(random, cx, cy, focus.sigmaUm / mppX, focus.sigmaUm / mppY);
+      const [sx, sy] = umToPx([focus.sigmaUm, focus.sigmaUm], mpp);
+      const [x, y] = gaussianPoint(random, cx, cy, sx, sy);
       if (inAny(tissue, x, y)) mitotic(x, y);
     }
   }
-  const tumourBox = ringBBox(tumourRing);
-  const tumourMm2 = polygonArea(tumour) * mppX * mppY / 1e6;
+  const tumourBox = regionBBox([[tumourRing]])!;
+  const tumourMm2 = px2ToMm2(polygonArea(tumour), mpp);
   const uniformIn = (accept: (x: number, y: number) => boolean, box: number[]): Vec2 => {
     for (;;) {
       const x = box[0] + (box[2] - box[0]) * random();
@@ -245,7 +248,7 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
       ...uniformIn((x, y) => inPolygon(tissue[0], x, y) && inRing(tumourRing, x, y), tumourBox),
     );
   }
-  const tissueMm2 = tissue.reduce((a, p) => a + polygonArea(p), 0) * mppX * mppY / 1e6;
+  const tissueMm2 = px2ToMm2(tissue.reduce((a, p) => a + polygonArea(p), 0), mpp);
   const nOutside = Math.round(r.outsidePerMm2 * Math.max(0, tissueMm2 - tumourMm2));
   for (let k = 0; k < nOutside; k++) {
     mitotic(
@@ -265,7 +268,7 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
   }
   for (const e of excludes) {
     const ring = e.polygons[0][0];
-    const box = ringBBox(ring);
+    const box = regionBBox([[ring]])!;
     for (let k = 0; k < e.figures; k++) {
       const [x, y] = uniformIn((x, y) => inRing(ring, x, y), box);
       // In necrosis and artefact most candidates are lookalikes, some look mitotic.
@@ -301,10 +304,10 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
     }
     // A hand-drawn quadrilateral of about 2.37 mm² (1777.6 × 1333.2 µm).
     const hw = 1777.6 / 2, hh = 1333.2 / 2;
-    const corners: Vec2[] = [[-hw, -hh], [hw, -hh], [hw, hh], [-hw, hh]].map(([dx, dy]) => [
-      roundTo(cx + (dx + 40 * (random() - 0.5)) / mppX, 1),
-      roundTo(cy + (dy + 40 * (random() - 0.5)) / mppY, 1),
-    ]);
+    const corners: Vec2[] = [[-hw, -hh], [hw, -hh], [hw, hh], [-hw, hh]].map(([dx, dy]) => {
+      const [ox, oy] = umToPx([dx + 40 * (random() - 0.5), dy + 40 * (random() - 0.5)], mpp);
+      return [roundTo(cx + ox, 1), roundTo(cy + oy, 1)];
+    });
     return {
       type: "Feature",
       properties,
@@ -316,9 +319,9 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
   const features: DemoFeature[] = [];
   let tissueMask: DemoMask | undefined;
   if (r.maskUmPerPx) {
-    const cellPxX = r.maskUmPerPx / mppX;
+    const cellPxX = umToPx([r.maskUmPerPx, 0], mpp)[0];
     const width = Math.ceil(slide.width / cellPxX);
-    const height = Math.ceil(slide.height * mppY / r.maskUmPerPx);
+    const height = Math.ceil(pxToUm([0, slide.height], mpp)[1] / r.maskUmPerPx);
     tissueMask = {
       width,
       height,

@@ -34,6 +34,7 @@ export type MimeBundle = Record<string, unknown>;
 
 /** Something the Deno kernel displays richly. */
 export interface Displayable {
+  /** The mime bundle to show. */
   [JUPYTER_DISPLAY](): MimeBundle;
 }
 

@@ -15,32 +15,22 @@
 import type { MultiPolygonPx, PolygonPx, Ring } from "../types.ts";
 import { buildBands, classifyPoint, type EdgeBands, flattenEdges } from "./_edges.ts";
 import { ringAreaPx2 } from "./planar_area.ts";
+import { regionBBox } from "./region_bbox.ts";
 
 type BBox = [number, number, number, number];
 
 function ringBBox(r: Ring): BBox {
-  let a = Infinity, b = Infinity, c = -Infinity, d = -Infinity;
-  for (const p of r) {
-    if (p[0] < a) a = p[0];
-    if (p[0] > c) c = p[0];
-    if (p[1] < b) b = p[1];
-    if (p[1] > d) d = p[1];
-  }
-  return [a, b, c, d];
+  // Rings handed here have nonzero area, so they have a box.
+  return regionBBox([[r]])!;
 }
 
-/** Bounding box of a region (Infinity box when empty). */
+/**
+ * Bounding box of a region for the pair operations. An empty region gets the
+ * inverted box `[∞, ∞, −∞, −∞]`: it meets no box and leaves a union of boxes
+ * unchanged, so the callers need no special case.
+ */
 export function bboxOf(mp: MultiPolygonPx): BBox {
-  let a = Infinity, b = Infinity, c = -Infinity, d = -Infinity;
-  for (const p of mp) {
-    if (p.length === 0) continue;
-    const [ra, rb, rc, rd] = ringBBox(p[0]);
-    if (ra < a) a = ra;
-    if (rb < b) b = rb;
-    if (rc > c) c = rc;
-    if (rd > d) d = rd;
-  }
-  return [a, b, c, d];
+  return regionBBox(mp) ?? [Infinity, Infinity, -Infinity, -Infinity];
 }
 
 /** Whether two closed boxes meet (touching counts). */

@@ -8,7 +8,6 @@
 
 import union from "@turf/union";
 import intersect from "@turf/intersect";
-import difference from "@turf/difference";
 import { featureCollection, multiPolygon } from "@turf/helpers";
 import type { MultiPolygonPx } from "../types.ts";
 import { normalizeMultiPolygon } from "./normalize.ts";
@@ -42,11 +41,4 @@ export function turfUnion(parts: MultiPolygonPx[]): MultiPolygonPx {
 export function turfIntersect(a: MultiPolygonPx, b: MultiPolygonPx): MultiPolygonPx {
   if (a.length === 0 || b.length === 0) return [];
   return fromFeature(intersect(featureCollection([toFeature(a), toFeature(b)])));
-}
-
-/** Difference a − b. */
-export function turfDifference(a: MultiPolygonPx, b: MultiPolygonPx): MultiPolygonPx {
-  if (a.length === 0) return [];
-  if (b.length === 0) return a;
-  return fromFeature(difference(featureCollection([toFeature(a), toFeature(b)])));
 }

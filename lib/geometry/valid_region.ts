@@ -16,8 +16,11 @@ import { multiPolygonAreaPx2 } from "./planar_area.ts";
 
 /** The region parts of a case, by role. */
 export interface ValidRegionParts {
+  /** Tissue outlines (none: tissue does not restrict). */
   tissue: RegionPart[];
+  /** Tumour outlines (none: tumour does not restrict). */
   tumour: RegionPart[];
+  /** Outlines taken out. */
   exclude: RegionPart[];
 }
 

@@ -39,6 +39,7 @@ import {
   DEFAULT_TOP,
 } from "../defaults.ts";
 import { roundTo } from "../numbers.ts";
+import { pxToUm, umToPx } from "../units.ts";
 
 /** A window as report.json gives it (µm to 0.01). */
 export function reportWindow(w: WindowShape): ReportWindow {
@@ -349,6 +350,8 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
     );
   }
   const { mppX, mppY } = prepared.slide;
+  const originPx = umToPx([map.grid.x0Um, map.grid.y0Um], prepared.slide);
+  const stridePx = umToPx([map.grid.strideUm, map.grid.strideUm], prepared.slide);
   const g = map.grid;
   const report: ReportJson = {
     schema: REPORT_SCHEMA,
@@ -428,8 +431,8 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
     map: {
       nx: g.nx,
       ny: g.ny,
-      origin_px: [roundTo(g.x0Um / mppX, 2), roundTo(g.y0Um / mppY, 2)],
-      stride_px: [roundTo(g.strideUm / mppX, 4), roundTo(g.strideUm / mppY, 4)],
+      origin_px: [roundTo(originPx[0], 2), roundTo(originPx[1], 2)],
+      stride_px: [roundTo(stridePx[0], 4), roundTo(stridePx[1], 4)],
       discretization: map.discretization,
     },
   };
@@ -480,7 +483,6 @@ function settledReport(
   rank?: number,
 ): ReportPlacement {
   const out = reportPlacement(p, rank);
-  const { mppX, mppY } = prepared.slide;
   const recount = (cx: number, cy: number) =>
     countInWindow(prepared.xUm, prepared.yUm, window, cx, cy);
   let px: [number, number] = [p.centerPx[0], p.centerPx[1]];
@@ -488,7 +490,8 @@ function settledReport(
   for (const d of [2, 3, 4, 6, 9]) {
     const cp: [number, number] = [roundTo(p.centerPx[0], d), roundTo(p.centerPx[1], d)];
     const cu: [number, number] = [roundTo(p.centerUm[0], d), roundTo(p.centerUm[1], d)];
-    if (recount(cp[0] * mppX, cp[1] * mppY) === p.count && recount(cu[0], cu[1]) === p.count) {
+    const cpUm = pxToUm(cp, prepared.slide);
+    if (recount(cpUm[0], cpUm[1]) === p.count && recount(cu[0], cu[1]) === p.count) {
       px = cp;
       um = cu;
       break;

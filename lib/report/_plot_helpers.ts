@@ -8,28 +8,17 @@
 import type { Placement } from "../count/engine_types.ts";
 import type { MultiPolygonPx } from "../types.ts";
 import { roundTo } from "../numbers.ts";
+import { type Mpp, regionPxToUm } from "../units.ts";
 
 /** Rings of a pixel region as one µm line with null breaks (plotly draws them in one trace). */
 export function regionLineUm(
   region: MultiPolygonPx,
-  mpp: { mppX: number; mppY: number },
+  mpp: Mpp,
 ): { x: (number | null)[]; y: (number | null)[] } {
-  const x: (number | null)[] = [], y: (number | null)[] = [];
-  for (const polygon of region) {
-    for (const ring of polygon) {
-      if (x.length > 0) {
-        x.push(null);
-        y.push(null);
-      }
-      for (const [px, py] of ring) {
-        x.push(roundTo(px * mpp.mppX, 3));
-        y.push(roundTo(py * mpp.mppY, 3));
-      }
-    }
-  }
-  return { x, y };
+  return ringsLineUm(regionPxToUm(region, mpp).flat());
 }
 
+/** Rings in µm as one line with null breaks, positions to 0.001 µm. */
 export function ringsLineUm(
   rings: [number, number][][],
 ): { x: (number | null)[]; y: (number | null)[] } {

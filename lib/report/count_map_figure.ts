@@ -16,6 +16,8 @@ import { outlineTraces, placementHover, regionLineUm, ringsLineUm } from "./_plo
 import { figureWords, plotText, readerName, windowWords } from "./plot_labels.ts";
 import { MARK_STYLE, PLOT_FONT, type PlotFigure, readerStyles } from "./plot_style.ts";
 import { roundTo } from "../numbers.ts";
+import { type Mpp, pxToUm, regionPxToUm, ringPxToUm } from "../units.ts";
+import { regionBBox } from "../geometry/region_bbox.ts";
 
 /** Options of {@linkcode countMapFigure}. */
 export interface CountMapFigureOptions {
@@ -428,19 +430,14 @@ function sqrtTicks(max: number): number[] {
 /** A plot height that suits the region's aspect at a plot area about 880 px wide. */
 function mapHeight(
   region: MultiPolygonPx,
-  mpp: { mppX: number; mppY: number },
+  mpp: Mpp,
   map: CaseResult["map"],
 ): number {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (const polygon of region) {
-    for (const [x, y] of polygon[0] ?? []) {
-      minX = Math.min(minX, x * mpp.mppX);
-      maxX = Math.max(maxX, x * mpp.mppX);
-      minY = Math.min(minY, y * mpp.mppY);
-      maxY = Math.max(maxY, y * mpp.mppY);
-    }
-  }
-  if (!(maxX > minX && maxY > minY)) {
+  const box = regionBBox(regionPxToUm(region, mpp));
+  let minX: number, minY: number, maxX: number, maxY: number;
+  if (box && box[2] > box[0] && box[3] > box[1]) {
+    [minX, minY, maxX, maxY] = box;
+  } else {
     const g = map.grid;
     minX = g.x0Um, maxX = g.x0Um + Math.max(1, g.nx - 1) * g.strideUm;
     minY = g.y0Um, maxY = g.y0Um + Math.max(1, g.ny - 1) * g.strideUm;
@@ -452,7 +449,7 @@ function mapHeight(
 
 function fieldTraces(
   result: CaseResult,
-  mpp: { mppX: number; mppY: number },
+  mpp: Mpp,
 ): Record<string, unknown>[] {
   const fields = result.report.fields;
   if (fields.length === 0) return [];
@@ -466,10 +463,10 @@ function fieldTraces(
       const spec = specs[k];
       const polygon: PolygonPx | undefined = spec?.kind === "polygon" ? spec.polygon : undefined;
       if (polygon && polygon.length > 0) {
-        rings.push(polygon[0].map(([x, y]) => [x * mpp.mppX, y * mpp.mppY] as [number, number]));
+        rings.push(ringPxToUm(polygon[0], mpp));
       } else {
         rings.push(
-          windowRingUm(result.window, [f.center_px[0] * mpp.mppX, f.center_px[1] * mpp.mppY]),
+          windowRingUm(result.window, pxToUm(f.center_px, mpp)),
         );
       }
     }
@@ -495,8 +492,8 @@ function fieldTraces(
       type: "scatter",
       mode: "markers",
       name: label,
-      x: mine.map(({ f }) => roundTo((f.center_px[0] * mpp.mppX) / 1000, 6)),
-      y: mine.map(({ f }) => roundTo((f.center_px[1] * mpp.mppY) / 1000, 6)),
+      x: mine.map(({ f }) => roundTo(pxToUm(f.center_px, mpp)[0] / 1000, 6)),
+      y: mine.map(({ f }) => roundTo(pxToUm(f.center_px, mpp)[1] / 1000, 6)),
       marker: {
         symbol: style.symbol,
         size: 11,

@@ -8,6 +8,7 @@
 import type { Placement, WindowShape } from "../count/engine_types.ts";
 import type { CaseResult } from "../pipeline/case_result.ts";
 import type { Ring } from "../types.ts";
+import { ringUmToPx } from "../units.ts";
 
 /** Vertices used to draw a circular window as a polygon. */
 const CIRCLE_VERTICES = 128;
@@ -60,7 +61,44 @@ export function windowRingPx(
   centerUm: [number, number],
   mpp: { mppX: number; mppY: number },
 ): Ring {
-  return windowRingUm(window, centerUm).map(([x, y]) => [x / mpp.mppX, y / mpp.mppY]);
+  return ringUmToPx(windowRingUm(window, centerUm), mpp);
+}
+
+/** One window of `hotspot.geojson`: a GeoJSON Polygon in level-0 pixels. */
+export interface HotspotFeature {
+  /** Always "Feature". */
+  type: "Feature";
+  /** What the window is and what it holds. */
+  properties: {
+    /** The hotspot, one of the top-k windows, or one of the best separate fields. */
+    kind: "hotspot" | "top" | "best-field";
+    /** Rank within its kind, from 1. */
+    rank: number;
+    /** Counted figures in the closed window. */
+    count: number;
+    /** Share of the window inside the valid region, 0–1 (not rounded). */
+    coverage: number;
+    /** `count` per mm² of window (not rounded). */
+    per_mm2: number;
+    /** Window centre, level-0 pixels (not rounded). */
+    center_px: [number, number];
+    /** Window shape. */
+    shape: "rect" | "circle";
+    /** Window area, mm². */
+    area_mm2: number;
+  };
+  /** The window outline: one closed ring in level-0 pixels (a circle as a polygon). */
+  geometry: { type: "Polygon"; coordinates: Ring[] };
+}
+
+/** The `hotspot.geojson` FeatureCollection of one case. */
+export interface HotspotFeatureCollection {
+  /** Always "FeatureCollection". */
+  type: "FeatureCollection";
+  /** The case id (a foreign member). */
+  case: string;
+  /** Hotspot first, then the top-k windows, then the best fields. */
+  features: HotspotFeature[];
 }
 
 /**
@@ -87,8 +125,13 @@ export function hotspotFeatureCollection(input: {
   bestFieldWindow: WindowShape | null;
   caseId: string;
   mpp: { mppX: number; mppY: number };
-}): { type: "FeatureCollection"; features: unknown[]; [k: string]: unknown } {
-  const feature = (p: Placement, w: WindowShape, kind: string, rank: number) => ({
+}): HotspotFeatureCollection {
+  const feature = (
+    p: Placement,
+    w: WindowShape,
+    kind: HotspotFeature["properties"]["kind"],
+    rank: number,
+  ): HotspotFeature => ({
     type: "Feature",
     properties: {
       kind,
@@ -102,7 +145,7 @@ export function hotspotFeatureCollection(input: {
     },
     geometry: { type: "Polygon", coordinates: [windowRingPx(w, p.centerUm, input.mpp)] },
   });
-  const features: unknown[] = [];
+  const features: HotspotFeature[] = [];
   if (input.hotspot) features.push(feature(input.hotspot, input.window, "hotspot", 1));
   input.top.forEach((p, i) => features.push(feature(p, input.window, "top", i + 1)));
   if (input.bestFieldWindow) {
@@ -129,7 +172,7 @@ export function hotspotFeatureCollection(input: {
  */
 export function caseHotspotGeoJson(
   result: CaseResult,
-): ReturnType<typeof hotspotFeatureCollection> {
+): HotspotFeatureCollection {
   return hotspotFeatureCollection({
     window: result.window,
     hotspot: result.hotspot,

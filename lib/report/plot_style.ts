@@ -14,7 +14,9 @@
 
 /** A plotly.js figure as plain data. */
 export interface PlotFigure {
+  /** plotly.js traces. */
   data: Record<string, unknown>[];
+  /** plotly.js layout. */
   layout: Record<string, unknown>;
   /** Words for a caption under the plot (plain text, not escaped). */
   caption: string;

@@ -215,7 +215,9 @@ export function writeOutputs(
   try {
     mkdirSync(outDir, { recursive: true });
   } catch (e) {
-    throw new Error(`Cannot create the output folder "${outDir}": ${(e as Error).message}`);
+    throw new Error(`Cannot create the output folder "${outDir}": ${(e as Error).message}`, {
+      cause: e,
+    });
   }
   const written: string[] = [];
   const writeRunFile = ([name, text]: [string, string | Uint8Array]) => {
@@ -223,7 +225,7 @@ export function writeOutputs(
     try {
       writeFileAtomic(path, text);
     } catch (e) {
-      throw new Error(`Cannot write "${path}": ${(e as Error).message}`);
+      throw new Error(`Cannot write "${path}": ${(e as Error).message}`, { cause: e });
     }
     written.push(path);
   };
@@ -244,7 +246,10 @@ export function writeOutputs(
     } catch (e) {
       rmSync(stage, { recursive: true, force: true });
       if (!existsSync(finalDir) && existsSync(old)) renameSync(old, finalDir);
-      throw new Error(`Cannot write the report of "${id}" in "${outDir}": ${(e as Error).message}`);
+      throw new Error(
+        `Cannot write the report of "${id}" in "${outDir}": ${(e as Error).message}`,
+        { cause: e },
+      );
     }
     for (const [name] of files) written.push(join(finalDir, name));
   }

@@ -15,18 +15,77 @@
  * @module
  */
 
-import type { GradingScheme, LowerBound } from "./scheme_types.ts";
+import type { ConfidenceMark, GradingScheme, LowerBound } from "./scheme_types.ts";
 import { roundTo } from "../numbers.ts";
 
 /** Relative tolerance when comparing rates with cut-offs (rounding of area products). */
 const REL_TOL = 1e-9;
-/** Classification against a scheme's cut-off (the `classification` block of report.json). */
-export interface CaseClassification {
-  scheme: string;
+/** One tier boundary of a scheme, classified like the deciding one (`CaseClassification.tiers`). */
+export interface TierClassification {
+  /** Label of the tier this bound opens, e.g. "high" or "G2". */
+  label: string;
+  /** Index of the tier in the scheme, from 1 (tier 0 has no lower bound). */
+  index: number;
+  /** The bound as the source states it, a count per the scheme's basis. */
   cutoff: number;
+  /** "≥" or ">", as the source states it. */
+  cutoff_rule: "≥" | ">";
+  /** The source's own words for the bound. */
+  source_text: string;
+  /** `cutoff` converted to the window by area, rounded to 6 decimals. */
+  cutoff_for_window: number;
+  /** Least whole window count that meets the bound (⌈x⌉ for "≥ x", ⌊x⌋ + 1 for "> x"). */
+  min_count_for_window: number;
+  /** `below`, `above` or `field-dependent` against this bound (see {@linkcode CaseClassification}). */
   class: "below" | "above" | "field-dependent";
+  /** Share of admissible positions whose count meets this bound, 0–1; null without positions. */
   fraction_at_or_above: number | null;
+}
+
+/**
+ * Classification against a scheme's cut-off (the `classification` block of
+ * report.json). `below`: the hotspot count does not meet the cut-off, so no
+ * window anywhere would; `above`: the lower quartile of admissible window
+ * counts meets it, so most placements would; otherwise `field-dependent`.
+ */
+export interface CaseClassification {
+  /** Scheme id. */
+  scheme: string;
+  /** The deciding bound as the source states it, a count per the scheme's basis. */
+  cutoff: number;
+  /** The class against the deciding bound. */
+  class: "below" | "above" | "field-dependent";
+  /** Share of admissible positions whose count meets the deciding bound, 0–1; null without positions. */
+  fraction_at_or_above: number | null;
+  /** Tier the hotspot's rate falls in (last tier whose bound it meets); null without a hotspot. */
   tier: string | null;
+  /** "≥" or ">" of the deciding bound. */
+  cutoff_rule?: "≥" | ">";
+  /** Label of the tier the deciding bound opens. */
+  cutoff_tier?: string;
+  /** The scheme's basis in words, e.g. "per 10 HPF (2.37 mm²)". */
+  cutoff_basis?: string;
+  /** Area the scheme's counts refer to, mm²; null when the source fixes none. */
+  basis_area_mm2?: number | null;
+  /** Counting window area, mm². */
+  window_area_mm2?: number;
+  /** `cutoff` converted to the window by area, rounded to 6 decimals. */
+  cutoff_for_window?: number;
+  /** Least whole window count that meets the deciding bound. */
+  min_count_for_window?: number;
+  /** The hotspot count classified; null without a hotspot. */
+  hotspot_count?: number | null;
+  /** Hotspot count converted to the scheme's basis, rounded to 6 decimals; null without a hotspot. */
+  hotspot_rate_per_basis?: number | null;
+  /** Every tier boundary of the scheme, classified. */
+  tiers?: TierClassification[];
+  /** The class definitions in words. */
+  definition?: string;
+  /** How the cut-off was converted to the window's area, in words. */
+  note?: string;
+  /** Confidence mark of the scheme's values (see `GradingScheme.mark`). */
+  mark?: ConfidenceMark;
+  /** Room for keys added later. */
   [extra: string]: unknown;
 }
 
@@ -233,7 +292,7 @@ export function classifyCounts(
     warnings.push("No admissible window position: the case could not be classified");
   }
 
-  const tiers = scheme.tiers.slice(1).map((t, k) => {
+  const tiers = scheme.tiers.slice(1).map((t, k): TierClassification => {
     const minCount = minCountFor(t.from, factor);
     const { value, strict } = boundParts(t.from);
     return {

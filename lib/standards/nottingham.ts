@@ -11,6 +11,7 @@ export const NOTTINGHAM_REFERENCE_FIELD_MM2 = 0.274;
 
 /** Score cut-offs per 10 fields of one field diameter. */
 export interface NottinghamCutoffs {
+  /** Field diameter, mm. */
   fieldDiameterMm: number;
   /** π(d/2)², mm². */
   fieldAreaMm2: number;

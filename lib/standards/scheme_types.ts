@@ -73,8 +73,11 @@ export interface GradingScheme {
   shortName: string;
   /** Tumour type, e.g. `"cutaneous mast cell tumour"`. */
   tumour: string;
+  /** The species the scheme was published for. */
   species: "dog" | "cat" | "human";
+  /** The area the scheme's counts refer to. */
   basis: AreaBasis;
+  /** How the source says to count. */
   counting: CountingInstruction;
   /** Tiers in increasing order of their lower bounds. */
   tiers: SchemeTier[];
@@ -85,6 +88,7 @@ export interface GradingScheme {
   primaryTier: number;
   /** Why that cut-off was chosen as primary. */
   primaryReason: string;
+  /** The publications the cut-offs come from. */
   sources: SchemeSource[];
   /** Overall confidence mark of the cut-offs and area basis (the weakest that matters). */
   mark: ConfidenceMark;

@@ -7,13 +7,30 @@
 
 import { garwoodInterval, pOtherSide } from "../stats/garwood.ts";
 
-/** Counting uncertainty (the `uncertainty` block of report.json). */
+/** Counting uncertainty of a window count (the `uncertainty` block of report.json). */
 export interface CountUncertainty {
+  /** Exact two-sided Poisson 95% interval of the count (Garwood 1936), not rounded. */
   count_ci95: [number, number];
+  /** `count_ci95` divided by the window area, figures per mm², not rounded. */
   per_mm2_ci95: [number, number];
+  /**
+   * Chance that a recount (Poisson with the observed count as mean) falls on
+   * the other side of the cut-off; null without a cut-off.
+   */
   p_other_side: number | null;
+  /** p-value of the Monte Carlo scan test; null when it was not run (0 simulations). */
   scan_p: number | null;
+  /** Simulations behind `scan_p` (0 when the test was not run). */
   simulations: number;
+  /** The window count these limits are for. */
+  count?: number;
+  /** `count` divided by the window area, figures per mm², not rounded. */
+  per_mm2?: number;
+  /** How each value was computed, in words. */
+  method?: Record<string, string>;
+  /** Seed of the scan test, when one was given. */
+  seed?: number;
+  /** Room for keys added later. */
   [extra: string]: unknown;
 }
 

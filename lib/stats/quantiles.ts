@@ -44,12 +44,17 @@ function interpolate(at: (k: number) => number, n: number, p: number): number {
   return f === 0 ? a : a + f * (at(lo + 1) - a);
 }
 
-/** Five-number summary. */
+/** Five-number summary (all null for no values). */
 export interface FiveNumberSummary {
+  /** Least value. */
   min: number | null;
+  /** Lower quartile (R-7). */
   q1: number | null;
+  /** Median (R-7). */
   median: number | null;
+  /** Upper quartile (R-7). */
   q3: number | null;
+  /** Greatest value. */
   max: number | null;
 }
 
@@ -73,22 +78,6 @@ export function fiveNumberSummary(sorted: ArrayLike<number>): FiveNumberSummary 
     q3: quantileSorted(sorted, 0.75),
     max: sorted[n - 1],
   };
-}
-
-/**
- * First quartile, median and third quartile (R-7) of ascending values.
- *
- * @example
- * ```ts
- * import { quantilesR7 } from "./quantiles.ts";
- * const [q1, m, q3] = quantilesR7([3, 6, 7, 8, 8, 10, 13, 15, 16, 20]);
- * if (q1 !== 7.25 || m !== 9 || q3 !== 14.5) throw new Error();
- * ```
- */
-export function quantilesR7(
-  sorted: ArrayLike<number>,
-): [number | null, number | null, number | null] {
-  return [quantileSorted(sorted, 0.25), quantileSorted(sorted, 0.5), quantileSorted(sorted, 0.75)];
 }
 
 /**

@@ -13,8 +13,11 @@ import { roundTo } from "../numbers.ts";
 
 /** A binary mask, row-major, `data[y·width + x]` is 1 for tissue and 0 for background. */
 export interface Mask {
+  /** Width in mask pixels. */
   width: number;
+  /** Height in mask pixels. */
   height: number;
+  /** `width × height` values, 1 for tissue and 0 for background. */
   data: Uint8Array;
 }
 
@@ -54,7 +57,7 @@ export function decodeMaskPng(bytes: Uint8Array, options: DecodeMaskOptions): Ma
     png = decode(bytes, { checkCrc: true });
   } catch (e) {
     const why = e instanceof Error ? e.message : String(e);
-    throw inputError(SyntaxError, "tissue mask", fileName, `not a readable PNG image (${why})`);
+    throw inputError(SyntaxError, "tissue mask", fileName, `not a readable PNG image (${why})`, e);
   }
   const { width, height, channels, depth } = png;
   if (!(width > 0 && height > 0)) {
