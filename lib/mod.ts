@@ -235,3 +235,4 @@ export {
 
 // Demo data.
 export { demoCaseInputs } from "./demo/run_demo.ts";
+export { demoSchemes } from "./demo/demo_recipes.ts";

@@ -322,3 +322,20 @@ export const LOOKALIKES: [string, number][] = [
   ["pyknotic nucleus", 0.35],
   ["hyperchromatic nucleus", 0.2],
 ];
+
+/**
+ * The grading scheme of each demo case, by case id (the scheme that fits its
+ * invented tumour type).
+ *
+ * @returns A map from case id to scheme id.
+ *
+ * @example The borderline mast cell case
+ * ```ts
+ * import { demoSchemes } from "hotfield";
+ * const scheme = demoSchemes().get("QVT-24-003");
+ * if (scheme !== "canine-mct-2tier") throw new Error(`scheme ${scheme}`);
+ * ```
+ */
+export function demoSchemes(): Map<string, string> {
+  return new Map(DEMO_RECIPES.map((r) => [r.caseId, r.scheme]));
+}

@@ -22,7 +22,7 @@ import { type CaseInput, loadCase, readCaseFile } from "../annotations/read_case
 import { buildCaseResult } from "../pipeline/build_case_result.ts";
 import type { CaseResult } from "../pipeline/case_result.ts";
 import { writeOutputs } from "../report/write_outputs.ts";
-import { generateDemoCohort } from "./demo_cohort.ts";
+import { demoSchemes } from "./demo_recipes.ts";
 import { DEFAULT_SEED, DEFAULT_SIMULATIONS } from "../defaults.ts";
 
 /**
@@ -128,7 +128,7 @@ export async function runDemo(
   const dataDir = options.dataDir ?? "data/demo";
   const outDir = options.outDir ?? join("out", "demo");
   const print = options.print ?? ((line: string) => console.log(line));
-  const schemes = new Map(generateDemoCohort().map((c) => [c.caseId, c.scheme]));
+  const schemes = demoSchemes();
   const results: CaseResult[] = [];
   for (const input of await demoCaseInputs(dataDir)) {
     const caseData = await loadCase(input);
