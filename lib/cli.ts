@@ -26,6 +26,10 @@ const COMMANDS: Record<string, { summary: string; load: () => Promise<CommandMod
     summary: "microscope field of view: diameter, area, fields for a target area",
     load: () => import("./cli/fov_command.ts"),
   },
+  grade: {
+    summary: "grade a count made at the microscope against a scheme's cut-off",
+    load: () => import("./cli/grade_command.ts"),
+  },
   schemes: {
     summary: "list the grading schemes hotfield knows",
     load: () => import("./cli/schemes_command.ts"),
