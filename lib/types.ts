@@ -78,16 +78,36 @@ export interface RegionPart {
   reason?: string;
 }
 
+/**
+ * What a reader's field is: `point`, a standard window centred at the point;
+ * `polygon`, that area; `polygons`, several separate areas counted together
+ * (a MultiPolygon); `circles`, one circular microscope field of a stated
+ * diameter at each point (a Point or MultiPoint with `field_diameter_mm`),
+ * counted together.
+ */
+export type FieldKind = "point" | "polygon" | "polygons" | "circles";
+
 /** A reader's chosen counting area (`role: "field"`). */
 export interface FieldSpec {
-  /** Reader name; "" when the file gave none. */
+  /** Reader name (required on input; never empty). */
   reader: string;
-  /** `point`: a standard window centred at `centerPx`; `polygon`: that area. */
-  kind: "point" | "polygon";
-  /** Centre in pixels (for a polygon, its area centroid). */
+  /** What the field is (see {@linkcode FieldKind}). */
+  kind: FieldKind;
+  /**
+   * Centre in pixels: for a polygon its area centroid, for `polygons` the
+   * area-weighted centroid of the parts, for `circles` the mean of the centres.
+   */
   centerPx: Vec2;
   /** The polygon, for `kind: "polygon"`. */
   polygon?: PolygonPx;
+  /** The separate polygons, for `kind: "polygons"`. */
+  parts?: PolygonPx[];
+  /** The centre of each circular field, for `kind: "circles"`. */
+  pointsPx?: Vec2[];
+  /** Diameter of each circular field in the specimen, mm, for `kind: "circles"`. */
+  diameterMm?: number;
+  /** When the field was read (ISO 8601 date or date-time), from `properties.date`. */
+  date?: string;
   /** Feature index in the source file (0-based). */
   featureIndex: number;
   /** Any other properties of the feature, kept for reports (e.g. `label`). */

@@ -9,7 +9,7 @@
  * | `tumour`  | Polygon, MultiPolygon   |                                                        |
  * | `exclude` | Polygon, MultiPolygon   | `reason` (e.g. `"necrosis"`)                           |
  * | `figure`  | Point, MultiPoint       | `label` (default `"mitotic figure"`), `score` in [0, 1] |
- * | `field`   | Polygon, Point (centre) | `reader`                                               |
+ * | `field`   | Point, Polygon, MultiPolygon, MultiPoint | `reader` (required), `date`, `field_diameter_mm` |
  *
  * Feature numbers in messages are 0-based indices into `features`.
  *
@@ -31,7 +31,7 @@ import { describe } from "./_describe.ts";
 import { DEFAULT_FIGURE_LABEL, FigureSetBuilder } from "./_figure_builder.ts";
 import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
-import { polygonCentroidPx } from "../geometry/planar_area.ts";
+import { polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
 import { mergeSlideMembers, parseSlideInfo, type SlideMember } from "./slide_info.ts";
 
 /** The roles a feature may have, in the order of the table above. */
@@ -282,34 +282,7 @@ export function parseAnnotations(
         break;
       }
       case "field": {
-        let readerName = "";
-        if (p.reader !== undefined && p.reader !== null) {
-          if (typeof p.reader !== "string") {
-            throw fail(
-              TypeError,
-              `${at} (role "field") has a "reader" that is not a string: found ${
-                describe(p.reader)
-              }`,
-            );
-          }
-          readerName = p.reader;
-        }
-        const rest: Record<string, unknown> = {};
-        for (const [k, v] of Object.entries(p)) if (k !== "role" && k !== "reader") rest[k] = v;
-        const spec: FieldSpec = type === "Point"
-          ? { reader: readerName, kind: "point", centerPx: reader.position(c, ""), featureIndex: i }
-          : (() => {
-            const polygon = reader.polygon(c, "");
-            return {
-              reader: readerName,
-              kind: "polygon",
-              centerPx: polygonCentroidPx(polygon),
-              polygon,
-              featureIndex: i,
-            };
-          })();
-        if (Object.keys(rest).length > 0) spec.properties = rest;
-        fields.push(spec);
+        fields.push(readField(p, type, c, reader, i, fail));
         break;
       }
     }
@@ -363,8 +336,171 @@ const ALLOWED_GEOMETRIES: Record<AnnotationRole, readonly string[]> = {
   tumour: ["Polygon", "MultiPolygon"],
   exclude: ["Polygon", "MultiPolygon"],
   figure: ["Point", "MultiPoint"],
-  field: ["Polygon", "Point"],
+  field: ["Point", "Polygon", "MultiPolygon", "MultiPoint"],
 };
+
+/** Largest `field_diameter_mm` accepted: wider circles are no microscope fields. */
+const MAX_FIELD_DIAMETER_MM = 2;
+
+/** ISO 8601 calendar date, optionally with a time and zone. */
+const ISO_DATE =
+  /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2})(?:\.\d+)?)?(?:Z|[+-]\d{2}:?\d{2})?)?$/;
+
+/**
+ * Reads one `field` feature: a Point (a standard window centred there, or
+ * with `field_diameter_mm` one circular microscope field), a Polygon, a
+ * MultiPolygon (separate areas counted together) or a MultiPoint with
+ * `field_diameter_mm` (one circular field at each point, counted together).
+ */
+function readField(
+  p: Record<string, unknown>,
+  type: string,
+  c: unknown,
+  reader: GeometryReader,
+  i: number,
+  fail: Fail,
+): FieldSpec {
+  const at = `feature ${i}`;
+  if (p.reader === undefined || p.reader === null) {
+    throw fail(
+      TypeError,
+      `${at} (role "field") has no "reader": every field needs the name of who chose it, e.g. "reader": "reader-a"`,
+    );
+  }
+  if (typeof p.reader !== "string") {
+    throw fail(
+      TypeError,
+      `${at} (role "field") has a "reader" that is not a string: found ${describe(p.reader)}`,
+    );
+  }
+  if (p.reader.trim() === "") {
+    throw fail(
+      TypeError,
+      `${at} (role "field") has an empty "reader": give the name of who chose the field`,
+    );
+  }
+  const readerName = p.reader;
+  const who = `${at} (role "field", reader ${JSON.stringify(readerName)})`;
+  let date: string | undefined;
+  if (p.date !== undefined && p.date !== null) {
+    date = fieldDate(p.date, who, fail);
+  }
+  let diameterMm: number | undefined;
+  if (p.field_diameter_mm !== undefined && p.field_diameter_mm !== null) {
+    diameterMm = fieldDiameter(p.field_diameter_mm, who, fail);
+    if (type === "Polygon" || type === "MultiPolygon") {
+      throw fail(
+        TypeError,
+        `${who} is a ${type} with "field_diameter_mm": a diameter goes with Point or MultiPoint fields (circular microscope fields), a polygon gives its own area`,
+      );
+    }
+  }
+  let spec: FieldSpec;
+  if (type === "Point" && diameterMm === undefined) {
+    spec = { reader: readerName, kind: "point", centerPx: reader.position(c, ""), featureIndex: i };
+  } else if (type === "Point" || type === "MultiPoint") {
+    if (diameterMm === undefined) {
+      throw fail(
+        TypeError,
+        `${who} is a MultiPoint without "field_diameter_mm": give the diameter of each circular microscope field in mm (e.g. 0.55 for field number 22 at 40×)`,
+      );
+    }
+    const pointsPx = type === "Point" ? [reader.position(c, "")] : reader.positions(c);
+    if (pointsPx.length === 0) {
+      throw fail(TypeError, `${who} is an empty MultiPoint: it marks no field`);
+    }
+    let sx = 0, sy = 0;
+    for (const [x, y] of pointsPx) sx += x, sy += y;
+    spec = {
+      reader: readerName,
+      kind: "circles",
+      centerPx: [sx / pointsPx.length, sy / pointsPx.length],
+      pointsPx,
+      diameterMm,
+      featureIndex: i,
+    };
+  } else if (type === "Polygon") {
+    const polygon = reader.polygon(c, "");
+    spec = {
+      reader: readerName,
+      kind: "polygon",
+      centerPx: polygonCentroidPx(polygon),
+      polygon,
+      featureIndex: i,
+    };
+  } else {
+    const parts = reader.multiPolygon(c);
+    if (parts.length === 0) {
+      throw fail(TypeError, `${who} is an empty MultiPolygon: it marks no field`);
+    }
+    spec = {
+      reader: readerName,
+      kind: "polygons",
+      centerPx: weightedCentroid(parts),
+      parts,
+      featureIndex: i,
+    };
+  }
+  if (date !== undefined) spec.date = date;
+  const rest: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(p)) {
+    if (k !== "role" && k !== "reader" && k !== "date" && k !== "field_diameter_mm") rest[k] = v;
+  }
+  if (Object.keys(rest).length > 0) spec.properties = rest;
+  return spec;
+}
+
+/** Area-weighted centroid of separate polygons (pixels). */
+function weightedCentroid(parts: PolygonPx[]): Vec2 {
+  let a = 0, sx = 0, sy = 0;
+  for (const poly of parts) {
+    const w = Math.abs(polygonAreaPx2(poly));
+    const [cx, cy] = polygonCentroidPx(poly);
+    a += w, sx += w * cx, sy += w * cy;
+  }
+  if (a > 0) return [sx / a, sy / a];
+  const cs = parts.map(polygonCentroidPx);
+  return [
+    cs.reduce((s, q) => s + q[0], 0) / cs.length,
+    cs.reduce((s, q) => s + q[1], 0) / cs.length,
+  ];
+}
+
+function fieldDate(raw: unknown, who: string, fail: Fail): string {
+  const m = typeof raw === "string" ? ISO_DATE.exec(raw.trim()) : null;
+  if (m) {
+    const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
+    const t = new Date(Date.UTC(y, mo - 1, d));
+    const timeOk = m[4] === undefined ||
+      (Number(m[4]) < 24 && Number(m[5]) < 60 && (m[6] === undefined || Number(m[6]) < 60));
+    if (t.getUTCFullYear() === y && t.getUTCMonth() === mo - 1 && t.getUTCDate() === d && timeOk) {
+      return (raw as string).trim();
+    }
+  }
+  throw fail(
+    TypeError,
+    `${who} has a "date" that is not an ISO 8601 date (YYYY-MM-DD, optionally with a time): found ${
+      describe(raw)
+    }`,
+  );
+}
+
+function fieldDiameter(raw: unknown, who: string, fail: Fail): number {
+  if (typeof raw !== "number" || !Number.isFinite(raw)) {
+    throw fail(
+      TypeError,
+      `${who} has a "field_diameter_mm" that is not a number: found ${describe(raw)}`,
+    );
+  }
+  if (!(raw > 0 && raw <= MAX_FIELD_DIAMETER_MM)) {
+    const hint = raw > 100 ? " (micrometres? give millimetres, e.g. 0.55)" : "";
+    throw fail(
+      RangeError,
+      `${who} has "field_diameter_mm" ${raw}; a microscope field's diameter must be > 0 and at most ${MAX_FIELD_DIAMETER_MM} mm${hint}`,
+    );
+  }
+  return raw;
+}
 
 function checkRole(raw: unknown, at: string, fail: Fail): AnnotationRole {
   if (raw === "figure") return "figure";

@@ -8,7 +8,7 @@
  * @module
  */
 
-import type { FieldSpec, MultiPolygonPx, SlideInfo } from "../types.ts";
+import type { FieldKind, FieldSpec, MultiPolygonPx, SlideInfo } from "../types.ts";
 
 /** An axis-aligned rectangle window (W along slide x) of a given area. */
 export interface RectWindow {
@@ -152,23 +152,35 @@ export interface Placement {
 export interface FieldCheck {
   /** The reader's name ("" when none). */
   reader: string;
-  /** A centre point (the standard window there) or a drawn polygon. */
-  kind: "point" | "polygon";
-  /** Centre in level-0 pixels (a polygon's centroid). */
+  /** What the field is: a point, a polygon, separate polygons or circular fields (see `FieldKind`). */
+  kind: FieldKind;
+  /** Centre in level-0 pixels (a polygon's centroid; the parts' weighted centroid). */
   centerPx: [number, number];
   /** Centre in µm from the slide origin. */
   centerUm: [number, number];
-  /** Exact count of counted figures in the field (standard window or polygon). */
+  /** Exact count of counted figures in the field (standard window, polygon, or the sum over parts). */
   count: number;
+  /** Number of separate parts counted together (1 for a point or a polygon). */
+  parts: number;
+  /** Diameter of each circular field, mm (`circles` only). */
+  diameterMm?: number;
+  /** When the field was read (ISO 8601), as given. */
+  date?: string;
   /** area(field ∩ V) / area(field). */
   coverage: number;
-  /** Mid-rank percentile among admissible grid positions; null without positions. */
+  /**
+   * Mid-rank percentile of the field's comparison count (`countScaledToWindow`
+   * when set, else `count`) among admissible grid positions; null without positions.
+   */
   percentile: number | null;
-  /** Hotspot count − count; null without a hotspot. */
+  /** Hotspot count − the comparison count; null without a hotspot. */
   shortfall: number | null;
-  /** Field area, mm². */
+  /** Field area, mm² (the sum over parts). */
   areaMm2: number;
-  /** count × window area / polygon area, for polygons more than 5% off the window area. */
+  /**
+   * count × window area / field area: for polygons more than 5% off the window
+   * area, and always for fields of several parts; else null.
+   */
   countScaledToWindow: number | null;
   /** Index of the field's feature in the annotation file, from 0. */
   featureIndex: number;

@@ -40,6 +40,7 @@ import {
 } from "../defaults.ts";
 import { roundTo } from "../numbers.ts";
 import { pxToUm, umToPx } from "../units.ts";
+import { gradeCount } from "../standards/grade_count.ts";
 
 /** A window as report.json gives it (µm to 0.01). */
 export function reportWindow(w: WindowShape): ReportWindow {
@@ -402,6 +403,9 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
         ? null
         : roundTo(c.countScaledToWindow, 4),
       feature_index: c.featureIndex,
+      parts: c.parts,
+      ...(c.diameterMm !== undefined ? { field_diameter_mm: c.diameterMm } : {}),
+      ...(c.date !== undefined ? { date: c.date } : {}),
     })),
     classification: null,
     uncertainty: null,
@@ -456,6 +460,16 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
     report.classification = std.classification;
     report.uncertainty = std.uncertainty;
     report.warnings.push(...std.warnings);
+    // Each field graded on its own count and area, as at the microscope.
+    checks.forEach((c, k) => {
+      const g = gradeCount(c.count, { areaMm2: c.areaMm2, scheme: options.scheme! });
+      report.fields[k].grade = {
+        scheme: g.scheme,
+        count_per_scheme_basis: roundTo(g.count_per_scheme_basis, 4),
+        class: g.class,
+        tier: g.tier,
+      };
+    });
   }
   report.verdict = caseVerdict(report);
   return {

@@ -149,9 +149,9 @@ export interface ReportField {
    * Null when no position is admissible.
    */
   percentile: number | null;
-  /** Whether the reader marked a centre (`point`) or drew the field (`polygon`). */
-  kind?: "point" | "polygon";
-  /** Hotspot count − `count`; null without a hotspot. */
+  /** What the reader marked: a centre (`point`), a drawn area (`polygon`), separate areas (`polygons`) or circular fields (`circles`). */
+  kind?: "point" | "polygon" | "polygons" | "circles";
+  /** Hotspot count − the field's comparison count (scaled when `count_scaled_to_window` is set); null without a hotspot. */
   shortfall?: number | null;
   /** Area of the field, mm², rounded to 6 decimals (the window area for a point field). */
   area_mm2?: number;
@@ -162,6 +162,24 @@ export interface ReportField {
   count_scaled_to_window?: number | null;
   /** Index of the field's feature in the annotation file, from 0. */
   feature_index?: number;
+  /** Beside the contract: separate parts counted together (1 for a point or polygon). */
+  parts?: number;
+  /** Beside the contract: diameter of each circular field, mm (`circles`). */
+  field_diameter_mm?: number;
+  /** Beside the contract: when the field was read (ISO 8601), as given. */
+  date?: string;
+  /** Beside the contract: the field's own grade under the report's scheme. */
+  grade?: ReportFieldGrade;
+}
+
+/** A reader's field graded on its own count and area (with `--scheme`). */
+export interface ReportFieldGrade {
+  scheme: string;
+  /** The field's count converted to the scheme's area basis. */
+  count_per_scheme_basis: number;
+  /** `above` when the field's count meets the scheme's cut-off, else `below`. */
+  class: "above" | "below";
+  tier: string;
 }
 
 /** Classification against a scheme's cut-off (see `classifyCounts`). */

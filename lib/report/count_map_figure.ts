@@ -10,6 +10,7 @@
  */
 
 import type { CaseResult } from "../pipeline/case_result.ts";
+import type { WindowShape } from "../count/engine_types.ts";
 import type { MultiPolygonPx, PolygonPx } from "../types.ts";
 import { windowRingUm } from "./hotspot_geojson.ts";
 import { outlineTraces, placementHover, regionLineUm, ringsLineUm } from "./_plot_helpers.ts";
@@ -461,9 +462,25 @@ function fieldTraces(
     const rings: [number, number][][] = [];
     for (const { f, k } of mine) {
       const spec = specs[k];
-      const polygon: PolygonPx | undefined = spec?.kind === "polygon" ? spec.polygon : undefined;
-      if (polygon && polygon.length > 0) {
-        rings.push(ringPxToUm(polygon[0], mpp));
+      const polygons: PolygonPx[] = spec?.kind === "polygon" && spec.polygon
+        ? [spec.polygon]
+        : spec?.kind === "polygons" && spec.parts
+        ? spec.parts
+        : [];
+      if (spec?.kind === "circles" && spec.pointsPx && spec.diameterMm) {
+        // Each circular microscope field drawn as its own circle.
+        const circle: WindowShape = {
+          shape: "circle",
+          areaMm2: Math.PI * (spec.diameterMm / 2) ** 2,
+          diameterUm: spec.diameterMm * 1000,
+        };
+        for (const [x, y] of spec.pointsPx) {
+          rings.push(windowRingUm(circle, pxToUm([x, y], mpp)));
+        }
+      } else if (polygons.length > 0) {
+        for (const polygon of polygons) {
+          rings.push(ringPxToUm(polygon[0], mpp));
+        }
       } else {
         rings.push(
           windowRingUm(result.window, pxToUm(f.center_px, mpp)),

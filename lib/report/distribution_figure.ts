@@ -5,6 +5,7 @@
  */
 
 import type { CaseResult } from "../pipeline/case_result.ts";
+import { roundTo } from "../numbers.ts";
 import { cutoffCount, cutoffLabel, figureWords, plotText, readerName } from "./plot_labels.ts";
 import { MARK_STYLE, OKABE_ITO, PLOT_FONT, type PlotFigure, readerStyles } from "./plot_style.ts";
 
@@ -110,7 +111,8 @@ export function distributionFigure(result: CaseResult): PlotFigure {
       type: "scatter",
       mode: "markers",
       name: `field of ${name}`,
-      x: mine.map((f) => f.count),
+      // A field of another area sits where its count scaled to the window would.
+      x: mine.map((f) => roundTo(f.count_scaled_to_window ?? f.count, 3)),
       y: mine.map(() => peak * (1.16 + 0.07 * n)),
       marker: {
         symbol: style.symbol,
@@ -120,6 +122,9 @@ export function distributionFigure(result: CaseResult): PlotFigure {
       },
       text: mine.map((f) =>
         `${name}: ${figureWords(f.count)}` +
+        (typeof f.count_scaled_to_window === "number"
+          ? ` (${f.count_scaled_to_window.toFixed(1)} scaled to the window)`
+          : "") +
         (f.percentile === null ? "" : `, percentile ${f.percentile.toFixed(1)}`)
       ),
       hovertemplate: "%{text}<extra></extra>",

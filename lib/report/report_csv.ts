@@ -1,7 +1,8 @@
 /**
  * Cohort tables as RFC 4180 CSV (comma separated, CRLF line ends, fields
  * quoted when they hold a comma, quote or line break): `cases.csv` with one
- * row per case and `fields.csv` with one row per reader's field.
+ * row per case and `fields.csv` with one row per reader's field (with the
+ * field's own grade under the scheme, when there is one).
  *
  * Empty cells mean "none" (no hotspot, no scheme, no percentile). Numbers are
  * written as JavaScript prints them (shortest round-trip form), so the
@@ -53,6 +54,14 @@ export const FIELD_COLUMNS = [
   "coverage",
   "percentile",
   "shortfall",
+  "area_mm2",
+  "parts",
+  "count_scaled_to_window",
+  "date",
+  "scheme",
+  "count_per_scheme_basis",
+  "class",
+  "tier",
 ] as const;
 
 type Cell = string | number | null | undefined;
@@ -138,6 +147,14 @@ export function fieldRows(report: ReportJson): Record<(typeof FIELD_COLUMNS)[num
     coverage: cell(f.coverage),
     percentile: cell(f.percentile),
     shortfall: cell(f.shortfall ?? null),
+    area_mm2: cell(f.area_mm2),
+    parts: cell(f.parts ?? 1),
+    count_scaled_to_window: cell(f.count_scaled_to_window),
+    date: cell(f.date),
+    scheme: cell(f.grade?.scheme),
+    count_per_scheme_basis: cell(f.grade?.count_per_scheme_basis),
+    class: cell(f.grade?.class),
+    tier: cell(f.grade?.tier),
   }));
 }
 
@@ -176,7 +193,7 @@ export function casesCsv(reports: readonly ReportJson[]): string {
  * @example No fields, just the header
  * ```ts
  * import { fieldsCsv } from "./report_csv.ts";
- * if (fieldsCsv([]) !== "case,reader,kind,x_px,y_px,count,coverage,percentile,shortfall\r\n") {
+ * if (!fieldsCsv([]).startsWith("case,reader,kind,x_px,y_px,count,coverage,percentile,shortfall,")) {
  *   throw new Error();
  * }
  * ```

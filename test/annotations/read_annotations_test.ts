@@ -255,11 +255,11 @@ Deno.test("parseAnnotations() rejects a geometry type wrong for the role", () =>
     },
   );
   assert.throws(
-    () => parse(fc([tissue, feature("field", { type: "MultiPolygon", coordinates: [SQUARE] })])),
+    () => parse(fc([tissue, feature("field", { type: "LineString", coordinates: SQUARE[0] })])),
     {
       name: "TypeError",
       message:
-        /feature 1 has role "field" but geometry "MultiPolygon"; role "field" takes Polygon or Point/,
+        /feature 1 has role "field" but geometry "LineString"; role "field" takes Point or Polygon or MultiPolygon or MultiPoint/,
     },
   );
   assert.throws(() => parse(fc([feature("tissue", null)])), {
@@ -380,7 +380,8 @@ Deno.test("parseAnnotations() results do not depend on the ring's start vertex",
   const ring = [[0, 0], [40, 0], [40, 20], [0, 20], [0, 0]];
   const rotated = [[40, 20], [0, 20], [0, 0], [40, 0], [40, 20]];
   const f = (r: number[][]) =>
-    parse(fc([tissue, feature("field", { type: "Polygon", coordinates: [r] })])).fields[0].centerPx;
+    parse(fc([tissue, feature("field", { type: "Polygon", coordinates: [r] }, { reader: "a" })]))
+      .fields[0].centerPx;
   assert.deepEqual(f(ring), f(rotated));
 });
 
@@ -453,4 +454,94 @@ Deno.test("parseAnnotations() points to a slide member nested in the collection'
     message:
       /the "slide" member is inside the collection's "properties"; hotfield reads it at the top level/,
   });
+});
+
+Deno.test("parseAnnotations() reads several fields as one reading (MultiPolygon, MultiPoint with a diameter)", () => {
+  const a = [[0, 0], [10, 0], [10, 10], [0, 10], [0, 0]];
+  const b = [[30, 0], [40, 0], [40, 30], [30, 30], [30, 0]];
+  const parsed = parse(fc([
+    tissue,
+    feature("field", { type: "MultiPolygon", coordinates: [[a], [b]] }, {
+      reader: "trainee-1",
+      date: "2024-03-05",
+      label: "two areas",
+    }),
+    feature("field", { type: "MultiPoint", coordinates: [[20, 20], [60, 20], [40, 80]] }, {
+      reader: "trainee-1",
+      field_diameter_mm: 0.55,
+    }),
+    feature("field", { type: "Point", coordinates: [5, 5] }, {
+      reader: "reader-a",
+      field_diameter_mm: 0.55,
+      date: "2024-03-05T14:30:00Z",
+    }),
+  ]));
+  const [poly, circles, one] = parsed.fields;
+  assert.equal(poly.kind, "polygons");
+  assert.equal(poly.parts!.length, 2);
+  assert.equal(poly.date, "2024-03-05");
+  assert.deepEqual(poly.properties, { label: "two areas" });
+  // Area-weighted centroid (hand calculation): areas 100 and 300, centroids
+  // (5, 5) and (35, 15) → ((500 + 10500) / 400, (500 + 4500) / 400) = (27.5, 12.5).
+  assert.deepEqual(poly.centerPx, [27.5, 12.5]);
+  assert.equal(circles.kind, "circles");
+  assert.equal(circles.diameterMm, 0.55);
+  assert.equal(circles.pointsPx!.length, 3);
+  // Mean of the centres: (120 / 3, 120 / 3) = (40, 40).
+  assert.deepEqual(circles.centerPx, [40, 40]);
+  assert.equal(one.kind, "circles");
+  assert.equal(one.pointsPx!.length, 1);
+  assert.equal(one.date, "2024-03-05T14:30:00Z");
+});
+
+Deno.test("parseAnnotations() names the field feature without a reader, diameter or valid date", () => {
+  const pt = { type: "Point", coordinates: [5, 5] };
+  const mp = { type: "MultiPoint", coordinates: [[5, 5], [50, 50]] };
+  const cases: [unknown, RegExp, string][] = [
+    [feature("field", pt), /feature 1 \(role "field"\) has no "reader"/, "TypeError"],
+    [
+      feature("field", pt, { reader: "  " }),
+      /feature 1 \(role "field"\) has an empty "reader"/,
+      "TypeError",
+    ],
+    [
+      feature("field", mp, { reader: "trainee-1" }),
+      /feature 1 \(role "field", reader "trainee-1"\) is a MultiPoint without "field_diameter_mm"/,
+      "TypeError",
+    ],
+    [
+      feature("field", mp, { reader: "trainee-1", field_diameter_mm: 550 }),
+      /"field_diameter_mm" 550; .* at most 2 mm \(micrometres\? give millimetres, e\.g\. 0\.55\)/,
+      "RangeError",
+    ],
+    [
+      feature("field", { type: "Polygon", coordinates: SQUARE }, {
+        reader: "a",
+        field_diameter_mm: 0.5,
+      }),
+      /is a Polygon with "field_diameter_mm"/,
+      "TypeError",
+    ],
+    [
+      feature("field", pt, { reader: "a", date: "2024-02-30" }),
+      /feature 1 \(role "field", reader "a"\) has a "date" that is not an ISO 8601 date .*"2024-02-30"/,
+      "TypeError",
+    ],
+    [
+      feature("field", pt, { reader: "a", date: "05/03/2024" }),
+      /not an ISO 8601 date/,
+      "TypeError",
+    ],
+    [
+      feature("field", { type: "MultiPoint", coordinates: [] }, {
+        reader: "a",
+        field_diameter_mm: 0.5,
+      }),
+      /is an empty MultiPoint/,
+      "TypeError",
+    ],
+  ];
+  for (const [f, message, name] of cases) {
+    assert.throws(() => parse(fc([tissue, f])), { name, message });
+  }
 });

@@ -188,7 +188,9 @@ Deno.test("checkFields() warns about a polygon field of another size and scales 
   assert.equal(f.coverage, 1);
   assert.equal(f.areaMm2, 2);
   assert.equal(f.countScaledToWindow, 1);
-  assert.equal(f.percentile, 62.5); // 2 below, 1 equal → 2.5 / 4
+  // Compared through the count scaled to the window, 1: one position below
+  // (count 0), one equal → (1 + ½) / 4 = 37.5 (hand calculation).
+  assert.equal(f.percentile, 37.5);
   assert.match(f.warnings[0], /covers 2 mm², 100% more than the window's 1 mm²/);
 });
 
@@ -221,4 +223,60 @@ Deno.test("buildCaseResult() explains why there is no hotspot", () => {
       "warnings",
     ],
   );
+});
+
+Deno.test("checkFields() counts several fields as one reading: sum of counts and areas", () => {
+  // Hand-checkable: a 4 × 4 mm valid square at 1 µm/px, a 1 mm² square window.
+  const sq: MultiPolygonPx = [[[[0, 0], [4000, 0], [4000, 4000], [0, 4000], [0, 0]]]];
+  const a = [[[0, 0], [1000, 0], [1000, 500], [0, 500], [0, 0]]] as [number, number][][];
+  const b = [[[2000, 2000], [3000, 2000], [3000, 2500], [2000, 2500], [2000, 2000]]] as [
+    number,
+    number,
+  ][][];
+  const prepared = {
+    validUm: sq,
+    // Two figures in part a, one in part b, one in neither; the circles of
+    // radius 250 µm about (500, 3000) and (3500, 3500) hold 1 and 2 figures
+    // ((3500, 3750) lies on the rim: inside, closed).
+    xUm: new Float64Array([100, 900, 2500, 3900, 500, 3500, 3600]),
+    yUm: new Float64Array([100, 400, 2250, 100, 3000, 3750, 3500]),
+    slide: { id: "QVT-24-011", mppX: 1, mppY: 1 },
+    fields: [
+      { reader: "trainee-1", kind: "polygons", centerPx: [0, 0], parts: [a, b], featureIndex: 5 },
+      {
+        reader: "trainee-1",
+        kind: "circles",
+        centerPx: [2000, 3250],
+        pointsPx: [[500, 3000], [3500, 3500]],
+        diameterMm: 0.5,
+        featureIndex: 6,
+        date: "2024-05-02",
+      },
+    ],
+  } as unknown as PreparedCase;
+  const map = { counts: new Int32Array([0, 1, 2, 3]), admissible: new Uint8Array([1, 1, 1, 1]) };
+  const w = makeWindow({ areaMm2: 1, aspect: [1, 1] });
+  const [poly, circles] = checkFields(prepared, map as never, null, w);
+  assert.equal(poly.count, 3);
+  assert.equal(poly.parts, 2);
+  assert.equal(poly.areaMm2, 1); // 0.5 + 0.5 mm²
+  assert.equal(poly.coverage, 1);
+  // Same area as the window, still compared through the scaled count: 3 × 1 / 1 = 3.
+  assert.equal(poly.countScaledToWindow, 3);
+  assert.equal(poly.percentile, 87.5); // 3 below, 1 equal → 3.5 / 4
+  assert.equal(circles.count, 3);
+  assert.equal(circles.parts, 2);
+  assert.equal(circles.diameterMm, 0.5);
+  assert.equal(circles.date, "2024-05-02");
+  // Two circles of 0.5 mm: 2 · π · 0.25² = 0.392699 mm² (hand calculation).
+  assert.ok(Math.abs(circles.areaMm2 - 2 * Math.PI * 0.0625) < 1e-12);
+  assert.ok(Math.abs(circles.countScaledToWindow! - 3 / (2 * Math.PI * 0.0625)) < 1e-9);
+  assert.match(circles.warnings.join("\n"), /covers 0\.393 mm² in 2 parts, 60\.7% less/);
+  // Overlapping circles are flagged.
+  const overlapping = {
+    ...prepared,
+    fields: [{ ...prepared.fields[1], pointsPx: [[500, 3000], [800, 3000]] }],
+  } as unknown as PreparedCase;
+  const [o] = checkFields(overlapping, map as never, null, w);
+  assert.match(o.warnings.join("\n"), /circular fields 1 and 2 overlap/);
 });
