@@ -45,6 +45,8 @@ export interface CohortHtmlContext extends Omit<CaseHtmlContext, "options"> {
   linkHtml?: boolean;
   /** Mention `cases.csv` and `fields.csv` beside the table. @default true */
   linkCsv?: boolean;
+  /** Link the readers page `readers.html` (and `readers.csv` with `linkCsv`). @default false */
+  linkReaders?: boolean;
 }
 
 /**
@@ -93,6 +95,13 @@ export function renderCohortIndex(
     ? `<p class="caption">The same numbers as tables: <a href="cases.csv">cases.csv</a> ` +
       `(one row per case) and <a href="fields.csv">fields.csv</a> (one row per reader's field).</p>`
     : "";
+  const readersNote = context.linkReaders
+    ? `<p class="caption"><a href="readers.html">Readers' fields across the cohort</a>: where ` +
+      `each reader's chosen fields sit in each case's distribution, and how often the field's ` +
+      `grade differs from the hotspot's${
+        (context.linkCsv ?? true) ? ` (as a table: <a href="readers.csv">readers.csv</a>)` : ""
+      }.</p>`
+    : "";
   return `<!doctype html>
 <html lang="en">
 <head>
@@ -126,6 +135,7 @@ ${plotlyScriptTag(context)}
 ${rows.join("\n")}
 </tbody></table></div>
 ${csvNote}
+${readersNote}
 <script>${SORT_SCRIPT}</script>
 </section>
 <section><h2>Hotspots by case</h2>

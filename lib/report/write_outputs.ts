@@ -3,8 +3,9 @@
  *
  * - per case `DIR/<case>/report.json`, `DIR/<case>/hotspot.geojson` and
  *   `DIR/<case>/report.html`;
- * - for the run `DIR/cases.csv`, `DIR/fields.csv`, `DIR/index.html` and the
- *   shared `DIR/assets/plotly.min.js` (unless plotly.js is inlined).
+ * - for the run `DIR/cases.csv`, `DIR/fields.csv`, `DIR/readers.csv`,
+ *   `DIR/index.html`, `DIR/readers.html` and the shared
+ *   `DIR/assets/plotly.min.js` (unless plotly.js is inlined).
  *
  * Everything is rendered in memory first, so a rendering problem writes
  * nothing. Each case folder is then staged under a temporary name and renamed
@@ -27,6 +28,9 @@ import { renderCaseHtml } from "./report_html.ts";
 import { renderCohortIndex } from "./cohort_index.ts";
 import { casesCsv, fieldsCsv } from "./report_csv.ts";
 import { readPlotlyBytes, readPlotlyJs } from "./plotly_asset.ts";
+import { readerAudit } from "../cohort/reader_audit.ts";
+import { readersCsv } from "./readers_csv.ts";
+import { renderReadersPage } from "./readers_page.ts";
 
 /** Output formats of `hotfield report --format`. */
 export type OutputFormat = "json" | "html" | "csv" | "geojson";
@@ -117,10 +121,12 @@ function checkCaseFolderName(id: string): void {
  * Writes the outputs of `results` under `outDir` and returns the paths written.
  *
  * Per case (formats `json`, `geojson`, `html`): `<case>/report.json`,
- * `<case>/hotspot.geojson`, `<case>/report.html`. For the run: `cases.csv`
- * and `fields.csv` (format `csv`), `index.html` and `assets/plotly.min.js`
- * (format `html`; the asset is left out with `standalone`, which inlines
- * plotly.js into every page). Any number of cases, including none.
+ * `<case>/hotspot.geojson`, `<case>/report.html`. For the run: `cases.csv`,
+ * `fields.csv` and `readers.csv` (format `csv`), `index.html`,
+ * `readers.html` (the reader audit across the cases) and
+ * `assets/plotly.min.js` (format `html`; the asset is left out with
+ * `standalone`, which inlines plotly.js into every page). Any number of
+ * cases, including none.
  *
  * @param results Engine results; case ids must be distinct.
  * @param outDir Output folder, created when missing (it may lie inside the input folder).
@@ -187,13 +193,29 @@ export function writeOutputs(
   });
   const runFiles: [string, string][] = [];
   const reports = results.map((r) => r.report);
+  const readers = formats.has("csv") || wantHtml ? readerAudit(reports) : [];
   if (formats.has("csv")) {
-    runFiles.push(["cases.csv", casesCsv(reports)], ["fields.csv", fieldsCsv(reports)]);
+    runFiles.push(
+      ["cases.csv", casesCsv(reports)],
+      ["fields.csv", fieldsCsv(reports)],
+      ["readers.csv", readersCsv(readers)],
+    );
   }
   if (wantHtml) {
     runFiles.push([
       "index.html",
       renderCohortIndex(results, {
+        plotlySrc: standalone ? null : "assets/plotly.min.js",
+        plotlyInline: standalone ? plotlyJs : undefined,
+        generatedAt,
+        version: HOTFIELD_VERSION,
+        linkHtml: true,
+        linkCsv: formats.has("csv"),
+        linkReaders: true,
+      }),
+    ], [
+      "readers.html",
+      renderReadersPage(readers, {
         plotlySrc: standalone ? null : "assets/plotly.min.js",
         plotlyInline: standalone ? plotlyJs : undefined,
         generatedAt,

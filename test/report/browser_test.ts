@@ -14,6 +14,7 @@ import { loadCase } from "../../lib/annotations/read_case.ts";
 import { buildCaseResult } from "../../lib/pipeline/build_case_result.ts";
 import type { CaseResult } from "../../lib/pipeline/case_result.ts";
 import { fixtureResult } from "./_fixture.ts";
+import { readerAudit } from "../../lib/cohort/reader_audit.ts";
 import { type BrowserPage, evaluate, hasChromium, openBrowser, waitFor } from "./_cdp.ts";
 
 const inCi = Deno.env.get("CI") === "true";
@@ -79,7 +80,7 @@ async function demoResult(name: string, scheme: string): Promise<CaseResult> {
 }
 
 Deno.test({
-  name: "report.html and index.html render their plots offline in headless Chromium",
+  name: "report.html, index.html and readers.html render their plots offline in headless Chromium",
   ignore: !available && !inCi,
   sanitizeResources: false,
   sanitizeOps: false,
@@ -93,6 +94,9 @@ Deno.test({
         await demoResult("QVT-24-005", "canine-mct-2tier"),
         fixtureResult({ readers: ['<img src=x onerror="alert(1)">', "</script>&"] }),
       ];
+      // Dated fields give their reader a plot over time on the readers page.
+      results[2].report.fields[0].date = "2024-03-01";
+      results[2].report.fields[1].date = "2024-04-15T09:30:00Z";
       writeOutputs(results, dir, { generatedAt: "2026-01-01T00:00:00Z" });
       await checkPage(page, join(dir, "QVT-24-006", "report.html"), 2, "report_QVT-24-006.png");
       await checkPage(page, join(dir, "QVT-24-005", "report.html"), 2, "report_QVT-24-005.png");
@@ -115,6 +119,39 @@ Deno.test({
       );
       assert.ok(legend.some((t) => t.startsWith("</script>&'s field")), legend.join(" | "));
       await checkPage(page, join(dir, "index.html"), 1, "index.png");
+      assert.equal(
+        await evaluate(page, "document.querySelector('a[href=\"readers.html\"]') !== null"),
+        true,
+        "the cohort page links the readers page",
+      );
+      const audit = readerAudit(results.map((r) => r.report));
+      const readerPlots = audit.filter((r) => r.fields > 0).length +
+        audit.filter((r) => r.datedFields > 0).length;
+      assert.ok(audit.some((r) => r.datedFields > 0));
+      await checkPage(page, join(dir, "readers.html"), readerPlots, "readers.png");
+      // Reader names render as text, in the page and in plotly's tick labels.
+      assert.equal(
+        await evaluate(
+          page,
+          "document.body.innerText.includes('Reader: <img src=x onerror=\"alert(1)\">')",
+        ),
+        true,
+      );
+      assert.equal(await evaluate(page, "document.querySelectorAll('main img').length"), 0);
+      assert.equal(
+        await evaluate(
+          page,
+          'document.querySelectorAll(\'[id$="-time"] .js-plotly-plot, .js-plotly-plot[id$="-time"]\').length',
+        ),
+        2,
+        "two dated readers, two plots over time",
+      );
+      // Cases whose field grade differs link to their reports.
+      const links = await evaluate(
+        page,
+        "[...document.querySelectorAll('section.reader td a')].map((a) => a.getAttribute('href'))",
+      ) as string[];
+      assert.ok(links.every((h) => /^[^/]+\/report\.html$/.test(h)), links.join(" "));
 
       // Every kind of mark on the demo map has a legend entry, and no text sits on the map.
       await checkPage(page, join(dir, "QVT-24-006", "report.html"), 2, "report_QVT-24-006.png");

@@ -162,6 +162,8 @@ Deno.test("writeOutputs() output is byte-identical across runs under SOURCE_DATE
       "cases.csv",
       "fields.csv",
       "index.html",
+      "readers.csv",
+      "readers.html",
     ]);
     for (const f of files) {
       assert.ok(readFileSync(join(a, f)).equals(readFileSync(join(b, f))), `${f} differs`);
@@ -288,7 +290,7 @@ Deno.test("writeOutputs() writes only the formats asked for; standalone inlines 
   const dir = tempDir();
   try {
     writeOutputs([fixtureResult()], join(dir, "csv"), { formats: ["csv"] });
-    assert.deepEqual(listFiles(join(dir, "csv")), ["cases.csv", "fields.csv"]);
+    assert.deepEqual(listFiles(join(dir, "csv")), ["cases.csv", "fields.csv", "readers.csv"]);
     writeOutputs([fixtureResult()], join(dir, "geo"), { formats: ["geojson", "json"] });
     assert.deepEqual(listFiles(join(dir, "geo")), [
       "QVT-24-901/hotspot.geojson",
@@ -300,7 +302,11 @@ Deno.test("writeOutputs() writes only the formats asked for; standalone inlines 
       plotlyJs: FAKE_PLOTLY + "var s='</script><!--';",
       generatedAt: null,
     });
-    assert.deepEqual(listFiles(join(dir, "alone")), ["QVT-24-901/report.html", "index.html"]);
+    assert.deepEqual(listFiles(join(dir, "alone")), [
+      "QVT-24-901/report.html",
+      "index.html",
+      "readers.html",
+    ]);
     const html = readFileSync(join(dir, "alone", "QVT-24-901", "report.html"), "utf8");
     assert.ok(html.includes(FAKE_PLOTLY));
     assert.ok(html.includes("var s='<\\/script><\\!--';"), "inlined code cannot close its element");
