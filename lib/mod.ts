@@ -236,3 +236,28 @@ export {
 // Demo data.
 export { demoCaseInputs } from "./demo/run_demo.ts";
 export { demoSchemes } from "./demo/demo_recipes.ts";
+
+// Reader audit and grading a count made at the microscope (readers area).
+export type { FieldKind } from "./types.ts";
+export { wilsonInterval } from "./stats/wilson.ts";
+export {
+  type CountGrade,
+  GRADE_CAUTION,
+  gradeCount,
+  type GradeCountOptions,
+} from "./standards/grade_count.ts";
+export type { ReportFieldGrade } from "./pipeline/report_types.ts";
+export {
+  type AuditField,
+  type AuditReport,
+  readerAudit,
+  type ReaderAuditRow,
+  type ReaderFieldEntry,
+} from "./cohort/reader_audit.ts";
+export { READER_COLUMNS, readerRow, readersCsv } from "./report/readers_csv.ts";
+export {
+  READER_DEFINITIONS,
+  type ReadersHtmlContext,
+  renderReadersPage,
+} from "./report/readers_page.ts";
+export { readerPercentileFigure, readerTimeFigure } from "./report/reader_plots.ts";

@@ -9,7 +9,6 @@
  * @module
  */
 
-import type { ReportField, ReportJson } from "../report/report_types.ts";
 import { binaryKappa } from "../stats/kappa.ts";
 import { quantileSorted } from "../stats/quantiles.ts";
 import { wilsonInterval } from "../stats/wilson.ts";
@@ -37,6 +36,7 @@ export interface ReaderFieldEntry {
   percentile: number | null;
   /** The case's distribution median and upper quartile (window counts). */
   median: number;
+  /** The case's upper quartile of window counts (R-7). */
   q3: number;
   /** comparedCount ≥ median. */
   upperHalf: boolean;
@@ -64,6 +64,7 @@ export interface ReaderFieldEntry {
 
 /** One reader across the cohort (a row of `readers.csv`, plus the fields behind it). */
 export interface ReaderAuditRow {
+  /** Reader name, as in report.json. */
   reader: string;
   /** Cases with at least one of the reader's fields counted. */
   cases: number;
@@ -83,9 +84,11 @@ export interface ReaderAuditRow {
   kappa: number | null;
   /** Fields in the upper half and upper quarter (whole numbers). */
   upperHalfFields: number;
+  /** Fields in the upper quarter. */
   upperQuarterFields: number;
   /** Wilson score 95% intervals of the two shares. */
   upperHalfCi95: [number, number] | null;
+  /** Wilson score 95% interval of the upper-quarter share; null without fields. */
   upperQuarterCi95: [number, number] | null;
   /** Fields compared for the class (in cases with a scheme). */
   classPairs: number;
@@ -95,17 +98,54 @@ export interface ReaderAuditRow {
   fieldsNotCounted: number;
   /** Counted fields with a date, and the first and last date. */
   datedFields: number;
+  /** The earliest date of those fields (text order of ISO 8601), null without dates. */
   firstDate: string | null;
+  /** The latest date of those fields, null without dates. */
   lastDate: string | null;
   /** The counted fields, in report order then field order. */
   entries: ReaderFieldEntry[];
 }
 
-/** What the audit needs of a report (report.json, schema `hotfield.report/1`). */
-export type AuditReport = Pick<
-  ReportJson,
-  "case" | "window" | "hotspot" | "distribution" | "fields" | "classification"
->;
+/**
+ * What the audit reads of one field of report.json (schema
+ * `hotfield.report/1`, `fields[]`); a `ReportField` fits.
+ */
+export interface AuditField {
+  /** Reader name. */
+  reader: string;
+  /** Figures counted in the field. */
+  count: number;
+  /** Mid-rank percentile among the case's admissible positions. */
+  percentile: number | null;
+  /** Field area, mm² (the window's area when absent). */
+  area_mm2?: number;
+  /** The count scaled to the standard window, when the field's area differs. */
+  count_scaled_to_window?: number | null;
+  /** Feature index in the annotation file. */
+  feature_index?: number;
+  /** When the field was read (ISO 8601). */
+  date?: string;
+}
+
+/**
+ * What the audit reads of a report (report.json, schema `hotfield.report/1`);
+ * a `ReportJson` fits. Declared here, not imported, because the cohort layer
+ * sits beside the pipeline that defines report.json.
+ */
+export interface AuditReport {
+  /** Case id. */
+  case: string;
+  /** The standard window (its area, mm²). */
+  window: { area_mm2: number };
+  /** The hotspot (its count), null when no window is admissible. */
+  hotspot: { count: number } | null;
+  /** Admissible positions, median and upper quartile of window counts. */
+  distribution: { positions: number; median: number | null; q3: number | null };
+  /** The readers' fields. */
+  fields: readonly AuditField[];
+  /** The case's classification (its scheme id), null without a scheme. */
+  classification: { scheme: string } | null;
+}
 
 /**
  * Audits every reader's fields across a cohort of reports.
@@ -194,7 +234,7 @@ function schemeOf(id: string, caseId: string): GradingScheme {
 
 function entryOf(
   report: AuditReport,
-  f: ReportField,
+  f: AuditField,
   scheme: GradingScheme | null,
   hotspotGrade: ReturnType<typeof gradeCount> | null,
 ): ReaderFieldEntry {

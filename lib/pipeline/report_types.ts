@@ -174,11 +174,13 @@ export interface ReportField {
 
 /** A reader's field graded on its own count and area (with `--scheme`). */
 export interface ReportFieldGrade {
+  /** Scheme id. */
   scheme: string;
   /** The field's count converted to the scheme's area basis. */
   count_per_scheme_basis: number;
   /** `above` when the field's count meets the scheme's cut-off, else `below`. */
   class: "above" | "below";
+  /** The tier the field's count falls in. */
   tier: string;
 }
 

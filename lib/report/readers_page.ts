@@ -17,10 +17,18 @@ import { escapeHtml } from "./html_escape.ts";
 import { fmt, type PagePlot, plotlyScriptTag, plotScripts } from "./_page.ts";
 import { readerName } from "./plots.ts";
 import { readerPercentileFigure, readerTimeFigure } from "./reader_plots.ts";
-import { type CaseHtmlContext, REPORT_CAUTIONS, REPORT_CSS } from "./report_html.ts";
+import { REPORT_CAUTIONS, REPORT_CSS } from "./report_html.ts";
 
 /** What the readers page shows besides the audit. */
-export interface ReadersHtmlContext extends Omit<CaseHtmlContext, "options"> {
+export interface ReadersHtmlContext {
+  /** Relative path of the shared plotly.js, or null when it is inlined. */
+  plotlySrc: string | null;
+  /** The plotly.js source to inline when `plotlySrc` is null. */
+  plotlyInline?: string;
+  /** Generation time shown (ISO 8601), or null to leave it out. */
+  generatedAt: string | null;
+  /** hotfield version. */
+  version: string;
   /** Link cases to `<case>/report.html` (else to `<case>/report.json`). @default true */
   linkHtml?: boolean;
   /** Mention `readers.csv` and link back to `index.html`. @default true */

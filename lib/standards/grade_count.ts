@@ -11,7 +11,8 @@ import { countUncertainty } from "./uncertainty.ts";
 import type { GradingScheme } from "./scheme_types.ts";
 
 /** The caution every grade carries. */
-export const GRADE_CAUTION = "This grade supports, never replaces, a pathologist: a pathologist " +
+export const GRADE_CAUTION: string =
+  "This grade supports, never replaces, a pathologist: a pathologist " +
   "reviews the slide and confirms every count and grade. Follow local grading guidelines and " +
   "licensed practice; where they differ from the scheme here, they win.";
 

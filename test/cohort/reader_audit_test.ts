@@ -11,7 +11,7 @@
 import { strict as assert } from "node:assert";
 import { readerAudit } from "../../lib/cohort/reader_audit.ts";
 import { binaryKappa } from "../../lib/stats/kappa.ts";
-import type { ReportField, ReportJson } from "../../lib/report/report_types.ts";
+import type { ReportField, ReportJson } from "../../lib/pipeline/report_types.ts";
 
 const WINDOW = { shape: "circle" as const, area_mm2: 2.37, diameter_um: 1737.1 };
 

@@ -14,11 +14,11 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { parse } from "csv-parse/sync";
 import { parseAnnotations } from "../../lib/annotations/read_annotations.ts";
-import { buildCaseResult } from "../../lib/count/build_case_result.ts";
+import { buildCaseResult } from "../../lib/pipeline/build_case_result.ts";
 import { writeOutputs } from "../../lib/report/write_outputs.ts";
 import { READER_COLUMNS } from "../../lib/report/readers_csv.ts";
 import { seededRandom } from "../../lib/random.ts";
-import type { ReportJson } from "../../lib/report/report_types.ts";
+import type { ReportJson } from "../../lib/pipeline/report_types.ts";
 
 const MPP = 0.5;
 // A 6 × 4 mm tissue rectangle (12000 × 8000 px at 0.5 µm/px).
