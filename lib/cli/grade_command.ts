@@ -11,6 +11,7 @@ import { fieldOfView, MAX_FIELD_DIAMETER_MM } from "../standards/field_of_view.t
 import { getScheme } from "../standards/list_schemes.ts";
 import { type CountGrade, gradeCount } from "../standards/grade_count.ts";
 import { numberOption, parseOptions } from "./_args.ts";
+import { roundTo } from "../numbers.ts";
 import type { CommandIo } from "./_io.ts";
 
 const HELP =
@@ -125,7 +126,7 @@ export function run(args: string[], io: CommandIo): Promise<number> {
     if (diameterMm > MAX_FIELD_DIAMETER_MM) {
       throw new UsageError(
         `Options --fn, --objective and --tube give a field diameter of ${
-          round(diameterMm, 4)
+          roundTo(diameterMm, 4)
         } mm, over ${MAX_FIELD_DIAMETER_MM} mm, which is no high-power field: check them`,
       );
     }
@@ -212,9 +213,4 @@ function textLines(g: CountGrade, optics: Record<string, number> | null): string
 
 function fmt(x: number, digits: number): string {
   return x.toFixed(digits);
-}
-
-function round(x: number, digits: number): number {
-  const f = 10 ** digits;
-  return Math.round(x * f) / f;
 }

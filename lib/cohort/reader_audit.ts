@@ -10,6 +10,7 @@
  */
 
 import { binaryKappa } from "../stats/kappa.ts";
+import { roundTo } from "../numbers.ts";
 import { quantileSorted } from "../stats/quantiles.ts";
 import { wilsonInterval } from "../stats/wilson.ts";
 import { gradeCount } from "../standards/grade_count.ts";
@@ -260,7 +261,7 @@ function entryOf(
     upperHalf: compared >= median,
     upperQuarter: compared >= q3,
     hotspotCount,
-    shortfall: hotspotCount === null ? null : round4(hotspotCount - compared),
+    shortfall: hotspotCount === null ? null : r4(hotspotCount - compared),
     date: typeof f.date === "string" ? f.date : null,
     scheme: scheme?.id ?? null,
     fieldTier: fieldGrade?.tier ?? null,
@@ -296,14 +297,14 @@ function summarize(
     reader,
     cases: new Set(entries.map((e) => e.case)).size,
     fields: n,
-    upperHalfShare: n > 0 ? round4(half / n) : null,
-    upperQuarterShare: n > 0 ? round4(quarter / n) : null,
-    medianPercentile: percentiles.length > 0 ? round4(quantileSorted(percentiles, 0.5)!) : null,
+    upperHalfShare: n > 0 ? r4(half / n) : null,
+    upperQuarterShare: n > 0 ? r4(quarter / n) : null,
+    medianPercentile: percentiles.length > 0 ? r4(quantileSorted(percentiles, 0.5)!) : null,
     meanShortfall: shortfalls.length > 0
-      ? round4(shortfalls.reduce((a, b) => a + b, 0) / shortfalls.length)
+      ? r4(shortfalls.reduce((a, b) => a + b, 0) / shortfalls.length)
       : null,
-    classAgreement: paired.length > 0 ? round4(agree / paired.length) : null,
-    kappa: kappa === null ? null : round4(kappa),
+    classAgreement: paired.length > 0 ? r4(agree / paired.length) : null,
+    kappa: kappa === null ? null : r4(kappa),
     upperHalfFields: half,
     upperQuarterFields: quarter,
     upperHalfCi95: roundPair(wilsonInterval(half, n)),
@@ -318,11 +319,11 @@ function summarize(
   };
 }
 
-function round4(v: number): number {
-  const r = Math.round(v * 1e4) / 1e4;
-  return Object.is(r, -0) ? 0 : r;
+/** Four decimals, as the audit gives every share, mean and kappa. */
+function r4(v: number): number {
+  return roundTo(v, 4);
 }
 
 function roundPair(p: [number, number] | null): [number, number] | null {
-  return p === null ? null : [round4(p[0]), round4(p[1])];
+  return p === null ? null : [r4(p[0]), r4(p[1])];
 }

@@ -9,13 +9,9 @@
  */
 
 import type { ReaderAuditRow, ReaderFieldEntry } from "../cohort/reader_audit.ts";
-import { OKABE_ITO, type PlotFigure, plotText } from "./plots.ts";
-
-const FONT = {
-  family: "system-ui, -apple-system, 'Segoe UI', Roboto, 'Helvetica Neue', Arial, sans-serif",
-  size: 13,
-  color: "#1a1a1a",
-};
+import { OKABE_ITO, PLOT_FONT, type PlotFigure } from "./plot_style.ts";
+import { plotText } from "./plot_labels.ts";
+import { roundTo } from "../numbers.ts";
 
 /** How a field is drawn by where it sits in its case's distribution. */
 const FIELD_CLASSES = [
@@ -39,19 +35,15 @@ const FIELD_CLASSES = [
   },
 ] as const;
 
-function round3(v: number): number {
-  return Math.round(v * 1000) / 1000;
-}
-
 function hoverText(e: ReaderFieldEntry): string {
-  const scaled = e.comparedCount !== e.count ? ` (${round3(e.comparedCount)} per window)` : "";
+  const scaled = e.comparedCount !== e.count ? ` (${roundTo(e.comparedCount, 3)} per window)` : "";
   const grade = e.fieldTier !== null
     ? `<br>grade ${plotText(e.fieldTier)}; hotspot ${plotText(e.hotspotTier ?? "–")}`
     : "";
   return `${plotText(e.case)}: ${e.count} figures${scaled}<br>` +
     `${e.percentile === null ? "no" : e.percentile.toFixed(1)} percentile; median ${
-      round3(e.median)
-    }, Q3 ${round3(e.q3)}${grade}` + (e.date ? `<br>${plotText(e.date)}` : "");
+      roundTo(e.median, 3)
+    }, Q3 ${roundTo(e.q3, 3)}${grade}` + (e.date ? `<br>${plotText(e.date)}` : "");
 }
 
 function guideShapes(): Record<string, unknown>[] {
@@ -108,7 +100,7 @@ export function readerPercentileFigure(row: Pick<ReaderAuditRow, "entries">): Pl
   const xOf = new Map<ReaderFieldEntry, number>();
   for (let i = 0; i < cases.length; i++) {
     const mine = row.entries.filter((e) => e.case === cases[i]);
-    mine.forEach((e, k) => xOf.set(e, round3(i + (k - (mine.length - 1) / 2) * 0.14)));
+    mine.forEach((e, k) => xOf.set(e, roundTo(i + (k - (mine.length - 1) / 2) * 0.14, 3)));
   }
   const data = FIELD_CLASSES.map((c) => {
     const mine = row.entries.filter((e) => c.test(e) && e.percentile !== null);
@@ -117,14 +109,14 @@ export function readerPercentileFigure(row: Pick<ReaderAuditRow, "entries">): Pl
       mode: "markers",
       name: c.name,
       x: mine.map((e) => xOf.get(e)),
-      y: mine.map((e) => round3(e.percentile as number)),
+      y: mine.map((e) => roundTo(e.percentile as number, 3)),
       text: mine.map(hoverText),
       hovertemplate: "%{text}<extra></extra>",
       marker: { ...c.marker, size: 13, line: { color: "#1a1a1a", width: 1 } },
     };
   }).filter((t) => t.x.length > 0);
   const layout: Record<string, unknown> = {
-    font: FONT,
+    font: PLOT_FONT,
     height: 340,
     margin: { l: 64, r: 20, t: 20, b: 90 },
     paper_bgcolor: "#ffffff",
@@ -217,7 +209,7 @@ export function readerTimeFigure(row: Pick<ReaderAuditRow, "entries">): PlotFigu
     mode: "lines",
     name: "in date order",
     x: dated.map((d) => d.x),
-    y: dated.map((d) => round3(d.e.percentile as number)),
+    y: dated.map((d) => roundTo(d.e.percentile as number, 3)),
     line: { color: "#8a8a8a", width: 1.5 },
     hoverinfo: "skip",
   }];
@@ -229,7 +221,7 @@ export function readerTimeFigure(row: Pick<ReaderAuditRow, "entries">): PlotFigu
       mode: "markers",
       name: c.name,
       x: mine.map((d) => d.x),
-      y: mine.map((d) => round3(d.e.percentile as number)),
+      y: mine.map((d) => roundTo(d.e.percentile as number, 3)),
       text: mine.map((d) => hoverText(d.e)),
       hovertemplate: "%{text}<extra></extra>",
       marker: { ...c.marker, size: 12, line: { color: "#1a1a1a", width: 1 } },
@@ -238,7 +230,7 @@ export function readerTimeFigure(row: Pick<ReaderAuditRow, "entries">): PlotFigu
   return {
     data,
     layout: {
-      font: FONT,
+      font: PLOT_FONT,
       height: 320,
       margin: { l: 64, r: 20, t: 20, b: 80 },
       paper_bgcolor: "#ffffff",

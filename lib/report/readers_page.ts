@@ -15,7 +15,7 @@
 import type { ReaderAuditRow, ReaderFieldEntry } from "../cohort/reader_audit.ts";
 import { escapeHtml } from "./html_escape.ts";
 import { fmt, type PagePlot, plotlyScriptTag, plotScripts } from "./_page.ts";
-import { readerName } from "./plots.ts";
+import { readerName } from "./plot_labels.ts";
 import { readerPercentileFigure, readerTimeFigure } from "./reader_plots.ts";
 import { REPORT_CAUTIONS, REPORT_CSS } from "./report_html.ts";
 
