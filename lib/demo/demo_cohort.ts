@@ -156,7 +156,7 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
   });
   const holes: Ring[] = [];
   const placed: [number, number, number][] = [];
-  const keepClear = [...r.foci, ...r.fields].map((p) => [p.u, p.v]);
+  const keepClear = [...r.foci, ...r.fields.filter((f) => !f.date)].map((p) => [p.u, p.v]);
   for (let tries = 0; holes.length < r.tissue.holes && tries < 500; tries++) {
     const rad = 0.5 * Math.sqrt(random());
     const ang = 2 * Math.PI * random();
@@ -295,6 +295,42 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
     const [cx, cy] = toSlide(frame, fr.u, fr.v);
     const properties: Record<string, string | number> = { role: "field", reader: fr.reader };
     if (fr.label) properties.label = fr.label;
+    if (fr.date) properties.date = fr.date;
+    if (fr.circles) {
+      // Rows of five microscope fields, 10% apart, centred at (u, v).
+      const { n, diameterMm } = fr.circles;
+      properties.field_diameter_mm = diameterMm;
+      const stepUm = diameterMm * 1000 * 1.1;
+      const rows = Math.ceil(n / 5);
+      const centres: Vec2[] = [];
+      for (let k = 0; k < n; k++) {
+        const col = k % 5, row = Math.floor(k / 5);
+        centres.push([
+          roundTo(cx + ((col - 2) * stepUm) / mppX, 1),
+          roundTo(cy + ((row - (rows - 1) / 2) * stepUm) / mppY, 1),
+        ]);
+      }
+      return {
+        type: "Feature",
+        properties,
+        geometry: { type: "MultiPoint", coordinates: centres },
+      };
+    }
+    if (fr.squares) {
+      const half = (fr.squares.sideMm * 1000) / 2;
+      const squares: PolygonPx[] = [[fr.u, fr.v], ...fr.squares.more].map(([u, v]) => {
+        const [sx, sy] = toSlide(frame, u, v);
+        const ring: Vec2[] = [[-half, -half], [half, -half], [half, half], [-half, half]].map((
+          [dx, dy],
+        ) => [roundTo(sx + dx / mppX, 1), roundTo(sy + dy / mppY, 1)]);
+        return [[...ring, ring[0]]];
+      });
+      return {
+        type: "Feature",
+        properties,
+        geometry: { type: "MultiPolygon", coordinates: squares },
+      };
+    }
     if (!fr.polygon) {
       return {
         type: "Feature",

@@ -41,6 +41,16 @@ export interface FieldRecipe {
   /** A drawn polygon of about 2.37 mm² instead of a centre point. */
   polygon?: boolean;
   label?: string;
+  /**
+   * When the field was read (ISO 8601 date). Dated fields belong to the
+   * teaching series added after the slides were outlined, so they do not
+   * steer where the generator puts tissue holes.
+   */
+  date?: string;
+  /** Circular microscope fields (a MultiPoint with `field_diameter_mm`), `n` in rows of five about (u, v). */
+  circles?: { n: number; diameterMm: number };
+  /** Separate squares counted together (a MultiPolygon): one at (u, v) and one at each further centre. */
+  squares?: { more: [number, number][]; sideMm: number };
 }
 
 /** Everything that describes one invented case; the generator adds the randomness. */
@@ -118,6 +128,14 @@ export const DEMO_RECIPES: readonly CaseRecipe[] = [
     fields: [
       { reader: "reader-a", u: -0.13, v: 0.12 },
       { reader: "reader-b", u: 0.26, v: 0.2 },
+      {
+        reader: "trainee-1",
+        u: 0.05,
+        v: -0.32,
+        date: "2024-01-15",
+        circles: { n: 10, diameterMm: 0.55 },
+        label: "10 HPF, FN 22 at 40×",
+      },
     ],
   },
   {
@@ -139,7 +157,10 @@ export const DEMO_RECIPES: readonly CaseRecipe[] = [
     outsidePerMm2: 0.1,
     lookalikes: 60,
     figureStyle: "annotator",
-    fields: [{ reader: "reader-a", u: 0.12, v: 0.02 }],
+    fields: [
+      { reader: "reader-a", u: 0.12, v: 0.02 },
+      { reader: "trainee-1", u: -0.28, v: -0.22, date: "2024-02-12" },
+    ],
   },
   {
     caseId: "QVT-24-003",
@@ -167,6 +188,7 @@ export const DEMO_RECIPES: readonly CaseRecipe[] = [
       { reader: "reader-a", u: -0.1, v: -0.08 },
       { reader: "reader-b", u: 0.29, v: 0.24, polygon: true, label: "10 HPF drawn" },
       { reader: "trainee-1", u: -0.3, v: 0.3 },
+      { reader: "trainee-1", u: 0.0, v: 0.05, date: "2024-03-11" },
     ],
   },
   {
@@ -250,6 +272,7 @@ export const DEMO_RECIPES: readonly CaseRecipe[] = [
     fields: [
       { reader: "reader-a", u: 0.29, v: -0.14 },
       { reader: "trainee-2", u: -0.3, v: 0.05, label: "first field examined" },
+      { reader: "trainee-1", u: 0.24, v: -0.12, date: "2024-04-08" },
     ],
   },
   {
@@ -274,7 +297,17 @@ export const DEMO_RECIPES: readonly CaseRecipe[] = [
     outsidePerMm2: 0.2,
     lookalikes: 60,
     figureStyle: "annotator",
-    fields: [{ reader: "reader-b", u: -0.24, v: -0.12 }],
+    fields: [
+      { reader: "reader-b", u: -0.24, v: -0.12 },
+      {
+        reader: "trainee-1",
+        u: -0.25,
+        v: -0.1,
+        date: "2024-05-13",
+        squares: { more: [[0.3, -0.2]], sideMm: 1.09 },
+        label: "two areas counted together",
+      },
+    ],
     maskUmPerPx: 16,
   },
   {
@@ -312,6 +345,14 @@ export const DEMO_RECIPES: readonly CaseRecipe[] = [
     fields: [
       { reader: "reader-a", u: -0.2, v: 0.06 },
       { reader: "trainee-1", u: 0.0, v: -0.38 },
+      {
+        reader: "trainee-1",
+        u: -0.2,
+        v: 0.05,
+        date: "2024-06-10",
+        circles: { n: 10, diameterMm: 0.55 },
+        label: "10 HPF, FN 22 at 40×",
+      },
     ],
   },
 ];

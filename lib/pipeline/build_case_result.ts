@@ -397,7 +397,7 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
       coverage: roundTo(c.coverage, 6),
       percentile: c.percentile === null ? null : roundTo(c.percentile, 2),
       kind: c.kind,
-      shortfall: c.shortfall,
+      shortfall: c.shortfall === null ? null : roundTo(c.shortfall, 4),
       area_mm2: roundTo(c.areaMm2, 6),
       count_scaled_to_window: c.countScaledToWindow === null
         ? null
