@@ -261,3 +261,4 @@ export {
   renderReadersPage,
 } from "./report/readers_page.ts";
 export { readerPercentileFigure, readerTimeFigure } from "./report/reader_plots.ts";
+export { showReaderFields } from "./display/show_readers.ts";

@@ -114,7 +114,12 @@ Deno.test("notebooks are stored without outputs, on the hotfield kernel (nbforma
 const EXPECT: Record<string, RegExp[]> = {
   "01-explore-a-case.ipynb": [/^hotspot: \d+ figures in 2\.37 mm²/m, /^positions \d+: min/m],
   "02-cohort-report.ipynb": [/^8 cases in \.\.\/data\/demo/m, /^\d+ files written under /m],
-  "03-check-my-field.ipynb": [/^one field: 0\.550 mm across, 0\.2376 mm²/m, /^your field: \d+/m],
+  "03-check-my-field.ipynb": [
+    /^one field: 0\.550 mm across, 0\.2376 mm²/m,
+    /^grade: 8 in 10 fields \(2\.3758 mm²\) is above the cut-off ≥ 7, tier high/m,
+    /^your field: \d+ figures? in 10 fields/m,
+    /^trainee-1: \d+ fields in \d+ cases/m,
+  ],
 };
 
 for (const name of files) {

@@ -1,0 +1,46 @@
+/**
+ * Rich display of a reader's fields across a cohort in Jupyter notebooks
+ * (the readers page's plots, as plotly mime bundles).
+ *
+ * @module
+ */
+
+import type { ReaderAuditRow } from "../cohort/reader_audit.ts";
+import { readerPercentileFigure, readerTimeFigure } from "../report/reader_plots.ts";
+import {
+  type Displayable,
+  JUPYTER_DISPLAY,
+  plotlyMimeBundle,
+  type ShowPlotOptions,
+} from "./show.ts";
+
+/**
+ * Shows one reader's fields across cases (percentile of each field in its
+ * case) and, when the reader has dated fields, their percentile over time.
+ *
+ * @param row One row of `readerAudit(reports)`.
+ * @param options plotly.js inlining.
+ * @returns A displayable object; its bundle holds the plot over time when
+ *   there are dated fields, else the plot across cases.
+ *
+ * @example A reader with one dated field
+ * ```ts
+ * import { JUPYTER_DISPLAY } from "./show.ts";
+ * import { showReaderFields } from "./show_readers.ts";
+ * const shown = showReaderFields({
+ *   entries: [{
+ *     case: "QVT-24-001", count: 3, comparedCount: 3, percentile: 60, median: 2, q3: 4,
+ *     upperHalf: true, upperQuarter: false, fieldTier: null, hotspotTier: null, date: "2024-01-15",
+ *   }],
+ * } as never, { inlinePlotly: "never" });
+ * const json = shown[JUPYTER_DISPLAY]()["application/vnd.plotly.v1+json"] as { layout: { xaxis: { type: string } } };
+ * if (json.layout.xaxis.type !== "date") throw new Error();
+ * ```
+ */
+export function showReaderFields(
+  row: Pick<ReaderAuditRow, "entries">,
+  options: ShowPlotOptions = {},
+): Displayable {
+  const figure = readerTimeFigure(row) ?? readerPercentileFigure(row);
+  return { [JUPYTER_DISPLAY]: () => plotlyMimeBundle(figure, options) } as Displayable;
+}
