@@ -360,6 +360,10 @@ Deno.test("hotfield report --format csv writes no empty case folders", async () 
     { stdout: () => {}, stderr: () => {} },
   );
   assert.equal(code, 0);
-  assert.deepEqual(readdirSync(join(dir, "out")).sort(), ["cases.csv", "fields.csv"]);
+  assert.deepEqual(readdirSync(join(dir, "out")).sort(), [
+    "cases.csv",
+    "fields.csv",
+    "readers.csv",
+  ]);
   Deno.removeSync(dir, { recursive: true });
 });
