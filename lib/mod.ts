@@ -262,3 +262,4 @@ export {
 } from "./report/readers_page.ts";
 export { readerPercentileFigure, readerTimeFigure } from "./report/reader_plots.ts";
 export { showReaderFields } from "./display/show_readers.ts";
+export type { ShowPlotOptions } from "./display/show.ts";
