@@ -262,4 +262,3 @@ export {
 } from "./report/readers_page.ts";
 export { readerPercentileFigure, readerTimeFigure } from "./report/reader_plots.ts";
 export { showReaderFields } from "./display/show_readers.ts";
-export type { ShowPlotOptions } from "./display/show.ts";
