@@ -54,7 +54,7 @@ export function usage(): string {
  * import { main } from "./cli.ts";
  * const out: string[] = [];
  * const code = await main(["--help"], { stdout: (s) => out.push(s), stderr: () => {} });
- * if (code !== 0 || !out.join("").includes("inspect")) throw new Error();
+ * if (code !== 0 || !out.join("").includes("inspect")) throw new Error(`exit ${code}: ${out.join("")}`);
  * ```
  */
 export async function main(args: string[], io: CommandIo = defaultIo()): Promise<number> {

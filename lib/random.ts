@@ -18,7 +18,7 @@ export type Random = () => number;
  * ```ts
  * import { seededRandom } from "./random.ts";
  * const a = seededRandom(42), b = seededRandom(42);
- * if (a() !== b()) throw new Error();
+ * if (a() !== b()) throw new Error("one seed must give one sequence");
  * ```
  */
 export function seededRandom(seed: number): Random {
@@ -39,7 +39,7 @@ export function seededRandom(seed: number): Random {
  * ```ts
  * import { normal, seededRandom } from "./random.ts";
  * const z = normal(seededRandom(1));
- * if (!Number.isFinite(z)) throw new Error();
+ * if (!Number.isFinite(z)) throw new Error(`a standard normal draw gave ${z}`);
  * ```
  */
 export function normal(random: Random): number {

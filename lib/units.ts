@@ -26,9 +26,10 @@ export interface Mpp {
  *
  * @example Converting an area
  * ```ts
- * import { px2ToMm2 } from "./units.ts";
+ * import { px2ToMm2 } from "hotfield";
  * // 4000 × 4000 px at 0.25 µm/px = 1 mm × 1 mm
- * if (Math.abs(px2ToMm2(16e6, { mppX: 0.25, mppY: 0.25 }) - 1) > 1e-12) throw new Error();
+ * const mm2 = px2ToMm2(16e6, { mppX: 0.25, mppY: 0.25 });
+ * if (Math.abs(mm2 - 1) > 1e-12) throw new Error(`16e6 px² at 0.25 µm/px is ${mm2} mm², expected 1`);
  * ```
  */
 export function px2ToMm2(areaPx2: number, mpp: Mpp): number {
@@ -40,9 +41,9 @@ export function px2ToMm2(areaPx2: number, mpp: Mpp): number {
  *
  * @example
  * ```ts
- * import { pxToUm } from "./units.ts";
+ * import { pxToUm } from "hotfield";
  * const [x, y] = pxToUm([100, 100], { mppX: 0.25, mppY: 0.5 });
- * if (x !== 25 || y !== 50) throw new Error();
+ * if (x !== 25 || y !== 50) throw new Error(`(100, 100) px is (${x}, ${y}) µm, expected (25, 50)`);
  * ```
  */
 export function pxToUm(pointPx: Vec2, mpp: Mpp): Vec2 {
@@ -54,9 +55,9 @@ export function pxToUm(pointPx: Vec2, mpp: Mpp): Vec2 {
  *
  * @example
  * ```ts
- * import { umToPx } from "./units.ts";
+ * import { umToPx } from "hotfield";
  * const [x, y] = umToPx([25, 50], { mppX: 0.25, mppY: 0.5 });
- * if (x !== 100 || y !== 100) throw new Error();
+ * if (x !== 100 || y !== 100) throw new Error(`(25, 50) µm is (${x}, ${y}) px, expected (100, 100)`);
  * ```
  */
 export function umToPx(pointUm: Vec2, mpp: Mpp): Vec2 {

@@ -92,7 +92,7 @@ const WHAT = "annotations";
  *
  * @example Reading a tissue square and two figures
  * ```ts
- * import { parseAnnotations } from "./read_annotations.ts";
+ * import { parseAnnotations } from "hotfield";
  * const text = JSON.stringify({
  *   type: "FeatureCollection",
  *   slide: { id: "QVT-24-001", mpp: 0.25 },
@@ -104,8 +104,11 @@ const WHAT = "annotations";
  *   ],
  * });
  * const a = parseAnnotations(text, { fileName: "QVT-24-001.geojson" });
- * if (a.tissue.length !== 1 || a.figures.xPx.length !== 2) throw new Error();
- * if (a.figures.labels[0] !== "mitotic figure") throw new Error();
+ * if (a.tissue.length !== 1 || a.figures.xPx.length !== 2) {
+ *   throw new Error(`${a.tissue.length} tissue parts, ${a.figures.xPx.length} figures; expected 1 and 2`);
+ * }
+ * const label = a.figures.labels[0];
+ * if (label !== "mitotic figure") throw new Error(`a figure without a label is "${label}"`);
  * ```
  */
 export function parseAnnotations(

@@ -142,7 +142,7 @@ const CASE_KEYS = [
  *
  * @example Reading the test fixture's case file
  * ```ts
- * import { readCaseFile } from "./read_case.ts";
+ * import { readCaseFile } from "hotfield";
  * import { fileURLToPath } from "node:url";
  * const path = fileURLToPath(
  *   new URL("../../test/fixtures/annotations/QVT-24-011.case.json", import.meta.url),
@@ -167,9 +167,10 @@ export async function readCaseFile(path: string): Promise<CaseInput> {
  *
  * @example Figures as a plain path
  * ```ts
- * import { parseCaseFile } from "./read_case.ts";
+ * import { parseCaseFile } from "hotfield";
  * const input = parseCaseFile('{"hotfield_case": 1, "annotations": "a.geojson", "figures": "f.csv"}', "cases/x.case.json");
- * if (input.figuresPath !== "cases/f.csv" || input.figureUnits !== "px") throw new Error();
+ * if (input.figuresPath !== "cases/f.csv") throw new Error(`paths resolve against the case file: ${input.figuresPath}`);
+ * if (input.figureUnits !== "px") throw new Error(`figure units default to px, got ${input.figureUnits}`);
  * ```
  */
 export function parseCaseFile(text: string, path: string): CaseInput {
@@ -422,14 +423,14 @@ function checkMaskMpp(
  *
  * @example Loading the test fixture's case (GeoJSON, figures CSV and mask)
  * ```ts
- * import { loadCase, readCaseFile } from "./read_case.ts";
+ * import { loadCase, readCaseFile } from "hotfield";
  * import { fileURLToPath } from "node:url";
  * const path = fileURLToPath(
  *   new URL("../../test/fixtures/annotations/QVT-24-011.case.json", import.meta.url),
  * );
  * const c = await loadCase(await readCaseFile(path));
  * if (c.caseId !== "QVT-24-011" || c.figures.xPx.length !== 4 || c.sources.length !== 4) {
- *   throw new Error();
+ *   throw new Error(`case ${c.caseId}: ${c.figures.xPx.length} figures from ${c.sources.length} files`);
  * }
  * if (c.sources.some((s) => s.sha256.length !== 64)) throw new Error("hex sha256 of each file");
  * ```

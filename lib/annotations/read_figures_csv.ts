@@ -56,10 +56,11 @@ const KNOWN = ["x", "y", "label", "score"] as const;
  *
  * @example Reading two points, one with a quoted label holding a comma
  * ```ts
- * import { parseFiguresCsv } from "./read_figures_csv.ts";
+ * import { parseFiguresCsv } from "hotfield";
  * const csv = 'x,y,label\n10,20,mitotic figure\n30,40,"atypical, tripolar"\n';
  * const { figures } = parseFiguresCsv(csv, { fileName: "f.csv", mppX: 0.25, mppY: 0.25 });
- * if (figures.xPx.length !== 2 || figures.labels[1] !== "atypical, tripolar") throw new Error();
+ * if (figures.xPx.length !== 2) throw new Error(`${figures.xPx.length} figures, expected 2`);
+ * if (figures.labels[1] !== "atypical, tripolar") throw new Error(`quoted label read as ${figures.labels[1]}`);
  * if (figures.origin[1] !== 3) throw new Error("line numbers count the header as line 1");
  * ```
  */

@@ -59,7 +59,7 @@ export interface SlideReadOptions {
  *   what: "annotations",
  *   fileName: "QVT-24-001.geojson",
  * });
- * if (s.mppX !== 0.25 || s.mppY !== 0.5 || s.widthPx !== 1000) throw new Error();
+ * if (s.mppX !== 0.25 || s.mppY !== 0.5 || s.widthPx !== 1000) throw new Error(`slide ${JSON.stringify(s)}`);
  * ```
  */
 export function parseSlideInfo(raw: unknown, options: SlideReadOptions): SlideInfo {
@@ -157,9 +157,11 @@ function checkSlideMpp(
  *
  * @example The case file corrects the mpp
  * ```ts
- * import { mergeSlideMembers } from "./slide_info.ts";
- * const { member, warnings } = mergeSlideMembers({ id: "a", mpp: 0.5 }, { mpp: 0.25 });
- * if ((member as { mpp: number }).mpp !== 0.25 || warnings.length !== 1) throw new Error();
+ * import { mergeSlideMembers, parseSlideInfo } from "./slide_info.ts";
+ * const { member, warnings } = mergeSlideMembers({ id: "QVT-24-001", mpp: 0.5 }, { mpp: 0.25 });
+ * const slide = parseSlideInfo(member, { what: "annotations", fileName: "QVT-24-001.geojson" });
+ * if (slide.mppX !== 0.25) throw new Error(`merged mpp ${slide.mppX}, expected the case file's 0.25`);
+ * if (warnings.length !== 1) throw new Error(`${warnings.length} warnings, expected one for the changed mpp`);
  * ```
  */
 export function mergeSlideMembers(

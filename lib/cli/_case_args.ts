@@ -57,7 +57,9 @@ const MAX_CASE_FILE_BYTES = 1 << 20;
  * ```ts
  * import { caseInputFromOptions } from "./_case_args.ts";
  * const input = await caseInputFromOptions("missing.geojson", { figures: "f.csv", units: "um" });
- * if (input.annotationsPath !== "missing.geojson" || input.figureUnits !== "um") throw new Error();
+ * if (input.annotationsPath !== "missing.geojson" || input.figureUnits !== "um") {
+ *   throw new Error(`input ${JSON.stringify(input)}`);
+ * }
  * ```
  */
 export async function caseInputFromOptions(file: string, values: Values): Promise<CaseInput> {
@@ -120,9 +122,9 @@ export async function caseInputFromOptions(file: string, values: Values): Promis
  * ```ts
  * import { countOptionsFromValues } from "./_case_args.ts";
  * const d = countOptionsFromValues({});
- * if (d.minScore !== 0 || d.countLabels[0] !== "mitotic figure") throw new Error();
+ * if (d.minScore !== 0 || d.countLabels[0] !== "mitotic figure") throw new Error(`defaults ${JSON.stringify(d)}`);
  * const c = countOptionsFromValues({ "min-score": "0.5", "count-label": ["a", "b"] });
- * if (c.minScore !== 0.5 || c.countLabels.length !== 2) throw new Error();
+ * if (c.minScore !== 0.5 || c.countLabels.length !== 2) throw new Error(`options ${JSON.stringify(c)}`);
  * ```
  */
 export function countOptionsFromValues(

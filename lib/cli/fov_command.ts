@@ -48,7 +48,9 @@ Exit codes: 0 success, 2 bad options.
  * const out: string[] = [];
  * await run(["--fn", "22", "--objective", "40", "--json"], { stdout: (s) => out.push(s), stderr: () => {} });
  * const j = JSON.parse(out.join(""));
- * if (Math.abs(j.diameter_mm - 0.55) > 1e-12 || j.fields_for_target_rounded !== 10) throw new Error();
+ * if (Math.abs(j.diameter_mm - 0.55) > 1e-12 || j.fields_for_target_rounded !== 10) {
+ *   throw new Error(`FN 22 at 40×: ${j.diameter_mm} mm, ${j.fields_for_target_rounded} fields for 2.37 mm²`);
+ * }
  * ```
  */
 export function run(args: string[], io: CommandIo): Promise<number> {

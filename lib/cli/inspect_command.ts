@@ -44,7 +44,7 @@ Exit codes: 0 read fine (warnings may be listed), 1 bad input, 2 bad options.
  * import { run } from "./inspect_command.ts";
  * const out: string[] = [];
  * const code = await run(["--help"], { stdout: (s) => out.push(s), stderr: () => {} });
- * if (code !== 0 || !out.join("").startsWith("Usage: hotfield inspect")) throw new Error();
+ * if (code !== 0 || !out.join("").startsWith("Usage: hotfield inspect")) throw new Error(`exit ${code}: ${out.join("")}`);
  * ```
  */
 export async function run(args: string[], io: CommandIo): Promise<number> {

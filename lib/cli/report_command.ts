@@ -103,10 +103,10 @@ type Values = Record<string, string | boolean | string[] | undefined>;
  * ```ts
  * import { reportOptionsFromValues } from "./report_command.ts";
  * const o = reportOptionsFromValues({ aspect: "16:9", top: "0" });
- * if (o.aspect?.[0] !== 16 || o.top !== 0) throw new Error();
+ * if (o.aspect?.[0] !== 16 || o.top !== 0) throw new Error(`options ${JSON.stringify(o)}`);
  * let failed = false;
  * try { reportOptionsFromValues({ area: "-1" }); } catch { failed = true; }
- * if (!failed) throw new Error();
+ * if (!failed) throw new Error("a negative --area must be refused");
  * ```
  */
 export function reportOptionsFromValues(values: Values): ReportOptions {
@@ -200,7 +200,7 @@ function formatsFromValue(raw: unknown): OutputFormat[] {
  * import { run } from "./report_command.ts";
  * const out: string[] = [];
  * const code = await run(["--help"], { stdout: (s) => out.push(s), stderr: () => {} });
- * if (code !== 0 || !out.join("").startsWith("Usage: hotfield report")) throw new Error();
+ * if (code !== 0 || !out.join("").startsWith("Usage: hotfield report")) throw new Error(`exit ${code}: ${out.join("")}`);
  * ```
  */
 export async function run(args: string[], io: CommandIo): Promise<number> {

@@ -68,7 +68,7 @@ export function schemeToJson(s: GradingScheme): Record<string, unknown> {
  * const out: string[] = [];
  * await run(["--json"], { stdout: (s) => out.push(s), stderr: () => {} });
  * const j = JSON.parse(out.join(""));
- * if (!j.schemes.some((s: { id: string }) => s.id === "nen-who")) throw new Error();
+ * if (!j.schemes.some((s: { id: string }) => s.id === "nen-who")) throw new Error("nen-who is missing from --json");
  * ```
  */
 export function run(args: string[], io: CommandIo): Promise<number> {

@@ -58,19 +58,23 @@ const AREA_TOLERANCE = 0.05;
  *
  * @example A point field on the only figure
  * ```ts
- * import { checkFields } from "./check_fields.ts";
- * import { makeWindow } from "./make_window.ts";
- * const sq = [[[0, 0], [4000, 0], [4000, 4000], [0, 4000], [0, 0]]] as [number, number][][];
- * const prepared = {
- *   validUm: [sq], slide: { id: "QVT-24-001", mppX: 1, mppY: 1 },
- *   xUm: new Float64Array([2000]), yUm: new Float64Array([2000]),
- *   fields: [{ reader: "reader-a", kind: "point", centerPx: [2000, 2000], featureIndex: 4 }],
- * };
- * const map = { counts: new Int32Array([0, 0, 1, 0]), admissible: new Uint8Array([1, 1, 1, 1]) };
- * const w = makeWindow({ areaMm2: 1, aspect: [1, 1] });
- * // deno-lint-ignore no-explicit-any
- * const [f] = checkFields(prepared as any, map as any, null, w);
- * if (f.count !== 1 || f.coverage !== 1 || f.percentile !== 87.5) throw new Error(JSON.stringify(f));
+ * import { checkFields, computeCountMap, makeWindow, parseAnnotations, prepareCase } from "hotfield";
+ * // A 4 × 4 mm tissue square at 1 µm/px, one figure in the middle and a reader's field on it.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 4000], [0, 4000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 2000]] } },
+ *     { type: "Feature", properties: { role: "field", reader: "reader-a" }, geometry: { type: "Point", coordinates: [2000, 2000] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const prepared = prepareCase({ caseId: "QVT-24-001", ...parsed, sources: [] });
+ * const window = makeWindow({ areaMm2: 1, aspect: [1, 1] });
+ * const map = computeCountMap(prepared, window, { strideUm: 500 });
+ * const [field] = checkFields(prepared, map, null, window);
+ * if (field.count !== 1 || field.coverage !== 1) throw new Error(`count ${field.count}, coverage ${field.coverage}`);
+ * // 40 of the 49 positions hold 0 figures and 9 hold 1: (40 + 9/2) / 49 = 90.8%.
+ * if (Math.abs(field.percentile! - 100 * 44.5 / 49) > 1e-9) throw new Error(`percentile ${field.percentile}`);
  * ```
  */
 export function checkFields(

@@ -55,9 +55,9 @@ export const BYTES_PER_GRID_CELL = 40;
  * @example An empty region gives a single-cell grid
  * ```ts
  * import { planCountGrid } from "./compute_count_map.ts";
- * import { makeWindow } from "./make_window.ts";
+ * import { makeWindow } from "hotfield";
  * const plan = planCountGrid([], makeWindow({}), 25, 0.95);
- * if (plan.cells !== 1) throw new Error();
+ * if (plan.cells !== 1) throw new Error(`an empty region plans ${plan.cells} cells, not 1`);
  * ```
  */
 export function planCountGrid(
@@ -102,15 +102,19 @@ export function planCountGrid(
  *
  * @example A 2 × 2 mm square of tissue with one figure in the middle
  * ```ts
- * import { computeCountMap } from "./compute_count_map.ts";
- * import { makeWindow } from "./make_window.ts";
- * const square = [[[0, 0], [2000, 0], [2000, 2000], [0, 2000], [0, 0]]] as [number, number][][];
- * const prepared = { validUm: [square], xUm: new Float64Array([1000]), yUm: new Float64Array([1000]) };
- * // deno-lint-ignore no-explicit-any
- * const map = computeCountMap(prepared as any, makeWindow({ areaMm2: 1, aspect: [1, 1] }), { strideUm: 100 });
+ * import { computeCountMap, makeWindow, parseAnnotations, prepareCase } from "hotfield";
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [2000, 0], [2000, 2000], [0, 2000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[1000, 1000]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const prepared = prepareCase({ caseId: "QVT-24-001", ...parsed, sources: [] });
+ * const map = computeCountMap(prepared, makeWindow({ areaMm2: 1, aspect: [1, 1] }), { strideUm: 100 });
  * const k = 11 * map.grid.nx + 11; // centre (1000, 1000); the grid starts at −100
  * if (map.counts[k] !== 1 || Math.abs(map.coverage[k] - 1) > 1e-6 || map.positions !== 121 || map.grid.nx !== 23) {
- *   throw new Error(`${map.counts[k]} ${map.coverage[k]} ${map.positions}`);
+ *   throw new Error(`count ${map.counts[k]}, coverage ${map.coverage[k]}, ${map.positions} positions`);
  * }
  * ```
  */

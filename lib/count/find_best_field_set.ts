@@ -51,7 +51,8 @@ export interface BestFieldSet {
  * @example
  * ```ts
  * import { bestFieldGuarantee } from "./find_best_field_set.ts";
- * if (!bestFieldGuarantee("circle").includes("1/5")) throw new Error();
+ * const words = bestFieldGuarantee("circle");
+ * if (!words.includes("1/5")) throw new Error(`the circle guarantee should name its 1/5 bound: ${words}`);
  * ```
  */
 export function bestFieldGuarantee(shape: "rect" | "circle"): string {
@@ -91,15 +92,17 @@ export function bestFieldGuarantee(shape: "rect" | "circle"): string {
  *
  * @example Two fields on a strip of figures
  * ```ts
- * import { findBestFieldSet } from "./find_best_field_set.ts";
- * const sq = [[[0, 0], [4000, 0], [4000, 2000], [0, 2000], [0, 0]]] as [number, number][][];
- * const prepared = {
- *   validUm: [sq], slide: { id: "QVT-24-001", mppX: 1, mppY: 1 },
- *   xUm: new Float64Array([1000, 1010, 3000]), yUm: new Float64Array([1000, 1000, 1000]),
- * };
- * // deno-lint-ignore no-explicit-any
- * const set = findBestFieldSet(prepared as any, { n: 2, strideUm: 50 });
- * if (set.fields.length !== 2 || set.total !== 3) throw new Error(JSON.stringify(set.fields));
+ * import { findBestFieldSet, parseAnnotations, prepareCase } from "hotfield";
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 2000], [0, 2000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[1000, 1000], [1010, 1000], [3000, 1000]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const prepared = prepareCase({ caseId: "QVT-24-001", ...parsed, sources: [] });
+ * const set = findBestFieldSet(prepared, { n: 2, strideUm: 50 });
+ * if (set.fields.length !== 2 || set.total !== 3) throw new Error(`${set.fields.length} fields, total ${set.total}`);
  * ```
  */
 export function findBestFieldSet(

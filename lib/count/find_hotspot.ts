@@ -72,20 +72,18 @@ export interface FindHotspotOptions {
  *
  * @example Three figures, the best 1 × 1 mm window holds two
  * ```ts
- * import { findHotspot } from "./find_hotspot.ts";
- * import { computeCountMap } from "./compute_count_map.ts";
- * import { makeWindow } from "./make_window.ts";
- * const sq = [[[0, 0], [5000, 0], [5000, 5000], [0, 5000], [0, 0]]] as [number, number][][];
- * const prepared = {
- *   validUm: [sq], slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
- *   xUm: new Float64Array([1000, 1990, 4000]), yUm: new Float64Array([1000, 1990, 1000]),
- * };
- * const w = makeWindow({ areaMm2: 1, aspect: [1, 1] });
- * // deno-lint-ignore no-explicit-any
- * const map = computeCountMap(prepared as any, w, { strideUm: 250 });
- * // deno-lint-ignore no-explicit-any
- * const h = findHotspot(prepared as any, map);
- * if (!h || h.count !== 2 || h.coverage !== 1) throw new Error(JSON.stringify(h));
+ * import { computeCountMap, findHotspot, makeWindow, parseAnnotations, prepareCase } from "hotfield";
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [5000, 0], [5000, 5000], [0, 5000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[1000, 1000], [1990, 1990], [4000, 1000]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const prepared = prepareCase({ caseId: "QVT-24-001", ...parsed, sources: [] });
+ * const map = computeCountMap(prepared, makeWindow({ areaMm2: 1, aspect: [1, 1] }), { strideUm: 250 });
+ * const hotspot = findHotspot(prepared, map);
+ * if (hotspot?.count !== 2 || hotspot.coverage !== 1) throw new Error(`hotspot ${JSON.stringify(hotspot)}`);
  * ```
  */
 export function findHotspot(

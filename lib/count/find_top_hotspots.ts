@@ -33,20 +33,19 @@ export interface FindTopHotspotsOptions {
  *
  * @example Two clusters, two windows
  * ```ts
- * import { findTopHotspots } from "./find_top_hotspots.ts";
- * import { computeCountMap } from "./compute_count_map.ts";
- * import { makeWindow } from "./make_window.ts";
- * const sq = [[[0, 0], [6000, 0], [6000, 3000], [0, 3000], [0, 0]]] as [number, number][][];
- * const prepared = {
- *   validUm: [sq], slide: { id: "QVT-24-001", mppX: 1, mppY: 1 },
- *   xUm: new Float64Array([1000, 1100, 1200, 4000, 4100]),
- *   yUm: new Float64Array([1500, 1500, 1500, 1400, 1400]),
- * };
- * // deno-lint-ignore no-explicit-any
- * const map = computeCountMap(prepared as any, makeWindow({ areaMm2: 1, aspect: [1, 1] }), { strideUm: 200 });
- * // deno-lint-ignore no-explicit-any
- * const top = findTopHotspots(prepared as any, map, 2);
- * if (top.length !== 2 || top[0].count !== 3 || top[1].count !== 2) throw new Error();
+ * import { computeCountMap, findTopHotspots, makeWindow, parseAnnotations, prepareCase } from "hotfield";
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [6000, 0], [6000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[1000, 1500], [1100, 1500], [1200, 1500], [4000, 1400], [4100, 1400]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const prepared = prepareCase({ caseId: "QVT-24-001", ...parsed, sources: [] });
+ * const map = computeCountMap(prepared, makeWindow({ areaMm2: 1, aspect: [1, 1] }), { strideUm: 200 });
+ * const top = findTopHotspots(prepared, map, 2);
+ * const counts = top.map((p) => p.count).join();
+ * if (counts !== "3,2") throw new Error(`top window counts ${counts}, expected 3,2`);
  * ```
  */
 export function findTopHotspots(

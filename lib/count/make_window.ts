@@ -35,14 +35,16 @@ export interface MakeWindowOptions {
  *
  * @example The default window is 1777.6 × 1333.2 µm
  * ```ts
- * import { makeWindow } from "./make_window.ts";
+ * import { makeWindow } from "hotfield";
  * const w = makeWindow({});
- * if (w.shape !== "rect") throw new Error();
+ * if (w.shape !== "rect") throw new Error(`default shape ${w.shape}, expected rect`);
  * if (Math.abs(w.widthUm - 1777.6) > 0.05 || Math.abs(w.heightUm - 1333.2) > 0.05) {
  *   throw new Error(`${w.widthUm} × ${w.heightUm}`);
  * }
  * const c = makeWindow({ shape: "circle" });
- * if (c.shape !== "circle" || Math.abs(c.diameterUm - 1737.1) > 0.05) throw new Error();
+ * if (c.shape !== "circle" || Math.abs(c.diameterUm - 1737.1) > 0.05) {
+ *   throw new Error(`a 2.37 mm² circle should be 1737.1 µm across: ${JSON.stringify(c)}`);
+ * }
  * ```
  */
 export function makeWindow(options: MakeWindowOptions = {}): WindowShape {

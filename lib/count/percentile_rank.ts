@@ -15,9 +15,11 @@
  *
  * @example
  * ```ts
- * import { percentileRank } from "./percentile_rank.ts";
- * if (percentileRank([0, 4], 1) !== 50 || percentileRank([1, 1], 5) !== 100) throw new Error();
- * if (percentileRank([], 3) !== null) throw new Error();
+ * import { percentileRank } from "hotfield";
+ * const tied = percentileRank([0, 4], 1), above = percentileRank([1, 1], 5);
+ * if (tied !== 50) throw new Error(`a count equal to every position's ranks ${tied}, expected 50`);
+ * if (above !== 100) throw new Error(`a count above every position's ranks ${above}, expected 100`);
+ * if (percentileRank([], 3) !== null) throw new Error("no positions must give null");
  * ```
  */
 export function percentileRank(histogram: ArrayLike<number>, count: number): number | null {

@@ -36,20 +36,23 @@ export interface PrepareCaseOptions {
  *
  * @example One counted figure in a 1 × 1 mm tissue square at 0.5 µm/px
  * ```ts
- * import { prepareCase } from "./prepare_case.ts";
- * const sq = [[[0, 0], [2000, 0], [2000, 2000], [0, 2000], [0, 0]]] as [number, number][][];
- * const p = prepareCase({
+ * import { type CaseData, type PolygonPx, prepareCase } from "hotfield";
+ * const square: PolygonPx = [[[0, 0], [2000, 0], [2000, 2000], [0, 2000], [0, 0]]];
+ * const caseData: CaseData = {
  *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
- *   tissue: [{ polygons: [sq], source: "example" }], tumour: [], exclude: [],
+ *   tissue: [{ polygons: [square], source: "example" }], tumour: [], exclude: [],
  *   figures: {
  *     xPx: new Float64Array([1000, 3000]), yPx: new Float64Array([1000, 10]),
  *     labelIndex: new Uint32Array([0, 0]), labels: ["mitotic figure"],
  *     score: new Float64Array([NaN, NaN]), origin: new Int32Array([1, 2]),
  *   },
  *   fields: [], sources: [], warnings: [],
- * }, {});
- * if (p.xUm.length !== 1 || p.xUm[0] !== 500 || Math.abs(p.validAreaMm2 - 1) > 1e-12) throw new Error();
- * if (p.tally.outside_valid !== 1) throw new Error();
+ * };
+ * const p = prepareCase(caseData);
+ * // 2000 px at 0.5 µm/px is 1 mm: one figure inside (at 500 µm), one outside.
+ * if (p.xUm.length !== 1 || p.xUm[0] !== 500) throw new Error(`counted figures at ${p.xUm.join()} µm`);
+ * if (Math.abs(p.validAreaMm2 - 1) > 1e-12) throw new Error(`valid area ${p.validAreaMm2} mm²`);
+ * if (p.tally.outside_valid !== 1) throw new Error(`${p.tally.outside_valid} outside, expected 1`);
  * ```
  */
 export function prepareCase(caseData: CaseData, options: PrepareCaseOptions = {}): PreparedCase {

@@ -115,7 +115,7 @@ export interface ScanTestResult {
  *
  * @example A strong focus in one corner
  * ```ts
- * import { scanTest } from "./scan_test.ts";
+ * import { scanTest } from "hotfield";
  * const grid = { x0Um: 50, y0Um: 50, strideUm: 100, nx: 10, ny: 10 };
  * const counts = new Int32Array(100); counts[0] = 40;
  * const r = scanTest({

@@ -38,7 +38,9 @@ import { exactRange } from "./_index_range.ts";
  *   { x0Um: 0, y0Um: 0, strideUm: 1, nx: 4, ny: 4 },
  * );
  * // centre (2, 2) holds all three (two of them on its edge)
- * if (counts[2 * 4 + 2] !== 3 || counts[0] !== 1 || counts[3] !== 1) throw new Error();
+ * if (counts[2 * 4 + 2] !== 3 || counts[0] !== 1 || counts[3] !== 1) {
+ *   throw new Error(`counts at (2, 2), (0, 0), (3, 0): ${counts[10]}, ${counts[0]}, ${counts[3]}`);
+ * }
  * ```
  */
 export function stampWindowCounts(

@@ -57,7 +57,8 @@ export function makeStrideGrid(
  * @example
  * ```ts
  * import { strideGridSize } from "./stride_grid.ts";
- * if (strideGridSize([0, 0, 100, 100], 10) !== 121) throw new Error();
+ * const cells = strideGridSize([0, 0, 100, 100], 10);
+ * if (cells !== 121) throw new Error(`11 × 11 centres expected, got ${cells}`);
  * ```
  */
 export function strideGridSize(

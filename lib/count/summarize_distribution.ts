@@ -40,14 +40,14 @@ export interface Distribution {
  *
  * @example
  * ```ts
- * import { summarizeDistribution } from "./summarize_distribution.ts";
- * const map = {
+ * import { summarizeDistribution } from "hotfield";
+ * // Five positions; the last (count 9) is not admissible and does not count.
+ * const d = summarizeDistribution({
  *   counts: new Int32Array([0, 1, 1, 3, 9]), admissible: new Uint8Array([1, 1, 1, 1, 0]),
- *   positions: 4,
- * };
- * // deno-lint-ignore no-explicit-any
- * const d = summarizeDistribution(map as any);
- * if (d.median !== 1 || d.q3 !== 1.5 || d.max !== 3 || d.mean !== 1.25) throw new Error();
+ * });
+ * if (d.median !== 1 || d.q3 !== 1.5 || d.max !== 3 || d.mean !== 1.25) {
+ *   throw new Error(`median ${d.median}, q3 ${d.q3}, max ${d.max}, mean ${d.mean}`);
+ * }
  * ```
  */
 export function summarizeDistribution(

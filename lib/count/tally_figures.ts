@@ -50,8 +50,10 @@ export interface TallyFiguresOptions {
  * };
  * const { tally, counted } = tallyFigures(figures, Uint8Array.of(1, 1, 0, 1), { minScore: 0.5 });
  * // point 0 counted; point 1 below score; point 2 (no score passes) outside; point 3 other label
- * if (tally.total !== 4 || tally.counted !== 1 || tally.below_score !== 1) throw new Error();
- * if (tally.outside_valid !== 1 || tally.by_label["mimic"] !== 1 || counted[0] !== 1) throw new Error();
+ * if (tally.total !== 4 || tally.counted !== 1 || tally.below_score !== 1 || tally.outside_valid !== 1) {
+ *   throw new Error(`tally ${JSON.stringify(tally)}`);
+ * }
+ * if (tally.by_label["mimic"] !== 1 || counted.join() !== "1,0,0,0") throw new Error(`counted ${counted}`);
  * ```
  */
 export function tallyFigures(

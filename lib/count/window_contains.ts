@@ -26,7 +26,7 @@ export interface WindowExtents {
  * ```ts
  * import { windowExtents } from "./window_contains.ts";
  * const e = windowExtents({ shape: "rect", areaMm2: 0.5, widthUm: 1000, heightUm: 500, aspect: [2, 1] });
- * if (e.halfX !== 500 || e.halfY !== 250 || e.areaUm2 !== 500000) throw new Error();
+ * if (e.halfX !== 500 || e.halfY !== 250 || e.areaUm2 !== 500000) throw new Error(`extents ${JSON.stringify(e)}`);
  * ```
  */
 export function windowExtents(window: WindowShape): WindowExtents {
@@ -79,7 +79,7 @@ export function windowContains(
  * import { countInWindow } from "./window_contains.ts";
  * const w = { shape: "circle" as const, areaMm2: Math.PI * 1e-6, diameterUm: 2 };
  * const n = countInWindow(new Float64Array([0, 1, 2]), new Float64Array([0, 0, 0]), w, 0, 0);
- * if (n !== 2) throw new Error();
+ * if (n !== 2) throw new Error(`${n} figures in the closed circle, expected 2 (one on its edge)`);
  * ```
  */
 export function countInWindow(

@@ -56,8 +56,9 @@ const LABELS = ["mitotic figure", "apoptotic body", "pyknotic nucleus", "hyperch
  * ```ts
  * import { generateBenchSlide } from "./bench_slide.ts";
  * const s = generateBenchSlide(1, { figures: 1000, tissueVertices: 500, holes: 3 });
- * if (s.figures.xPx.length !== 1000 || s.tissue.length !== 4) throw new Error();
- * if (s.slide.width !== 120000 || s.slide.height !== 80000) throw new Error();
+ * if (s.figures.xPx.length !== 1000) throw new Error(`${s.figures.xPx.length} figures, expected 1000`);
+ * if (s.tissue.length !== 4) throw new Error(`${s.tissue.length} tissue rings, expected the outline and 3 holes`);
+ * if (s.slide.width !== 120000 || s.slide.height !== 80000) throw new Error(`slide ${s.slide.width} × ${s.slide.height} px`);
  * ```
  */
 export function generateBenchSlide(seed: number, options: BenchSlideOptions = {}): BenchSlide {
@@ -162,7 +163,7 @@ export function generateBenchSlide(seed: number, options: BenchSlideOptions = {}
  * const s = generateBenchSlide(1, { figures: 10, tissueVertices: 100, holes: 1 });
  * const fc = JSON.parse(benchSlideGeoJson(s, { tissueOnly: true }));
  * if (fc.features.some((f: { properties: { role: string } }) => f.properties.role === "tumour")) {
- *   throw new Error();
+ *   throw new Error("the tissue-only variant must have no tumour feature");
  * }
  * ```
  */

@@ -116,7 +116,9 @@ export interface DemoCase {
  * ```ts
  * import { generateDemoCohort } from "./demo_cohort.ts";
  * const cohort = generateDemoCohort();
- * if (cohort.length !== 8 || cohort[0].annotations.slide.id !== "QVT-24-001") throw new Error();
+ * if (cohort.length !== 8 || cohort[0].annotations.slide.id !== "QVT-24-001") {
+ *   throw new Error(`${cohort.length} cases, first ${cohort[0]?.annotations.slide.id}`);
+ * }
  * ```
  */
 export function generateDemoCohort(seed: number = DEMO_SEED): DemoCase[] {

@@ -89,7 +89,8 @@ export function maskPngBytes(mask: DemoMask): Uint8Array {
  * @example
  * ```ts
  * import { demoFileNames } from "./demo_files.ts";
- * if (demoFileNames("QVT-24-007").tissueMask !== "QVT-24-007.tissue.png") throw new Error();
+ * const mask = demoFileNames("QVT-24-007").tissueMask;
+ * if (mask !== "QVT-24-007.tissue.png") throw new Error(`mask file ${mask}`);
  * ```
  */
 export function demoFileNames(caseId: string): {
@@ -113,11 +114,13 @@ export function demoFileNames(caseId: string): {
  *
  * @example A mask case names the mask's own scale
  * ```ts
+ * import { parseCaseFile } from "hotfield";
  * import { generateDemoCohort } from "./demo_cohort.ts";
  * import { caseFileObject } from "./demo_files.ts";
  * const c = generateDemoCohort().find((c) => c.tissueMask)!;
- * const file = caseFileObject(c) as { tissue_mask: { mpp: number } };
- * if (file.tissue_mask.mpp !== 16) throw new Error();
+ * // Read back as hotfield reads case files.
+ * const input = parseCaseFile(JSON.stringify(caseFileObject(c)), `${c.caseId}.case.json`);
+ * if (input.maskMpp !== 16) throw new Error(`mask mpp ${input.maskMpp}, expected 16 µm per mask pixel`);
  * ```
  */
 export function caseFileObject(c: DemoCase): Record<string, unknown> {
@@ -145,7 +148,7 @@ export function caseFileObject(c: DemoCase): Record<string, unknown> {
  * import { generateDemoCohort } from "./demo_cohort.ts";
  * import { demoCohortFiles } from "./demo_files.ts";
  * const files = demoCohortFiles(generateDemoCohort());
- * if (!files.some((f) => f.path === "QVT-24-008.geojson")) throw new Error();
+ * if (!files.some((f) => f.path === "QVT-24-008.geojson")) throw new Error("QVT-24-008.geojson is missing");
  * ```
  */
 export function demoCohortFiles(cohort: DemoCase[], seed: number = DEMO_SEED): DemoFile[] {
@@ -182,7 +185,7 @@ function mppText(mpp: number | [number, number]): string {
  * ```ts
  * import { generateDemoCohort } from "./demo_cohort.ts";
  * import { demoReadme } from "./demo_files.ts";
- * if (!demoReadme(generateDemoCohort(3), 3).includes("seed 3")) throw new Error();
+ * if (!demoReadme(generateDemoCohort(3), 3).includes("seed 3")) throw new Error("the README must name its seed");
  * ```
  */
 export function demoReadme(cohort: DemoCase[], seed: number = DEMO_SEED): string {

@@ -34,11 +34,11 @@ import { DEFAULT_SEED, DEFAULT_SIMULATIONS } from "../defaults.ts";
  *
  * @example The committed demo folder holds eight cases
  * ```ts
- * import { demoCaseInputs } from "./run_demo.ts";
+ * import { demoCaseInputs } from "hotfield";
  * import { fileURLToPath } from "node:url";
  * const inputs = await demoCaseInputs(fileURLToPath(new URL("../../data/demo/", import.meta.url)));
  * if (inputs.length !== 8 || !inputs[6].tissueMaskPath?.endsWith("QVT-24-007.tissue.png")) {
- *   throw new Error();
+ *   throw new Error(`${inputs.length} cases; the seventh's mask: ${inputs[6]?.tissueMaskPath}`);
  * }
  * ```
  */
@@ -77,12 +77,17 @@ export interface RunDemoOptions {
  *
  * @example A case with no admissible window
  * ```ts
+ * import { buildCaseResult, parseAnnotations } from "hotfield";
  * import { summaryLine } from "./run_demo.ts";
- * import type { CaseResult } from "../pipeline/case_result.ts";
- * const line = summaryLine({
- *   report: { case: "QVT-24-005", hotspot: null, valid_area_mm2: 0.83, window: { area_mm2: 2.37 } },
- * } as unknown as CaseResult);
- * if (!line.includes("no admissible 2.37 mm² window")) throw new Error(line);
+ * // A 1 × 0.8 mm biopsy at 1 µm/px: smaller than the 2.37 mm² window.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-005", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [1000, 0], [1000, 800], [0, 800], [0, 0]]] } },
+ *   ],
+ * }), { fileName: "QVT-24-005.geojson" });
+ * const line = summaryLine(buildCaseResult({ caseId: "QVT-24-005", ...parsed, sources: [] }, { bestN: 0 }));
+ * if (!line.includes("no admissible 2.37 mm² window (valid area 0.80 mm²)")) throw new Error(`summary: ${line}`);
  * ```
  */
 export function summaryLine(result: CaseResult): string {
@@ -117,7 +122,9 @@ export function summaryLine(result: CaseResult): string {
  *   const outDir = Deno.makeTempDirSync();
  *   const dataDir = fileURLToPath(new URL("../../data/demo/", import.meta.url));
  *   const { results } = await runDemo({ dataDir, outDir, simulations: 0, print: () => {} });
- *   if (results.length !== 8 || results[4].hotspot !== null) throw new Error();
+ *   if (results.length !== 8 || results[4].hotspot !== null) {
+ *     throw new Error(`${results.length} results; QVT-24-005 (too small) has no hotspot`);
+ *   }
  *   Deno.removeSync(outDir, { recursive: true });
  * }
  * ```

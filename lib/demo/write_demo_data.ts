@@ -25,7 +25,7 @@ import { demoCohortFiles } from "./demo_files.ts";
  * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
  *   const dir = Deno.makeTempDirSync();
  *   const paths = writeDemoData(dir);
- *   if (!paths.some((p) => p.endsWith("README.md"))) throw new Error();
+ *   if (!paths.some((p) => p.endsWith("README.md"))) throw new Error(`no README among ${paths.length} files`);
  *   Deno.removeSync(dir, { recursive: true });
  * }
  * ```

@@ -62,10 +62,17 @@ const session = { plotlyInlined: false, nextId: 1 };
  * Forgets that plotly.js was sent, so the next plot inlines it again (use
  * after clearing all outputs or reloading the page).
  *
- * @example
+ * @example After a reset the next plot carries plotly.js again
  * ```ts
- * import { resetPlotlyInlining } from "./show.ts";
+ * import { plotlyMimeBundle, resetPlotlyInlining } from "./show.ts";
+ * const figure = { data: [], layout: {}, caption: "" };
+ * const options = { inlinePlotly: "once" as const, plotlyJs: "// plotly.js stand-in" };
+ * const html = () => String(plotlyMimeBundle(figure, options)["text/html"]);
  * resetPlotlyInlining();
+ * if (!html().includes("plotly.js stand-in")) throw new Error("the first plot must inline plotly.js");
+ * if (html().includes("plotly.js stand-in")) throw new Error("later plots reuse the first copy");
+ * resetPlotlyInlining();
+ * if (!html().includes("plotly.js stand-in")) throw new Error("after a reset plotly.js is inlined again");
  * ```
  */
 export function resetPlotlyInlining(): void {
@@ -92,8 +99,9 @@ function inlineSafe(source: string): string {
  *   { inlinePlotly: "never" },
  * );
  * const json = b["application/vnd.plotly.v1+json"] as { data: unknown[] };
- * if (json.data.length !== 1 || typeof b["text/html"] !== "string") throw new Error();
- * if (b["text/plain"] !== "one bar") throw new Error();
+ * if (json.data.length !== 1) throw new Error(`${json.data.length} traces in the plotly bundle`);
+ * if (typeof b["text/html"] !== "string") throw new Error("no HTML fallback");
+ * if (b["text/plain"] !== "one bar") throw new Error(`plain text: ${b["text/plain"]}`);
  * ```
  */
 export function plotlyMimeBundle(figure: PlotFigure, options: ShowPlotOptions = {}): MimeBundle {
@@ -134,20 +142,21 @@ function displayable(bundle: () => MimeBundle): Displayable {
  *
  * @example The bundle holds the heatmap
  * ```ts
- * import { JUPYTER_DISPLAY, showCountMap } from "./show.ts";
- * const result = {
- *   report: { case: "QVT-24-001", fields: [], classification: null },
- *   prepared: { slide: { id: "s", mppX: 1, mppY: 1 }, validPx: [], excludePx: [], fields: [] },
- *   window: { shape: "circle", areaMm2: 0.001, diameterUm: 35.7 },
- *   map: { grid: { x0Um: 0, y0Um: 0, strideUm: 10, nx: 1, ny: 1 }, counts: new Int32Array(1),
- *     admissible: new Uint8Array([1]), minCoverage: 0.95 },
- *   hotspot: null, top: [], bestFields: [], bestFieldWindow: null,
- * };
- * const shown = showCountMap(result as never, { inlinePlotly: "never" });
+ * import { buildCaseResult, JUPYTER_DISPLAY, parseAnnotations, showCountMap } from "hotfield";
+ * // A 4 × 3 mm tissue piece at 1 µm/px with three figures.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const result = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * const shown = showCountMap(result, { inlinePlotly: "never" });
  * const json = shown[JUPYTER_DISPLAY]()["application/vnd.plotly.v1+json"] as {
  *   data: { type: string }[];
  * };
- * if (json.data[0].type !== "heatmap") throw new Error();
+ * if (json.data[0].type !== "heatmap") throw new Error(`first trace ${json.data[0].type}, expected heatmap`);
  * ```
  */
 export function showCountMap(
@@ -163,12 +172,19 @@ export function showCountMap(
  *
  * @example
  * ```ts
- * import { JUPYTER_DISPLAY, showDistribution } from "./show.ts";
- * const shown = showDistribution({
- *   report: { case: "QVT-24-001", fields: [], classification: null },
- *   map: { counts: new Int32Array([1, 2]), admissible: new Uint8Array([1, 1]) }, hotspot: null,
- * } as never, { inlinePlotly: "never" });
- * if (typeof shown[JUPYTER_DISPLAY] !== "function") throw new Error();
+ * import { buildCaseResult, JUPYTER_DISPLAY, parseAnnotations, showDistribution } from "hotfield";
+ * // A 4 × 3 mm tissue piece at 1 µm/px with three figures.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const result = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * const bundle = showDistribution(result, { inlinePlotly: "never" })[JUPYTER_DISPLAY]();
+ * const json = bundle["application/vnd.plotly.v1+json"] as { data: { type: string }[] };
+ * if (json.data[0].type !== "bar") throw new Error(`first trace ${json.data[0].type}, expected bar`);
  * ```
  */
 export function showDistribution(result: CaseResult, options: ShowPlotOptions = {}): Displayable {
@@ -180,11 +196,19 @@ export function showDistribution(result: CaseResult, options: ShowPlotOptions = 
  *
  * @example
  * ```ts
- * import { JUPYTER_DISPLAY, showCohort } from "./show.ts";
- * const shown = showCohort([{ report: { case: "QVT-24-001", hotspot: null, classification: null } }] as never, {
- *   inlinePlotly: "never",
- * });
- * if (!("application/vnd.plotly.v1+json" in shown[JUPYTER_DISPLAY]())) throw new Error();
+ * import { buildCaseResult, JUPYTER_DISPLAY, parseAnnotations, showCohort } from "hotfield";
+ * // A 4 × 3 mm tissue piece at 1 µm/px with three figures.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const result = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * const bundle = showCohort([result], { inlinePlotly: "never" })[JUPYTER_DISPLAY]();
+ * const json = bundle["application/vnd.plotly.v1+json"] as { data: { y: number[] }[] };
+ * if (json.data[0].y[0] !== 3) throw new Error(`hotspot bar ${json.data[0].y[0]}, expected 3`);
  * ```
  */
 export function showCohort(
@@ -223,11 +247,10 @@ function cellText(v: unknown, digits: number): string {
  *
  * @example Escaped cells
  * ```ts
- * import { JUPYTER_DISPLAY, showTable } from "./show.ts";
+ * import { JUPYTER_DISPLAY, showTable } from "hotfield";
  * const b = showTable([{ reader: "<b>a</b>", count: 3 }])[JUPYTER_DISPLAY]() as Record<string, string>;
- * if (!b["text/html"].includes("&lt;b&gt;a&lt;/b&gt;") || !b["text/plain"].startsWith("reader\tcount")) {
- *   throw new Error();
- * }
+ * if (!b["text/html"].includes("&lt;b&gt;a&lt;/b&gt;")) throw new Error("cells must be HTML-escaped");
+ * if (!b["text/plain"].startsWith("reader\tcount")) throw new Error(`plain text: ${b["text/plain"]}`);
  * ```
  */
 export function showTable(

@@ -57,7 +57,7 @@ export function cleanRing(ring: Ring): Ring | null {
  * import { ringAreaPx2 } from "./planar_area.ts";
  * const outer: [number, number][] = [[0, 0], [0, 3], [3, 3], [3, 3], [3, 0], [0, 0]];
  * const [o] = normalizePolygon([outer]);
- * if (ringAreaPx2(o) !== 9 || o.length !== 5) throw new Error();
+ * if (ringAreaPx2(o) !== 9 || o.length !== 5) throw new Error(`ring ${JSON.stringify(o)}, area ${ringAreaPx2(o)}`);
  * ```
  */
 export function normalizePolygon(p: PolygonPx): PolygonPx {
@@ -77,8 +77,8 @@ export function normalizePolygon(p: PolygonPx): PolygonPx {
  * ```ts
  * import { orientPolygon } from "./normalize.ts";
  * const bow: [number, number][] = [[0, 0], [2, 2], [2, 0], [0, 2], [0, 0]];
- * if (orientPolygon([bow], true).length !== 1) throw new Error();
- * if (orientPolygon([bow], false).length !== 0) throw new Error();
+ * if (orientPolygon([bow], true).length !== 1) throw new Error("a zero-area bow tie is kept when asked");
+ * if (orientPolygon([bow], false).length !== 0) throw new Error("a zero-area bow tie is dropped by default");
  * ```
  */
 export function orientPolygon(p: PolygonPx, keepZeroArea: boolean): PolygonPx {
@@ -110,7 +110,8 @@ export function orientPolygon(p: PolygonPx, keepZeroArea: boolean): PolygonPx {
  * import { normalizeMultiPolygon } from "./normalize.ts";
  * const line: [number, number][] = [[0, 0], [1, 1], [0, 0]];
  * const sq: [number, number][] = [[0, 0], [1, 0], [1, 1], [0, 1], [0, 0]];
- * if (normalizeMultiPolygon([[line], [sq]]).length !== 1) throw new Error();
+ * const n = normalizeMultiPolygon([[line], [sq]]).length;
+ * if (n !== 1) throw new Error(`${n} polygons kept; the line has no area and must go`);
  * ```
  */
 export function normalizeMultiPolygon(mp: MultiPolygonPx): MultiPolygonPx {

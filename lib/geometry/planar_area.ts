@@ -58,10 +58,11 @@ export function ringAreaPx2(ring: Ring): number {
  *
  * @example A 10 × 10 square with a 2 × 2 hole
  * ```ts
- * import { polygonAreaPx2 } from "./planar_area.ts";
+ * import { polygonAreaPx2 } from "hotfield";
  * const outer: [number, number][] = [[0, 0], [10, 0], [10, 10], [0, 10], [0, 0]];
  * const hole: [number, number][] = [[4, 4], [6, 4], [6, 6], [4, 6], [4, 4]];
- * if (polygonAreaPx2([outer, hole]) !== 96) throw new Error();
+ * const area = polygonAreaPx2([outer, hole]);
+ * if (area !== 96) throw new Error(`100 px² minus a 4 px² hole gave ${area}`);
  * ```
  */
 export function polygonAreaPx2(polygon: PolygonPx): number {
@@ -80,9 +81,10 @@ export function polygonAreaPx2(polygon: PolygonPx): number {
  *
  * @example Two unit squares
  * ```ts
- * import { multiPolygonAreaPx2 } from "./planar_area.ts";
+ * import { multiPolygonAreaPx2 } from "hotfield";
  * const sq = (x: number): [number, number][] => [[x, 0], [x + 1, 0], [x + 1, 1], [x, 1], [x, 0]];
- * if (multiPolygonAreaPx2([[sq(0)], [sq(5)]]) !== 2) throw new Error();
+ * const area = multiPolygonAreaPx2([[sq(0)], [sq(5)]]);
+ * if (area !== 2) throw new Error(`two unit squares gave ${area} px²`);
  * ```
  */
 export function multiPolygonAreaPx2(mp: MultiPolygonPx): number {
@@ -105,7 +107,7 @@ export function multiPolygonAreaPx2(mp: MultiPolygonPx): number {
  * import { polygonCentroidPx } from "./planar_area.ts";
  * const sq: [number, number][] = [[0, 0], [4, 0], [4, 4], [0, 4], [0, 0]];
  * const [cx, cy] = polygonCentroidPx([sq]);
- * if (cx !== 2 || cy !== 2) throw new Error();
+ * if (cx !== 2 || cy !== 2) throw new Error(`centroid ${cx}, ${cy}; expected 2, 2`);
  * const hole: [number, number][] = [[2, 0], [4, 0], [4, 4], [2, 4], [2, 0]].map(([x, y]) =>
  *   [x * 0.5 + 2, y * 0.5 + 1] as [number, number]
  * );

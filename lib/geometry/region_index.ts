@@ -40,7 +40,7 @@ export interface RegionIndex {
  *
  * @example A square with a hole; the boundary is inside
  * ```ts
- * import { createRegionIndex } from "./region_index.ts";
+ * import { createRegionIndex } from "hotfield";
  * const outer: [number, number][] = [[0, 0], [10, 0], [10, 10], [0, 10], [0, 0]];
  * const hole: [number, number][] = [[4, 4], [6, 4], [6, 6], [4, 6], [4, 4]];
  * const index = createRegionIndex([[outer, hole]]);

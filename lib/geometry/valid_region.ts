@@ -281,7 +281,7 @@ function subtractNear(a: MultiPolygonPx, x: MultiPolygonPx): MultiPolygonPx {
  *
  * @example A tumour outline over tissue, minus a necrotic patch
  * ```ts
- * import { buildValidRegion } from "./valid_region.ts";
+ * import { buildValidRegion } from "hotfield";
  * const rect = (x0: number, y0: number, x1: number, y1: number): [number, number][] =>
  *   [[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]];
  * const v = buildValidRegion({

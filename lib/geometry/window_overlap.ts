@@ -54,7 +54,7 @@ export interface OverlapIndex {
  *
  * @example A 100 × 100 square
  * ```ts
- * import { createOverlapIndex } from "./window_overlap.ts";
+ * import { createOverlapIndex } from "hotfield";
  * const sq: [number, number][] = [[0, 0], [100, 0], [100, 100], [0, 100], [0, 0]];
  * const index = createOverlapIndex([[sq]]);
  * if (index.rect([-10, 50, 30, 200]) !== 1500) throw new Error("30 × 50");
@@ -229,7 +229,8 @@ function diskSorted(idx: SortedBands, center: Vec2, r: number): number {
  * ```ts
  * import { rectOverlapArea } from "./window_overlap.ts";
  * const sq: [number, number][] = [[0, 0], [4, 0], [4, 4], [0, 4], [0, 0]];
- * if (rectOverlapArea([[sq]], [2, -1, 9, 9]) !== 8) throw new Error();
+ * const area = rectOverlapArea([[sq]], [2, -1, 9, 9]);
+ * if (area !== 8) throw new Error(`the right half of a 4 × 4 square is 8, got ${area}`);
  * ```
  */
 export function rectOverlapArea(region: MultiPolygonPx, rect: BBoxPx): number {
@@ -289,7 +290,8 @@ export function diskOverlapArea(region: MultiPolygonPx, center: Vec2, radius: nu
  * ```ts
  * import { polygonOverlapArea } from "./window_overlap.ts";
  * const sq = (o: number): [number, number][] => [[o, o], [o + 4, o], [o + 4, o + 4], [o, o + 4], [o, o]];
- * if (Math.abs(polygonOverlapArea([[sq(0)]], [sq(2)]) - 4) > 1e-12) throw new Error();
+ * const area = polygonOverlapArea([[sq(0)]], [sq(2)]);
+ * if (Math.abs(area - 4) > 1e-12) throw new Error(`two 4 × 4 squares offset by 2 share 4, got ${area}`);
  * ```
  */
 export function polygonOverlapArea(region: MultiPolygonPx, polygon: PolygonPx): number {

@@ -23,7 +23,8 @@ let counter = 0;
  * import { readFileSync, rmSync } from "node:fs";
  * const dir = Deno.makeTempDirSync();
  * writeFileAtomic(`${dir}/a/b.txt`, "hello");
- * if (readFileSync(`${dir}/a/b.txt`, "utf8") !== "hello") throw new Error();
+ * const text = readFileSync(`${dir}/a/b.txt`, "utf8");
+ * if (text !== "hello") throw new Error(`read back ${JSON.stringify(text)}`);
  * rmSync(dir, { recursive: true });
  * ```
  */

@@ -49,26 +49,25 @@ export interface ApplyStandardsOptions {
  *
  * @example A hand-made map of 2 × 1 positions
  * ```ts
+ * import { buildCaseResult, parseAnnotations } from "hotfield";
  * import { applyStandards } from "./apply_standards.ts";
- * import type { CountMap, PreparedCase, WindowShape } from "../count/engine_types.ts";
- * import type { ReportJson } from "./report_types.ts";
- * const window: WindowShape = { shape: "rect", areaMm2: 2.37, widthUm: 1777.6, heightUm: 1333.2, aspect: [4, 3] };
- * const map = {
- *   grid: { x0Um: 888.8, y0Um: 666.6, strideUm: 1777.6, nx: 2, ny: 1 }, window,
- *   counts: new Int32Array([8, 1]), coverage: new Float32Array([1, 1]),
- *   admissible: new Uint8Array([1, 1]), minCoverage: 0.9, positions: 2, discretization: "",
- * } as CountMap;
- * const prepared = {
- *   validUm: [[[[0, 0], [3555.2, 0], [3555.2, 1333.2], [0, 1333.2], [0, 0]]]],
- *   xUm: new Float64Array(9).fill(100), yUm: new Float64Array(9).fill(100),
- * } as unknown as PreparedCase;
- * const report = {
- *   window: { shape: "rect", area_mm2: 2.37, width_um: 1777.6, height_um: 1333.2 },
- *   hotspot: { center_px: [0, 0], count: 8, coverage: 1, per_mm2: 3.38 },
- *   distribution: { positions: 2, min: 1, q1: 2.75, median: 4.5, q3: 6.25, max: 8, mean: 4.5 },
- * } as unknown as ReportJson;
- * const r = applyStandards({ report, prepared, map, window }, { schemeId: "canine-mct-2tier", simulations: 99 });
- * if (r.classification?.tier !== "high" || r.uncertainty?.simulations !== 99) throw new Error();
+ * // A 4 × 3 mm tissue piece at 1 µm/px with three figures, counted in 1 mm² squares.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const result = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, {
+ *   areaMm2: 1, aspect: [1, 1], strideUm: 100, bestN: 0,
+ * });
+ * // The report, prepared case, map and window of a result are what applyStandards reads.
+ * const r = applyStandards(result, { schemeId: "canine-mct-2tier", simulations: 99 });
+ * if (r.classification?.class !== "below" || r.classification.tier !== "low") {
+ *   throw new Error(`2 figures per 1 mm² should be below 7 per 2.37 mm²: ${r.classification?.class}`);
+ * }
+ * if (r.uncertainty?.simulations !== 99) throw new Error(`${r.uncertainty?.simulations} simulations, expected 99`);
  * ```
  */
 export function applyStandards(

@@ -88,7 +88,7 @@ export function reportPlacement(p: Placement, rank?: number): ReportPlacement {
  *
  * @example A 3 × 3 mm tissue square with a few figures
  * ```ts
- * import { buildCaseResult } from "./build_case_result.ts";
+ * import { buildCaseResult } from "hotfield";
  * const sq = [[[0, 0], [6000, 0], [6000, 6000], [0, 6000], [0, 0]]] as [number, number][][];
  * const r = buildCaseResult({
  *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
@@ -142,21 +142,22 @@ export interface CaseResultParts {
  *
  * @example
  * ```ts
+ * import { type CaseData, findBestFieldSet, type PolygonPx } from "hotfield";
  * import { bestFieldSetOptions, finishCaseResult, startCaseResult } from "./build_case_result.ts";
- * import { findBestFieldSet } from "../count/find_best_field_set.ts";
- * const sq = [[[0, 0], [6000, 0], [6000, 6000], [0, 6000], [0, 0]]] as [number, number][][];
- * const parts = startCaseResult({
+ * const square: PolygonPx = [[[0, 0], [6000, 0], [6000, 6000], [0, 6000], [0, 0]]];
+ * const caseData: CaseData = {
  *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
- *   tissue: [{ polygons: [sq], source: "example" }], tumour: [], exclude: [],
+ *   tissue: [{ polygons: [square], source: "example" }], tumour: [], exclude: [],
  *   figures: {
  *     xPx: new Float64Array([3000]), yPx: new Float64Array([3000]),
  *     labelIndex: new Uint32Array(1), labels: ["mitotic figure"],
  *     score: new Float64Array(1).fill(NaN), origin: new Int32Array([0]),
  *   },
  *   fields: [], sources: [], warnings: [],
- * }, { strideUm: 50, bestN: 1 });
+ * };
+ * const parts = startCaseResult(caseData, { strideUm: 50, bestN: 1 });
  * const r = finishCaseResult(parts, findBestFieldSet(parts.prepared, bestFieldSetOptions(parts)));
- * if (r.report.best_fields?.total !== 1) throw new Error();
+ * if (r.report.best_fields?.total !== 1) throw new Error(`best field total ${r.report.best_fields?.total}`);
  * ```
  */
 export function startCaseResult(
@@ -228,8 +229,24 @@ export function startCaseResult(
  *
  * @example
  * ```ts
+ * import { type CaseData, type PolygonPx } from "hotfield";
  * import { prepareCaseFor } from "./build_case_result.ts";
- * if (typeof prepareCaseFor !== "function") throw new Error();
+ * const square: PolygonPx = [[[0, 0], [2000, 0], [2000, 2000], [0, 2000], [0, 0]]];
+ * const caseData: CaseData = {
+ *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
+ *   tissue: [{ polygons: [square], source: "example" }], tumour: [], exclude: [],
+ *   figures: {
+ *     xPx: new Float64Array([1000, 1500]), yPx: new Float64Array([1000, 1500]),
+ *     labelIndex: new Uint32Array(2), labels: ["mitotic figure"],
+ *     score: new Float64Array([0.9, 0.3]), origin: new Int32Array([0, 1]),
+ *   },
+ *   fields: [], sources: [], warnings: [],
+ * };
+ * // The report options that shape the prepared case (here the minimum score) are applied.
+ * const prepared = prepareCaseFor(caseData, { minScore: 0.5 });
+ * if (prepared.xUm.length !== 1 || prepared.tally.below_score !== 1) {
+ *   throw new Error(`${prepared.xUm.length} counted, ${prepared.tally.below_score} below the score`);
+ * }
  * ```
  */
 export function prepareCaseFor(caseData: CaseData, options: ReportOptions = {}): PreparedCase {
@@ -287,9 +304,8 @@ function caseOptions(
  * @example
  * ```ts
  * import { bestFieldSetOptions } from "./build_case_result.ts";
- * // deno-lint-ignore no-explicit-any
- * const o = bestFieldSetOptions({ bestN: 10, strideUm: 25, minCoverage: 0.95, options: {} } as any);
- * if (o.n !== 10 || o.shape !== "circle") throw new Error();
+ * const o = bestFieldSetOptions({ bestN: 10, strideUm: 25, minCoverage: 0.95, options: {} });
+ * if (o.n !== 10 || o.shape !== "circle") throw new Error(`options ${JSON.stringify(o)}`);
  * ```
  */
 export function bestFieldSetOptions(
@@ -314,8 +330,24 @@ export function bestFieldSetOptions(
  *
  * @example
  * ```ts
- * import { finishCaseResult } from "./build_case_result.ts";
- * if (typeof finishCaseResult !== "function") throw new Error();
+ * import { type CaseData, type PolygonPx } from "hotfield";
+ * import { finishCaseResult, startCaseResult } from "./build_case_result.ts";
+ * const square: PolygonPx = [[[0, 0], [6000, 0], [6000, 6000], [0, 6000], [0, 0]]];
+ * const caseData: CaseData = {
+ *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },
+ *   tissue: [{ polygons: [square], source: "example" }], tumour: [], exclude: [],
+ *   figures: {
+ *     xPx: new Float64Array([3000, 3100]), yPx: new Float64Array([3000, 3050]),
+ *     labelIndex: new Uint32Array(2), labels: ["mitotic figure"],
+ *     score: new Float64Array(2).fill(NaN), origin: new Int32Array([0, 1]),
+ *   },
+ *   fields: [], sources: [], warnings: [],
+ * };
+ * // Without a best field set the report says so with null.
+ * const r = finishCaseResult(startCaseResult(caseData, { strideUm: 50, bestN: 0 }), null);
+ * if (r.report.best_fields !== null || r.report.hotspot?.count !== 2) {
+ *   throw new Error(`best_fields ${JSON.stringify(r.report.best_fields)}, hotspot ${r.report.hotspot?.count}`);
+ * }
  * ```
  */
 export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | null): CaseResult {

@@ -18,17 +18,21 @@ import type { ReportJson } from "./report_types.ts";
  *
  * @example A report and a tiny map
  * ```ts
- * import { classifyReport } from "./classify_report.ts";
- * import { getScheme } from "../standards/list_schemes.ts";
- * import type { ReportJson } from "./report_types.ts";
- * const report = {
- *   window: { shape: "circle", area_mm2: 2.37, diameter_um: 1737.1 },
- *   hotspot: { center_px: [0, 0], count: 3, coverage: 1, per_mm2: 1.27 },
- *   distribution: { positions: 2, min: 2, q1: 2.25, median: 2.5, q3: 2.75, max: 3, mean: 2.5 },
- * } as unknown as ReportJson;
- * const map = { counts: new Int32Array([2, 3]), admissible: new Uint8Array([1, 1]) };
+ * import { buildCaseResult, classifyReport, getScheme, parseAnnotations } from "hotfield";
+ * // A 4 × 3 mm tissue piece at 1 µm/px with three figures, reported without a scheme.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const { report, map } = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, {
+ *   strideUm: 100, bestN: 0,
+ * });
+ * // Classify the finished report afterwards, under any scheme.
  * const { classification } = classifyReport(report, getScheme("canine-mct-2tier"), map);
- * if (classification.class !== "below") throw new Error();
+ * if (classification.class !== "below") throw new Error(`3 figures against ≥ 7: ${classification.class}`);
  * ```
  */
 export function classifyReport(

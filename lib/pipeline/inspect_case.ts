@@ -62,7 +62,7 @@ export interface InspectResult {
  *
  * @example A 1 mm × 1 mm tumour square with one figure inside and one outside
  * ```ts
- * import { inspectCase } from "./inspect_case.ts";
+ * import { inspectCase } from "hotfield";
  * const sq: [number, number][] = [[0, 0], [4000, 0], [4000, 2000], [0, 2000], [0, 0]];
  * const r = inspectCase({
  *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.25, mppY: 0.5 },
@@ -74,8 +74,10 @@ export interface InspectResult {
  *   fields: [], sources: [], warnings: [],
  * });
  * // 4000 px × 0.25 µm = 1 mm; 2000 px × 0.5 µm = 1 mm
- * if (Math.abs(r.areas_mm2.valid - 1) > 1e-12 || r.figures.counted !== 1) throw new Error();
- * if (r.figures.outside_valid !== 1) throw new Error();
+ * if (Math.abs(r.areas_mm2.valid - 1) > 1e-12) throw new Error(`valid area ${r.areas_mm2.valid} mm²`);
+ * if (r.figures.counted !== 1 || r.figures.outside_valid !== 1) {
+ *   throw new Error(`${r.figures.counted} counted, ${r.figures.outside_valid} outside, expected 1 and 1`);
+ * }
  * ```
  */
 export function inspectCase(caseData: CaseData, options: InspectOptions = {}): InspectResult {
@@ -130,7 +132,7 @@ function tidy(v: number): number {
  *
  * @example
  * ```ts
- * import { formatInspectTable } from "./inspect_case.ts";
+ * import { formatInspectTable } from "hotfield";
  * const text = formatInspectTable({
  *   case: "QVT-24-001", mpp: [0.25, 0.25],
  *   areas_mm2: { tissue: 12, tumour: 6, excluded: 0.5, valid: 5.5 },

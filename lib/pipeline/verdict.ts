@@ -39,21 +39,23 @@ function percent(share: number): string {
  *
  * @example A hotspot that meets the two-tier mast cell cut-off in few places
  * ```ts
+ * import { buildCaseResult, parseAnnotations } from "hotfield";
  * import { caseVerdict } from "./verdict.ts";
- * import type { ReportJson } from "./report_types.ts";
- * const report = {
- *   window: { shape: "rect", area_mm2: 2.37, width_um: 1777.6, height_um: 1333.2, aspect: [4, 3] },
- *   hotspot: { center_px: [0, 0], count: 9, coverage: 1, per_mm2: 3.8 },
- *   distribution: { positions: 1000, min: 0, q1: 1, median: 2, q3: 4, max: 9, mean: 2.4 },
- *   classification: {
- *     scheme: "canine-mct-2tier", cutoff: 7, class: "field-dependent", fraction_at_or_above: 0.048,
- *     tier: "high", cutoff_rule: "≥", cutoff_tier: "high", hotspot_rate_per_basis: 9,
- *     cutoff_basis: "per 10 HPF (2.37 mm²)", window_area_mm2: 2.37, basis_area_mm2: 2.37,
- *   },
- * } as unknown as ReportJson;
+ * // A 6 × 4 mm tissue piece at 1 µm/px with eight figures in one tight cluster.
+ * const cluster = Array.from({ length: 8 }, (_, i) => [2000 + 100 * (i % 4), 1500 + 100 * Math.floor(i / 4)]);
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [6000, 0], [6000, 4000], [0, 4000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: cluster } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const { report } = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, {
+ *   strideUm: 100, bestN: 0, scheme: "canine-mct-2tier", simulations: 0,
+ * });
  * const v = caseVerdict(report);
- * if (!v.includes("reaches the cut-off of ≥ 7") || !v.includes("4.8% of placements")) {
- *   throw new Error(v);
+ * if (!v.includes("reaches the cut-off of ≥ 7") || !v.includes("12.9% of placements")) {
+ *   throw new Error(`verdict: ${v}`);
  * }
  * ```
  */

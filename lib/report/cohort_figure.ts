@@ -21,13 +21,24 @@ import { roundTo } from "../numbers.ts";
  *
  * @example Two cases, sorted with the higher count on top
  * ```ts
- * import { cohortFigure } from "./cohort_figure.ts";
- * const r = (id: string, count: number) => ({
- *   report: { case: id, hotspot: { count, per_mm2: count / 2.37 }, classification: null },
- * });
- * const fig = cohortFigure([r("QVT-24-001", 3), r("QVT-24-002", 12)] as never);
+ * import { buildCaseResult, cohortFigure, parseAnnotations } from "hotfield";
+ * // Two 4 × 3 mm tissue pieces at 1 µm/px, with two and with three figures close together.
+ * const result = (caseId: string, figures: number[][]) => {
+ *   const parsed = parseAnnotations(JSON.stringify({
+ *     type: "FeatureCollection", slide: { id: caseId, mpp: 1 },
+ *     features: [
+ *       { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *       { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: figures } },
+ *     ],
+ *   }), { fileName: `${caseId}.geojson` });
+ *   return buildCaseResult({ caseId, ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * };
+ * const fig = cohortFigure([
+ *   result("QVT-24-001", [[1000, 1000], [1100, 1000]]),
+ *   result("QVT-24-002", [[2000, 1500], [2100, 1400], [2200, 1500]]),
+ * ]);
  * const y = fig.data[0].y as string[];
- * if (y[y.length - 1] !== "QVT-24-002") throw new Error(`top row ${y[y.length - 1]}`);
+ * if (y[y.length - 1] !== "QVT-24-002") throw new Error(`top row ${y[y.length - 1]}, expected the higher count`);
  * ```
  */
 export function cohortFigure(results: readonly Pick<CaseResult, "report">[]): PlotFigure {

@@ -58,13 +58,22 @@ export interface CohortHtmlContext extends Omit<CaseHtmlContext, "options"> {
  *
  * @example Case ids are escaped and linked
  * ```ts
+ * import { buildCaseResult, parseAnnotations } from "hotfield";
  * import { renderCohortIndex } from "./cohort_index.ts";
- * const html = renderCohortIndex([{
- *   report: { case: "QVT&1", hotspot: null, classification: null, fields: [], warnings: [],
- *     valid_area_mm2: 0, distribution: { positions: 0 } },
- *   prepared: { caseId: "QVT&1" },
- * }] as never, { plotlySrc: "assets/plotly.min.js", generatedAt: null, version: "0.1.0" });
- * if (!html.includes('href="QVT%261/report.html"') || !html.includes(">QVT&amp;1<")) throw new Error();
+ * // A case whose id holds "&": the link is URL-encoded and the text HTML-escaped.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT&1", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT&1.geojson" });
+ * const result = buildCaseResult({ caseId: "QVT&1", ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * const html = renderCohortIndex([result], {
+ *   plotlySrc: "assets/plotly.min.js", generatedAt: null, version: "0.1.0",
+ * });
+ * if (!html.includes('href="QVT%261/report.html"')) throw new Error("the case link must be URL-encoded");
+ * if (!html.includes(">QVT&amp;1<")) throw new Error("the case id must be HTML-escaped");
  * ```
  */
 export function renderCohortIndex(

@@ -69,12 +69,14 @@ export interface HeatmapGrid {
  *   counts: new Int32Array([1, 2, 3, 4, 5, 6]),
  *   admissible: new Uint8Array([1, 1, 0, 1, 1, 1]),
  * };
- * const g = heatmapGrid({ map } as never);
- * if (g.factor !== 1 || g.z[0][2] !== null || g.z[1][2] !== 6 || g.xUm[2] !== 20) throw new Error();
+ * const g = heatmapGrid({ map });
+ * if (g.factor !== 1) throw new Error(`a 3 × 2 map is drawn whole, not reduced by ${g.factor}`);
+ * if (g.z[0][2] !== null || g.z[1][2] !== 6) throw new Error(`column 3: ${g.z[0][2]}, ${g.z[1][2]}`);
+ * if (g.xUm[2] !== 20) throw new Error(`third centre at ${g.xUm[2]} µm, expected 20`);
  * ```
  */
 export function heatmapGrid(
-  result: Pick<CaseResult, "map">,
+  result: { map: Pick<CaseResult["map"], "grid" | "counts" | "admissible"> },
   maxCells = 40000,
 ): HeatmapGrid {
   const { grid, counts, admissible } = result.map;
@@ -162,28 +164,21 @@ const NOT_ADMISSIBLE = "#f2eee4";
  *
  * @example A tiny map draws a heatmap in mm, y down
  * ```ts
- * import { countMapFigure } from "./count_map_figure.ts";
- * const result = {
- *   report: { case: "QVT-24-001", fields: [], classification: null, warnings: [] },
- *   prepared: {
- *     slide: { id: "QVT-24-001", mppX: 1, mppY: 1 },
- *     validPx: [[[[0, 0], [30, 0], [30, 20], [0, 20], [0, 0]]]], excludePx: [], fields: [],
- *     xUm: new Float64Array([12]), yUm: new Float64Array([8]),
- *   },
- *   window: { shape: "rect", areaMm2: 0.0001, widthUm: 10, heightUm: 10, aspect: [1, 1] },
- *   map: {
- *     grid: { x0Um: 5, y0Um: 5, strideUm: 10, nx: 3, ny: 2 },
- *     counts: new Int32Array(6), admissible: new Uint8Array(6).fill(1), minCoverage: 0.95,
- *   },
- *   hotspot: null, top: [], bestFields: [], bestFieldWindow: null,
- *   caseData: { tissue: [], tumour: [] },
- * };
- * const fig = countMapFigure(result as never);
- * if (fig.data[0].type !== "heatmap") throw new Error(`first trace ${fig.data[0].type}`);
- * if ((fig.layout.yaxis as { autorange: string }).autorange !== "reversed") {
- *   throw new Error("y must point down");
- * }
- * if (!fig.data.some((t) => t.name === "counted figure (1)")) throw new Error("figures drawn");
+ * import { buildCaseResult, countMapFigure, parseAnnotations } from "hotfield";
+ * // A 4 × 3 mm tissue piece at 1 µm/px with three figures.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const result = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * const fig = countMapFigure(result);
+ * if (fig.data[0].type !== "heatmap") throw new Error(`first trace ${fig.data[0].type}, expected heatmap`);
+ * const yAxis = fig.layout.yaxis as { autorange: string };
+ * if (yAxis.autorange !== "reversed") throw new Error("y must point down, as on the slide");
+ * if (!fig.data.some((t) => t.name === "counted figures (3)")) throw new Error("the three figures are not drawn");
  * ```
  */
 export function countMapFigure(

@@ -14,14 +14,17 @@ import { MARK_STYLE, OKABE_ITO, PLOT_FONT, type PlotFigure, readerStyles } from 
  *
  * @example
  * ```ts
- * import { admissibleHistogram } from "./distribution_figure.ts";
+ * import { admissibleHistogram } from "hotfield";
+ * // Counts 0, 2, 2 at admissible positions; the 5 is at an inadmissible one.
  * const h = admissibleHistogram({
  *   map: { counts: new Int32Array([0, 2, 2, 5]), admissible: new Uint8Array([1, 1, 1, 0]) },
- * } as never);
- * if (h.join() !== "1,0,2") throw new Error(h.join());
+ * });
+ * if (h.join() !== "1,0,2") throw new Error(`histogram ${h.join()}, expected 1,0,2`);
  * ```
  */
-export function admissibleHistogram(result: Pick<CaseResult, "map">): number[] {
+export function admissibleHistogram(
+  result: { map: Pick<CaseResult["map"], "counts" | "admissible"> },
+): number[] {
   const { counts, admissible } = result.map;
   const hist: number[] = [];
   for (let k = 0; k < counts.length; k++) {
@@ -43,14 +46,20 @@ export function admissibleHistogram(result: Pick<CaseResult, "map">): number[] {
  *
  * @example Bars count positions per count
  * ```ts
- * import { distributionFigure } from "./distribution_figure.ts";
- * const fig = distributionFigure({
- *   report: { case: "QVT-24-001", fields: [], classification: null },
- *   map: { counts: new Int32Array([0, 2, 2]), admissible: new Uint8Array([1, 1, 1]) },
- *   hotspot: null,
- * } as never);
- * const y = fig.data[0].y as number[];
- * if (y.join() !== "1,0,2") throw new Error(y.join());
+ * import { admissibleHistogram, buildCaseResult, distributionFigure, parseAnnotations } from "hotfield";
+ * // A 4 × 3 mm tissue piece at 1 µm/px with three figures.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const result = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * const fig = distributionFigure(result);
+ * const bars = (fig.data[0].y as number[]).join();
+ * if (bars !== admissibleHistogram(result).join()) throw new Error(`bars ${bars}`);
+ * if (!fig.caption.includes(`${result.report.distribution.positions} admissible`)) throw new Error(fig.caption);
  * ```
  */
 export function distributionFigure(result: CaseResult): PlotFigure {

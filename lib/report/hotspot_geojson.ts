@@ -21,7 +21,9 @@ const CIRCLE_VERTICES = 128;
  * ```ts
  * import { windowRingUm } from "./hotspot_geojson.ts";
  * const ring = windowRingUm({ shape: "circle", areaMm2: 1, diameterUm: 1000 }, [0, 0]);
- * if (ring.length !== 129 || ring[0][0] !== 500) throw new Error();
+ * if (ring.length !== 129 || ring[0][0] !== 500) {
+ *   throw new Error(`${ring.length} positions starting at x ${ring[0][0]}; expected 129 from x 500`);
+ * }
  * ```
  */
 export function windowRingUm(window: WindowShape, centerUm: [number, number]): Ring {
@@ -53,7 +55,8 @@ export function windowRingUm(window: WindowShape, centerUm: [number, number]): R
  *   [500, 500],
  *   { mppX: 0.5, mppY: 0.5 },
  * );
- * if (ring.length !== 5 || ring[0][0] !== 0 || ring[2][0] !== 2000) throw new Error();
+ * // 1000 µm at 0.5 µm/px is 2000 px.
+ * if (ring.length !== 5 || ring[0][0] !== 0 || ring[2][0] !== 2000) throw new Error(`ring ${JSON.stringify(ring)}`);
  * ```
  */
 export function windowRingPx(
@@ -114,7 +117,7 @@ export interface HotspotFeatureCollection {
  *   hotspot: null, top: [], bestFields: [], bestFieldWindow: null,
  *   caseId: "QVT-24-001", mpp: { mppX: 0.25, mppY: 0.25 },
  * });
- * if (fc.features.length !== 0) throw new Error();
+ * if (fc.features.length !== 0) throw new Error(`${fc.features.length} features from no placement`);
  * ```
  */
 export function hotspotFeatureCollection(input: {
@@ -160,14 +163,22 @@ export function hotspotFeatureCollection(input: {
  *
  * @example A hotspot gives one feature
  * ```ts
+ * import { buildCaseResult, parseAnnotations } from "hotfield";
  * import { caseHotspotGeoJson } from "./hotspot_geojson.ts";
- * const p = { centerUm: [500, 500], centerPx: [1000, 1000], count: 3, coverage: 1, perMm2: 3 };
- * const fc = caseHotspotGeoJson({
- *   window: { shape: "rect", areaMm2: 1, widthUm: 1000, heightUm: 1000, aspect: [1, 1] },
- *   hotspot: p, top: [], bestFields: [], bestFieldWindow: null,
- *   prepared: { caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 } },
- * } as never);
- * if (fc.features.length !== 1) throw new Error();
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * // No top-k windows and no best fields: the hotspot alone.
+ * const result = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, {
+ *   strideUm: 100, top: 0, bestN: 0,
+ * });
+ * const fc = caseHotspotGeoJson(result);
+ * const kinds = fc.features.map((f) => f.properties.kind).join();
+ * if (kinds !== "hotspot" || fc.features[0].properties.count !== 3) throw new Error(`features ${kinds}`);
  * ```
  */
 export function caseHotspotGeoJson(

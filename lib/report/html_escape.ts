@@ -44,7 +44,7 @@ export function escapeHtml(text: unknown): string {
  * import { jsonForScript } from "./html_escape.ts";
  * const s = jsonForScript({ name: "</script><b>&" });
  * if (s.includes("<") || s.includes("&")) throw new Error(s);
- * if (JSON.parse(s).name !== "</script><b>&") throw new Error();
+ * if (JSON.parse(s).name !== "</script><b>&") throw new Error("the JSON must read back unchanged");
  * ```
  */
 export function jsonForScript(value: unknown): string {

@@ -19,7 +19,8 @@ import type { ReportClassification } from "../pipeline/report_types.ts";
  * @example
  * ```ts
  * import { plotText } from "./plot_labels.ts";
- * if (plotText('<b>"reader" & co</b>') !== '&lt;b&gt;"reader" &amp; co&lt;/b&gt;') throw new Error();
+ * const text = plotText('<b>"reader" & co</b>');
+ * if (text !== '&lt;b&gt;"reader" &amp; co&lt;/b&gt;') throw new Error(`escaped as ${text}`);
  * ```
  */
 export function plotText(text: unknown): string {
@@ -32,7 +33,8 @@ export function plotText(text: unknown): string {
  * @example
  * ```ts
  * import { readerName } from "./plot_labels.ts";
- * if (readerName("") !== "unnamed reader" || readerName("reader-a") !== "reader-a") throw new Error();
+ * if (readerName("") !== "unnamed reader") throw new Error(`"" is shown as ${readerName("")}`);
+ * if (readerName("reader-a") !== "reader-a") throw new Error("a name is shown as given");
  * ```
  */
 export function readerName(reader: string): string {
@@ -46,9 +48,14 @@ export function readerName(reader: string): string {
  *
  * @example
  * ```ts
+ * import { classifyCounts, getScheme } from "hotfield";
  * import { cutoffCount } from "./plot_labels.ts";
- * const c = { scheme: "canine-mct-2tier", cutoff: 7, class: "below", fraction_at_or_above: 0, tier: "low", min_count_for_window: 7 };
- * if (cutoffCount(c as never) !== 7 || cutoffCount(null) !== null) throw new Error();
+ * const { classification } = classifyCounts({
+ *   hotspotCount: 3, q1: 0, windowAreaMm2: 2.37, counts: [0, 3], admissible: [1, 1],
+ * }, getScheme("canine-mct-2tier"));
+ * const n = cutoffCount(classification);
+ * if (n !== 7) throw new Error(`≥ 7 per 2.37 mm² in a 2.37 mm² window gives ${n}`);
+ * if (cutoffCount(null) !== null) throw new Error("no classification, no cut-off");
  * ```
  */
 export function cutoffCount(c: ReportClassification | null | undefined): number | null {
@@ -65,9 +72,12 @@ export function cutoffCount(c: ReportClassification | null | undefined): number 
  *
  * @example
  * ```ts
- * import { cutoffLabel } from "./plot_labels.ts";
- * const c = { scheme: "canine-mct-2tier", cutoff: 7, class: "below", fraction_at_or_above: 0, tier: "low" };
- * if (cutoffLabel(c as never) !== "cut-off: ≥ 7 per window (canine-mct-2tier)") throw new Error();
+ * import { classifyCounts, cutoffLabel, getScheme } from "hotfield";
+ * const { classification } = classifyCounts({
+ *   hotspotCount: 3, q1: 0, windowAreaMm2: 2.37, counts: [0, 3], admissible: [1, 1],
+ * }, getScheme("canine-mct-2tier"));
+ * const label = cutoffLabel(classification);
+ * if (label !== "cut-off: ≥ 7 per window (canine-mct-2tier)") throw new Error(`label: ${label}`);
  * ```
  */
 export function cutoffLabel(c: ReportClassification | null | undefined): string {

@@ -77,7 +77,8 @@ export const PLOT_FONT = {
  * ```ts
  * import { readerStyles } from "./plot_style.ts";
  * const m = readerStyles(["reader-a", "trainee-2", "reader-a"]);
- * if (m.size !== 2 || m.get("reader-a")!.symbol === m.get("trainee-2")!.symbol) throw new Error();
+ * if (m.size !== 2) throw new Error(`${m.size} readers, expected 2`);
+ * if (m.get("reader-a")!.symbol === m.get("trainee-2")!.symbol) throw new Error("two readers, one marker");
  * ```
  */
 export function readerStyles(

@@ -34,7 +34,8 @@ const BUNDLE = "plotly.min.js";
  * @example The installed package is the pinned one
  * ```ts
  * import { PLOTLY_VERSION, plotlyPackageVersion } from "./plotly_asset.ts";
- * if ((await plotlyPackageVersion()) !== PLOTLY_VERSION) throw new Error();
+ * const version = await plotlyPackageVersion();
+ * if (version !== PLOTLY_VERSION) throw new Error(`installed plotly.js ${version}, pinned ${PLOTLY_VERSION}`);
  * ```
  */
 export async function plotlyPackageVersion(): Promise<string> {
@@ -154,7 +155,9 @@ export function findPlotlyPath(): string | null {
  * @example Reading the bundle when it is cached
  * ```ts
  * import { findPlotlyPath, readPlotlyJs } from "./plotly_asset.ts";
- * if (findPlotlyPath() !== null && !readPlotlyJs().includes("plotly")) throw new Error();
+ * if (findPlotlyPath() !== null && !readPlotlyJs().includes("plotly")) {
+ *   throw new Error("the bundle found does not look like plotly.js");
+ * }
  * ```
  */
 export function readPlotlyJs(): string {
@@ -171,7 +174,7 @@ export function readPlotlyJs(): string {
  * ```ts
  * import { findPlotlyPath, readPlotlyBytes, readPlotlyJs } from "./plotly_asset.ts";
  * if (findPlotlyPath() !== null && new TextDecoder().decode(readPlotlyBytes()) !== readPlotlyJs()) {
- *   throw new Error();
+ *   throw new Error("the bytes and the text of the bundle differ");
  * }
  * ```
  */

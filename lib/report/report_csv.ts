@@ -77,15 +77,21 @@ function cell(v: Cell): string {
  *
  * @example A case without a hotspot leaves the hotspot cells empty
  * ```ts
- * import { caseRow } from "./report_csv.ts";
- * const row = caseRow({
- *   case: "QVT-24-005", window: { shape: "circle", area_mm2: 2.37, diameter_um: 1737.1 },
- *   valid_area_mm2: 1.2, figures: { total: 3, counted: 2, outside_valid: 1, below_score: 0 },
- *   hotspot: null,
- *   distribution: { positions: 0, min: null, q1: null, median: null, q3: null, max: null, mean: null },
- *   fields: [], classification: null, warnings: ["No admissible window position"],
- * } as never);
- * if (row.hotspot_count !== "" || row.warnings !== "1" || row.figures_counted !== "2") throw new Error();
+ * import { buildCaseResult, caseRow, parseAnnotations } from "hotfield";
+ * // A 1 × 0.8 mm biopsy at 1 µm/px with two figures: too small for a 2.37 mm² window.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-005", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [1000, 0], [1000, 800], [0, 800], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[100, 100], [200, 200]] } },
+ *   ],
+ * }), { fileName: "QVT-24-005.geojson" });
+ * const { report } = buildCaseResult({ caseId: "QVT-24-005", ...parsed, sources: [] }, { bestN: 0 });
+ * const row = caseRow(report);
+ * if (row.hotspot_count !== "" || row.figures_counted !== "2") {
+ *   throw new Error(`hotspot "${row.hotspot_count}", counted "${row.figures_counted}"`);
+ * }
+ * if (row.warnings !== String(report.warnings.length)) throw new Error(`warnings "${row.warnings}"`);
  * ```
  */
 export function caseRow(report: ReportJson): Record<(typeof CASE_COLUMNS)[number], string> {
@@ -128,12 +134,22 @@ export function caseRow(report: ReportJson): Record<(typeof CASE_COLUMNS)[number
  *
  * @example One reader's field
  * ```ts
+ * import { buildCaseResult, parseAnnotations } from "hotfield";
  * import { fieldRows } from "./report_csv.ts";
- * const rows = fieldRows({
- *   case: "QVT-24-006",
- *   fields: [{ reader: "trainee-2", center_px: [100, 200], count: 4, coverage: 1, percentile: 35.5, kind: "point", shortfall: 9 }],
- * } as never);
- * if (rows[0].reader !== "trainee-2" || rows[0].shortfall !== "9") throw new Error();
+ * // trainee-2 counted a quiet corner; the hotspot holds one figure more.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-006", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500]] } },
+ *     { type: "Feature", properties: { role: "field", reader: "trainee-2" }, geometry: { type: "Point", coordinates: [3000, 2000] } },
+ *   ],
+ * }), { fileName: "QVT-24-006.geojson" });
+ * const { report } = buildCaseResult({ caseId: "QVT-24-006", ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * const [row] = fieldRows(report);
+ * if (row.reader !== "trainee-2" || row.count !== "0" || row.shortfall !== "1") {
+ *   throw new Error(`row ${JSON.stringify(row)}`);
+ * }
  * ```
  */
 export function fieldRows(report: ReportJson): Record<(typeof FIELD_COLUMNS)[number], string>[] {
@@ -172,15 +188,20 @@ function toCsv(columns: readonly string[], rows: Record<string, string>[]): stri
  *
  * @example Header and a quoted case id
  * ```ts
+ * import { buildCaseResult, parseAnnotations } from "hotfield";
  * import { casesCsv } from "./report_csv.ts";
- * const csv = casesCsv([{
- *   case: 'QVT, "odd"', window: { shape: "circle", area_mm2: 2.37, diameter_um: 1737.1 },
- *   valid_area_mm2: 1, figures: { total: 0, counted: 0, outside_valid: 0, below_score: 0 },
- *   hotspot: null,
- *   distribution: { positions: 0, min: null, q1: null, median: null, q3: null, max: null, mean: null },
- *   fields: [], classification: null, warnings: [],
- * } as never]);
- * if (!csv.startsWith("case,window_shape,") || !csv.includes('"QVT, ""odd"""')) throw new Error(csv);
+ * // A case id with a comma and quotes is quoted as RFC 4180 says.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const { report } = buildCaseResult({ caseId: 'QVT, "odd"', ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * const csv = casesCsv([report]);
+ * if (!csv.startsWith("case,window_shape,")) throw new Error(`header: ${csv.split("\r\n")[0]}`);
+ * if (!csv.includes('\r\n"QVT, ""odd""",')) throw new Error(`row: ${csv.split("\r\n")[1]}`);
  * ```
  */
 export function casesCsv(reports: readonly ReportJson[]): string {
@@ -193,8 +214,9 @@ export function casesCsv(reports: readonly ReportJson[]): string {
  * @example No fields, just the header
  * ```ts
  * import { fieldsCsv } from "./report_csv.ts";
- * if (!fieldsCsv([]).startsWith("case,reader,kind,x_px,y_px,count,coverage,percentile,shortfall,")) {
- *   throw new Error();
+ * const csv = fieldsCsv([]);
+ * if (!csv.startsWith("case,reader,kind,x_px,y_px,count,coverage,percentile,shortfall,") || !csv.endsWith("\r\n")) {
+ *   throw new Error(`no reports should give the header line alone: ${JSON.stringify(csv)}`);
  * }
  * ```
  */

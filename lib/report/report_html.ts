@@ -146,28 +146,22 @@ function placementRow(label: string, p: ReportPlacement, areaMm2: number): strin
  *
  * @example Names from input are escaped
  * ```ts
+ * import { buildCaseResult, parseAnnotations } from "hotfield";
  * import { renderCaseHtml } from "./report_html.ts";
- * const grid = { x0Um: 0, y0Um: 0, strideUm: 10, nx: 0, ny: 0 };
- * const result = {
- *   report: {
- *     schema: "hotfield.report/1", case: "<b>QVT</b>",
- *     window: { shape: "circle", area_mm2: 2.37, diameter_um: 1737.1 },
- *     settings: { stride_um: 50, min_coverage: 0.95, min_score: 0, count_labels: ["mitotic figure"] },
- *     valid_area_mm2: 0, figures: { total: 0, counted: 0, outside_valid: 0, below_score: 0 },
- *     hotspot: null,
- *     distribution: { positions: 0, min: null, q1: null, median: null, q3: null, max: null, mean: null },
- *     fields: [], classification: null, warnings: ["No admissible window position"],
- *   },
- *   prepared: { caseId: "QVT", slide: { id: "QVT", mppX: 0.25, mppY: 0.25 }, validPx: [], excludePx: [], fields: [] },
- *   window: { shape: "circle", areaMm2: 2.37, diameterUm: 1737.1 },
- *   map: { grid, counts: new Int32Array(0), admissible: new Uint8Array(0), coverage: new Float32Array(0), minCoverage: 0.95, positions: 0 },
- *   hotspot: null, top: [], bestFields: [], bestFieldWindow: null,
- *   caseData: { sources: [] },
- * };
- * const html = renderCaseHtml(result as never, {
+ * // A case id holding markup is shown as text.
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: [[[0, 0], [4000, 0], [4000, 3000], [0, 3000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint", coordinates: [[2000, 1500], [2100, 1400], [500, 500]] } },
+ *   ],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const result = buildCaseResult({ caseId: "<b>QVT</b>", ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
+ * const html = renderCaseHtml(result, {
  *   plotlySrc: "../assets/plotly.min.js", generatedAt: null, version: "0.1.0", options: {},
  * });
- * if (html.includes("<b>QVT</b>") || !html.includes("&lt;b&gt;QVT&lt;/b&gt;")) throw new Error();
+ * if (html.includes("<b>QVT</b>")) throw new Error("markup from the input reached the page");
+ * if (!html.includes("&lt;b&gt;QVT&lt;/b&gt;")) throw new Error("the case id is missing");
  * ```
  */
 export function renderCaseHtml(result: CaseResult, context: CaseHtmlContext): string {

@@ -63,7 +63,8 @@ export interface WriteOutputsOptions {
  * @example
  * ```ts
  * import { stableJson } from "./write_outputs.ts";
- * if (stableJson({ a: 1 }) !== '{\n  "a": 1\n}\n') throw new Error();
+ * const text = stableJson({ a: 1 });
+ * if (text !== '{\n  "a": 1\n}\n') throw new Error(`two-space indent and a final newline: ${JSON.stringify(text)}`);
  * ```
  */
 export function stableJson(value: unknown): string {
@@ -82,8 +83,10 @@ export function stableJson(value: unknown): string {
  * @example A fixed epoch gives a fixed time
  * ```ts
  * import { generationTime } from "./write_outputs.ts";
- * if (generationTime("1700000000", new Date(0)) !== "2023-11-14T22:13:20Z") throw new Error();
- * if (generationTime(undefined, new Date(0)) !== "1970-01-01T00:00:00Z") throw new Error();
+ * const fixed = generationTime("1700000000", new Date(0));
+ * if (fixed !== "2023-11-14T22:13:20Z") throw new Error(`SOURCE_DATE_EPOCH 1700000000 gave ${fixed}`);
+ * const now = generationTime(undefined, new Date(0));
+ * if (now !== "1970-01-01T00:00:00Z") throw new Error(`without an epoch the clock is used: ${now}`);
  * ```
  */
 export function generationTime(sourceDateEpoch: string | undefined, now: Date): string {
@@ -136,7 +139,7 @@ function checkCaseFolderName(id: string): void {
  *
  * @example Refusing a file as output folder
  * ```ts
- * import { writeOutputs } from "./write_outputs.ts";
+ * import { writeOutputs } from "hotfield";
  * let message = "";
  * try { writeOutputs([], Deno.execPath()); } catch (e) { message = (e as Error).message; }
  * if (!message.includes("it is a file, not a folder")) throw new Error(message);

@@ -98,8 +98,9 @@ export const SAME_AREA_TOLERANCE = 0.005;
  * @example 10 HPF of 0.237 mm²
  * ```ts
  * import { basisAreaMm2 } from "./classify.ts";
- * import { getScheme } from "./list_schemes.ts";
- * if (Math.abs(basisAreaMm2(getScheme("canine-mct-2tier"))! - 2.37) > 1e-12) throw new Error();
+ * import { getScheme } from "hotfield";
+ * const area = basisAreaMm2(getScheme("canine-mct-2tier"));
+ * if (area === null || Math.abs(area - 2.37) > 1e-12) throw new Error(`basis area ${area} mm², expected 2.37`);
  * ```
  */
 export function basisAreaMm2(scheme: GradingScheme): number | null {
@@ -128,8 +129,9 @@ export function describeBasis(scheme: GradingScheme): string {
  * @example A 2 mm² basis and a 10 mm² count
  * ```ts
  * import { areaFactor } from "./classify.ts";
- * import { getScheme } from "./list_schemes.ts";
- * if (areaFactor(getScheme("nen-who"), 10).factor !== 5) throw new Error();
+ * import { getScheme } from "hotfield";
+ * const { factor } = areaFactor(getScheme("nen-who"), 10);
+ * if (factor !== 5) throw new Error(`10 mm² over a 2 mm² basis gave ${factor}, expected 5`);
  * ```
  */
 export function areaFactor(
@@ -163,7 +165,8 @@ export function areaFactor(
  * @example "> 5 per 5 mm²" in a 5 mm² window needs 6
  * ```ts
  * import { minCountFor } from "./classify.ts";
- * if (minCountFor({ above: 5 }, 1) !== 6 || minCountFor({ atLeast: 7 }, 1) !== 7) throw new Error();
+ * const above5 = minCountFor({ above: 5 }, 1), atLeast7 = minCountFor({ atLeast: 7 }, 1);
+ * if (above5 !== 6 || atLeast7 !== 7) throw new Error(`"> 5" needs ${above5}, "≥ 7" needs ${atLeast7}`);
  * ```
  */
 export function minCountFor(bound: LowerBound, factor: number): number {
@@ -186,10 +189,10 @@ export function meetsBound(rate: number, bound: LowerBound): boolean {
  *
  * @example WHO neuroendocrine grade per 2 mm²
  * ```ts
- * import { tierForRate } from "./classify.ts";
- * import { getScheme } from "./list_schemes.ts";
+ * import { getScheme, tierForRate } from "hotfield";
  * const nen = getScheme("nen-who");
- * if (tierForRate(nen, 20) !== "G2" || tierForRate(nen, 20.2) !== "G3") throw new Error();
+ * const at20 = tierForRate(nen, 20), above20 = tierForRate(nen, 20.2);
+ * if (at20 !== "G2" || above20 !== "G3") throw new Error(`20 per 2 mm² is ${at20}, 20.2 is ${above20}`);
  * ```
  */
 export function tierForRate(scheme: GradingScheme, rate: number): string {
@@ -204,9 +207,9 @@ export function tierForRate(scheme: GradingScheme, rate: number): string {
  *
  * @example 11 mitoses in 10 mm² are 2.2 per 2 mm²
  * ```ts
- * import { rateForBasis } from "./classify.ts";
- * import { getScheme } from "./list_schemes.ts";
- * if (Math.abs(rateForBasis(getScheme("nen-who"), 11, 10) - 2.2) > 1e-12) throw new Error();
+ * import { getScheme, rateForBasis } from "hotfield";
+ * const rate = rateForBasis(getScheme("nen-who"), 11, 10);
+ * if (Math.abs(rate - 2.2) > 1e-12) throw new Error(`11 in 10 mm² is ${rate} per 2 mm², expected 2.2`);
  * ```
  */
 export function rateForBasis(scheme: GradingScheme, count: number, areaMm2: number): number {
@@ -249,14 +252,17 @@ export interface ClassifyOptions {
  *
  * @example Kiupel: 7 in the hotspot meets "≥ 7 in 10 HPF"
  * ```ts
- * import { classifyCounts } from "./classify.ts";
- * import { getScheme } from "./list_schemes.ts";
+ * import { classifyCounts, getScheme } from "hotfield";
  * const { classification } = classifyCounts({
  *   hotspotCount: 7, q1: 1, windowAreaMm2: 2.37,
  *   counts: [1, 2, 7, 0], admissible: [1, 1, 1, 1],
  * }, getScheme("canine-mct-2tier"));
- * if (classification.class !== "field-dependent" || classification.tier !== "high") throw new Error();
- * if (classification.fraction_at_or_above !== 0.25) throw new Error();
+ * if (classification.class !== "field-dependent" || classification.tier !== "high") {
+ *   throw new Error(`class ${classification.class}, tier ${classification.tier}`);
+ * }
+ * // One of the four positions holds 7 or more.
+ * const share = classification.fraction_at_or_above;
+ * if (share !== 0.25) throw new Error(`share at or above the cut-off ${share}, expected 0.25`);
  * ```
  */
 export function classifyCounts(

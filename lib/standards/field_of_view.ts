@@ -43,9 +43,12 @@ export interface FieldOfView {
  *
  * @example 10×/22 eyepiece, 40× objective
  * ```ts
- * import { fieldOfView } from "./field_of_view.ts";
+ * import { fieldOfView } from "hotfield";
  * const f = fieldOfView({ fieldNumberMm: 22, objective: 40 });
- * if (Math.abs(f.diameterMm - 0.55) > 1e-12 || Math.abs(f.areaMm2 - 0.237583) > 1e-6) throw new Error();
+ * // FN 22 / 40 = 0.55 mm across; π × 0.275² = 0.237583 mm².
+ * if (Math.abs(f.diameterMm - 0.55) > 1e-12 || Math.abs(f.areaMm2 - 0.237583) > 1e-6) {
+ *   throw new Error(`field ${f.diameterMm} mm, ${f.areaMm2} mm²`);
+ * }
  * ```
  */
 export function fieldOfView(options: FieldOfViewOptions): FieldOfView {
@@ -78,9 +81,9 @@ export function fieldOfView(options: FieldOfViewOptions): FieldOfView {
  *
  * @example 42 fields of 0.55 mm make about 10 mm²
  * ```ts
- * import { fieldOfView, fieldsForArea } from "./field_of_view.ts";
+ * import { fieldOfView, fieldsForArea } from "hotfield";
  * const f = fieldsForArea(fieldOfView({ fieldNumberMm: 22, objective: 40 }).areaMm2, 10);
- * if (f.rounded !== 43 || Math.abs(f.exact - 42.09) > 0.005) throw new Error();
+ * if (f.rounded !== 43 || Math.abs(f.exact - 42.09) > 0.005) throw new Error(`${f.exact} fields, rounded ${f.rounded}`);
  * ```
  */
 export function fieldsForArea(
@@ -106,8 +109,9 @@ export function fieldsForArea(
  *
  * @example 11 mitoses in 10 mm² are 2.2 per 2 mm²
  * ```ts
- * import { convertCount } from "./field_of_view.ts";
- * if (Math.abs(convertCount(11, 10, 2) - 2.2) > 1e-12) throw new Error();
+ * import { convertCount } from "hotfield";
+ * const per2 = convertCount(11, 10, 2);
+ * if (Math.abs(per2 - 2.2) > 1e-12) throw new Error(`11 per 10 mm² is ${per2} per 2 mm², expected 2.2`);
  * ```
  */
 export function convertCount(count: number, fromMm2: number, toMm2: number): number {
@@ -143,7 +147,9 @@ export interface DigitalFieldOptions {
  * ```ts
  * import { digitalFieldArea } from "./field_of_view.ts";
  * const f = digitalFieldArea({ widthPx: 1920, heightPx: 1080, umPerScreenPx: 0.25 });
- * if (f.widthUm !== 480 || f.heightUm !== 270 || Math.abs(f.areaMm2 - 0.1296) > 1e-12) throw new Error();
+ * if (f.widthUm !== 480 || f.heightUm !== 270 || Math.abs(f.areaMm2 - 0.1296) > 1e-12) {
+ *   throw new Error(`field ${f.widthUm} × ${f.heightUm} µm, ${f.areaMm2} mm²`);
+ * }
  * ```
  */
 export function digitalFieldArea(

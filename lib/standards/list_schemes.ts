@@ -34,9 +34,10 @@ const SCHEMES: readonly GradingScheme[] = [
  *
  * @example Every scheme has a distinct id
  * ```ts
- * import { listSchemes } from "./list_schemes.ts";
+ * import { listSchemes } from "hotfield";
  * const ids = listSchemes().map((s) => s.id);
- * if (new Set(ids).size !== ids.length || !ids.includes("canine-mct-2tier")) throw new Error();
+ * if (new Set(ids).size !== ids.length) throw new Error(`scheme ids repeat: ${ids}`);
+ * if (!ids.includes("canine-mct-2tier")) throw new Error(`canine-mct-2tier missing from ${ids}`);
  * ```
  */
 export function listSchemes(): GradingScheme[] {
@@ -52,8 +53,9 @@ export function listSchemes(): GradingScheme[] {
  *
  * @example
  * ```ts
- * import { getScheme } from "./list_schemes.ts";
- * if (getScheme("gist").basis.kind !== "mm2") throw new Error();
+ * import { getScheme } from "hotfield";
+ * const basis = getScheme("gist").basis;
+ * if (basis.kind !== "mm2") throw new Error(`the GIST scheme counts per mm², not per ${basis.kind}`);
  * ```
  */
 export function getScheme(id: string): GradingScheme {

@@ -40,9 +40,11 @@ export interface NottinghamCutoffs {
  *
  * @example A 0.55 mm field (FN 22, 40×)
  * ```ts
- * import { nottinghamCutoffs } from "./nottingham.ts";
+ * import { nottinghamCutoffs } from "hotfield";
  * const c = nottinghamCutoffs(0.55);
- * if (c.score1Max !== 8 || c.score2From !== 9 || c.score2Max !== 17 || c.score3From !== 18) throw new Error();
+ * if (c.score1Max !== 8 || c.score2From !== 9 || c.score2Max !== 17 || c.score3From !== 18) {
+ *   throw new Error(`cut-offs for 0.55 mm: ${JSON.stringify(c)}`);
+ * }
  * ```
  */
 export function nottinghamCutoffs(fieldDiameterMm: number): NottinghamCutoffs {
@@ -68,8 +70,9 @@ export function nottinghamCutoffs(fieldDiameterMm: number): NottinghamCutoffs {
  *
  * @example 20 in 10 reference fields (0.59 mm) is score 3 (Elston & Ellis)
  * ```ts
- * import { nottinghamScore } from "./nottingham.ts";
- * if (nottinghamScore(20, 0.59) !== 3 || nottinghamScore(19, 0.59) !== 2) throw new Error();
+ * import { nottinghamScore } from "hotfield";
+ * const at20 = nottinghamScore(20, 0.59), at19 = nottinghamScore(19, 0.59);
+ * if (at20 !== 3 || at19 !== 2) throw new Error(`20 and 19 per 10 fields of 0.59 mm scored ${at20} and ${at19}`);
  * ```
  */
 export function nottinghamScore(countPer10Fields: number, fieldDiameterMm: number): 1 | 2 | 3 {
@@ -84,7 +87,8 @@ export function nottinghamScore(countPer10Fields: number, fieldDiameterMm: numbe
  * @example 30 rows
  * ```ts
  * import { nottinghamTable } from "./nottingham.ts";
- * if (nottinghamTable().length !== 30) throw new Error();
+ * const rows = nottinghamTable().length;
+ * if (rows !== 30) throw new Error(`${rows} rows for 0.40 to 0.69 mm, expected 30`);
  * ```
  */
 export function nottinghamTable(fromMm = 0.4, toMm = 0.69, stepMm = 0.01): NottinghamCutoffs[] {

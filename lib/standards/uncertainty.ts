@@ -60,9 +60,10 @@ export interface CountUncertaintyOptions {
  *
  * @example 7 figures in 2.37 mm²
  * ```ts
- * import { countUncertainty } from "./uncertainty.ts";
+ * import { countUncertainty } from "hotfield";
  * const u = countUncertainty(7, 2.37);
- * if (Math.abs(u.per_mm2_ci95[0] - 1.1875) > 1e-4) throw new Error();
+ * // Garwood's lower limit for 7 is 2.8144; over 2.37 mm² that is 1.1875 per mm².
+ * if (Math.abs(u.per_mm2_ci95[0] - 1.1875) > 1e-4) throw new Error(`lower limit ${u.per_mm2_ci95[0]} per mm²`);
  * ```
  */
 export function countUncertainty(

@@ -44,7 +44,9 @@ function logGamma(z: number): number {
  * @example P(1, x) = 1 − e^(−x)
  * ```ts
  * import { regularizedGammaP } from "./chi_square.ts";
- * if (Math.abs(regularizedGammaP(1, 2) - (1 - Math.exp(-2))) > 1e-14) throw new Error();
+ * // P(1, x) = 1 − e^−x.
+ * const p = regularizedGammaP(1, 2);
+ * if (Math.abs(p - (1 - Math.exp(-2))) > 1e-14) throw new Error(`P(1, 2) = ${p}`);
  * ```
  */
 export function regularizedGammaP(a: number, x: number): number {
@@ -91,7 +93,9 @@ export function regularizedGammaP(a: number, x: number): number {
  * @example The median of χ²(2) is 2 ln 2
  * ```ts
  * import { chiSquareCdf } from "./chi_square.ts";
- * if (Math.abs(chiSquareCdf(2 * Math.LN2, 2) - 0.5) > 1e-14) throw new Error();
+ * // With 2 degrees of freedom F(x) = 1 − e^(−x/2), so the median is 2 ln 2.
+ * const f = chiSquareCdf(2 * Math.LN2, 2);
+ * if (Math.abs(f - 0.5) > 1e-14) throw new Error(`F(2 ln 2; 2) = ${f}, expected 0.5`);
  * ```
  */
 export function chiSquareCdf(x: number, df: number): number {

@@ -22,9 +22,9 @@ import { chiSquareQuantile } from "./chi_square.ts";
  *
  * @example 7 figures
  * ```ts
- * import { garwoodInterval } from "./garwood.ts";
+ * import { garwoodInterval } from "hotfield";
  * const [lo, hi] = garwoodInterval(7);
- * if (Math.abs(lo - 2.8144) > 1e-4 || Math.abs(hi - 14.4227) > 1e-4) throw new Error();
+ * if (Math.abs(lo - 2.8144) > 1e-4 || Math.abs(hi - 14.4227) > 1e-4) throw new Error(`95% limits for 7: ${lo}, ${hi}`);
  * ```
  */
 export function garwoodInterval(count: number, level = 0.95): [number, number] {
@@ -46,7 +46,8 @@ export function garwoodInterval(count: number, level = 0.95): [number, number] {
  * @example P(Y ≤ 0 | 2) = e^−2
  * ```ts
  * import { poissonCdf } from "./garwood.ts";
- * if (Math.abs(poissonCdf(0, 2) - Math.exp(-2)) > 1e-15) throw new Error();
+ * const p0 = poissonCdf(0, 2);
+ * if (Math.abs(p0 - Math.exp(-2)) > 1e-15) throw new Error(`P(Y ≤ 0 | mean 2) = ${p0}, expected e^−2`);
  * ```
  */
 export function poissonCdf(k: number, mean: number): number {
@@ -77,7 +78,9 @@ export function poissonCdf(k: number, mean: number): number {
  * @example 7 observed against "≥ 7": a recount below 7 has probability P(Y ≤ 6 | 7)
  * ```ts
  * import { pOtherSide, poissonCdf } from "./garwood.ts";
- * if (pOtherSide(7, 7) !== poissonCdf(6, 7)) throw new Error();
+ * // 7 meets "≥ 7"; a recount falls below it with P(Y ≤ 6 | mean 7).
+ * const p = pOtherSide(7, 7);
+ * if (p !== poissonCdf(6, 7)) throw new Error(`p ${p}, expected P(Y ≤ 6) = ${poissonCdf(6, 7)}`);
  * ```
  */
 export function pOtherSide(observed: number, minCount: number): number {

@@ -24,8 +24,9 @@ export const QUANTILE_METHOD = "R-7 (linear interpolation, Hyndman & Fan 1996 ty
  * ```ts
  * import { quantileSorted } from "./quantiles.ts";
  * const x = [3, 6, 7, 8, 8, 10, 13, 15, 16, 20];
- * if (quantileSorted(x, 0.25) !== 7.25 || quantileSorted(x, 0.5) !== 9) throw new Error();
- * if (quantileSorted(x, 0.75) !== 14.5 || quantileSorted([], 0.5) !== null) throw new Error();
+ * const q = [0.25, 0.5, 0.75].map((p) => quantileSorted(x, p)).join();
+ * if (q !== "7.25,9,14.5") throw new Error(`R-7 quartiles ${q}, expected 7.25,9,14.5`);
+ * if (quantileSorted([], 0.5) !== null) throw new Error("no values must give null");
  * ```
  */
 export function quantileSorted(sorted: ArrayLike<number>, p: number): number | null {
@@ -65,7 +66,9 @@ export interface FiveNumberSummary {
  * ```ts
  * import { fiveNumberSummary } from "./quantiles.ts";
  * const s = fiveNumberSummary([1, 2, 3, 4]);
- * if (s.min !== 1 || s.q1 !== 1.75 || s.median !== 2.5 || s.q3 !== 3.25 || s.max !== 4) throw new Error();
+ * if (s.min !== 1 || s.q1 !== 1.75 || s.median !== 2.5 || s.q3 !== 3.25 || s.max !== 4) {
+ *   throw new Error(`summary ${JSON.stringify(s)}`);
+ * }
  * ```
  */
 export function fiveNumberSummary(sorted: ArrayLike<number>): FiveNumberSummary {
@@ -89,7 +92,8 @@ export function fiveNumberSummary(sorted: ArrayLike<number>): FiveNumberSummary 
  * ```ts
  * import { quantileOfHistogram } from "./quantiles.ts";
  * // values 0, 1, 1, 3
- * if (quantileOfHistogram([1, 2, 0, 1], 0.75) !== 1.5) throw new Error();
+ * const q3 = quantileOfHistogram([1, 2, 0, 1], 0.75);
+ * if (q3 !== 1.5) throw new Error(`upper quartile ${q3}, expected 1.5`);
  * ```
  */
 export function quantileOfHistogram(histogram: ArrayLike<number>, p: number): number | null {

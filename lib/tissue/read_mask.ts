@@ -301,7 +301,9 @@ export function maskToPolygons(mask: Mask, options: MaskToPolygonsOptions): Mult
  * import { checkMaskSize } from "./read_mask.ts";
  * const mask = { width: 100, height: 50, data: new Uint8Array(5000) };
  * const slide = { id: "QVT-24-001", mppX: 0.25, mppY: 0.25, widthPx: 6400, heightPx: 3200 };
- * if (checkMaskSize(mask, 16, slide, "mask.png").length !== 0) throw new Error();
+ * // 100 × 50 mask pixels of 16 µm cover 6400 × 3200 px at 0.25 µm/px exactly.
+ * const warnings = checkMaskSize(mask, 16, slide, "mask.png");
+ * if (warnings.length !== 0) throw new Error(`a fitting mask warned: ${warnings}`);
  * let threw = false;
  * try { checkMaskSize(mask, 8, slide, "mask.png"); } catch (e) { threw = e instanceof RangeError; }
  * if (!threw) throw new Error("a 2× wrong mpp must be refused");
