@@ -207,8 +207,10 @@ export function showDistribution(result: CaseResult, options: ShowPlotOptions = 
  * }), { fileName: "QVT-24-001.geojson" });
  * const result = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, { strideUm: 100, bestN: 0 });
  * const bundle = showCohort([result], { inlinePlotly: "never" })[JUPYTER_DISPLAY]();
- * const json = bundle["application/vnd.plotly.v1+json"] as { data: { y: number[] }[] };
- * if (json.data[0].y[0] !== 3) throw new Error(`hotspot bar ${json.data[0].y[0]}, expected 3`);
+ * // One horizontal bar per case: the case on y, its hotspot count on x.
+ * const json = bundle["application/vnd.plotly.v1+json"] as { data: { x: number[]; y: string[] }[] };
+ * const [bar] = json.data;
+ * if (bar.y[0] !== "QVT-24-001" || bar.x[0] !== 3) throw new Error(`bar ${bar.y[0]}: ${bar.x[0]}, expected 3`);
  * ```
  */
 export function showCohort(
