@@ -180,17 +180,17 @@ export interface AuditReport {
  *
  * @example Two fields of one reader, one in the upper quarter
  * ```ts
- * import { readerAudit } from "hotfield";
- * const report = (id: string, count: number) => ({
- *   case: id, window: { shape: "circle", area_mm2: 2.37, diameter_um: 1737.1 },
- *   hotspot: { center_px: [0, 0], count: 9, coverage: 1, per_mm2: 3.8 },
- *   distribution: { positions: 100, min: 0, q1: 1, median: 2, q3: 4, max: 9, mean: 2.5 },
- *   fields: [{ reader: "trainee-1", center_px: [0, 0], count, coverage: 1, percentile: 50 }],
+ * import { type AuditReport, readerAudit } from "hotfield";
+ * const report = (id: string, count: number, date?: string): AuditReport => ({
+ *   case: id, window: { area_mm2: 2.37 }, hotspot: { count: 9 },
+ *   distribution: { positions: 100, median: 2, q3: 4 },
+ *   fields: [{ reader: "trainee-1", count, percentile: count * 10, ...(date ? { date } : {}) }],
  *   classification: null,
  * });
- * const [row] = readerAudit([report("QVT-24-001", 5), report("QVT-24-002", 1)] as never);
+ * // Median 2 and upper quartile 4 in both cases: 5 is in the upper quarter, 1 in neither half.
+ * const [row] = readerAudit([report("QVT-24-001", 5), report("QVT-24-002", 1)]);
  * if (row.upperQuarterShare !== 0.5 || row.upperHalfShare !== 0.5 || row.meanShortfall !== 6) {
- *   throw new Error(JSON.stringify(row));
+ *   throw new Error(`upper quarter ${row.upperQuarterShare}, upper half ${row.upperHalfShare}, shortfall ${row.meanShortfall}`);
  * }
  * ```
  */

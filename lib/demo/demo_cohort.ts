@@ -307,10 +307,8 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
       const centres: Vec2[] = [];
       for (let k = 0; k < n; k++) {
         const col = k % 5, row = Math.floor(k / 5);
-        centres.push([
-          roundTo(cx + ((col - 2) * stepUm) / mppX, 1),
-          roundTo(cy + ((row - (rows - 1) / 2) * stepUm) / mppY, 1),
-        ]);
+        const [ox, oy] = umToPx([(col - 2) * stepUm, (row - (rows - 1) / 2) * stepUm], mpp);
+        centres.push([roundTo(cx + ox, 1), roundTo(cy + oy, 1)]);
       }
       return {
         type: "Feature",
@@ -324,7 +322,10 @@ function generateCase(r: CaseRecipe, random: Random): DemoCase {
         const [sx, sy] = toSlide(frame, u, v);
         const ring: Vec2[] = [[-half, -half], [half, -half], [half, half], [-half, half]].map((
           [dx, dy],
-        ) => [roundTo(sx + dx / mppX, 1), roundTo(sy + dy / mppY, 1)]);
+        ) => {
+          const [ox, oy] = umToPx([dx, dy], mpp);
+          return [roundTo(sx + ox, 1), roundTo(sy + oy, 1)];
+        });
         return [[...ring, ring[0]]];
       });
       return {

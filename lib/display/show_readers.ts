@@ -25,16 +25,18 @@ import {
  *
  * @example A reader with one dated field
  * ```ts
- * import { JUPYTER_DISPLAY } from "./show.ts";
+ * import { type AuditReport, JUPYTER_DISPLAY, readerAudit } from "hotfield";
  * import { showReaderFields } from "./show_readers.ts";
- * const shown = showReaderFields({
- *   entries: [{
- *     case: "QVT-24-001", count: 3, comparedCount: 3, percentile: 60, median: 2, q3: 4,
- *     upperHalf: true, upperQuarter: false, fieldTier: null, hotspotTier: null, date: "2024-01-15",
- *   }],
- * } as never, { inlinePlotly: "never" });
+ * const report = (id: string, count: number, date?: string): AuditReport => ({
+ *   case: id, window: { area_mm2: 2.37 }, hotspot: { count: 9 },
+ *   distribution: { positions: 100, median: 2, q3: 4 },
+ *   fields: [{ reader: "trainee-1", count, percentile: count * 10, ...(date ? { date } : {}) }],
+ *   classification: null,
+ * });
+ * const [row] = readerAudit([report("QVT-24-001", 3, "2024-01-15")]);
+ * const shown = showReaderFields(row, { inlinePlotly: "never" });
  * const json = shown[JUPYTER_DISPLAY]()["application/vnd.plotly.v1+json"] as { layout: { xaxis: { type: string } } };
- * if (json.layout.xaxis.type !== "date") throw new Error();
+ * if (json.layout.xaxis.type !== "date") throw new Error(`a dated field is plotted over time, not on a ${json.layout.xaxis.type} axis`);
  * ```
  */
 export function showReaderFields(

@@ -83,14 +83,18 @@ function guideLabels(): Record<string, unknown>[] {
  *
  * @example Two fields in two cases
  * ```ts
+ * import { type AuditReport, readerAudit } from "hotfield";
  * import { readerPercentileFigure } from "./reader_plots.ts";
- * const e = (c: string, p: number, half: boolean) => ({
- *   case: c, count: 3, comparedCount: 3, percentile: p, median: 2, q3: 4,
- *   upperHalf: half, upperQuarter: false, fieldTier: null, hotspotTier: null, date: null,
+ * const report = (id: string, count: number, date?: string): AuditReport => ({
+ *   case: id, window: { area_mm2: 2.37 }, hotspot: { count: 9 },
+ *   distribution: { positions: 100, median: 2, q3: 4 },
+ *   fields: [{ reader: "trainee-1", count, percentile: count * 10, ...(date ? { date } : {}) }],
+ *   classification: null,
  * });
- * const fig = readerPercentileFigure({ entries: [e("QVT-24-001", 60, true), e("QVT-24-002", 20, false)] } as never);
+ * const [row] = readerAudit([report("QVT-24-001", 6), report("QVT-24-002", 2)]);
+ * const fig = readerPercentileFigure(row);
  * const ticks = (fig.layout.xaxis as { ticktext: string[] }).ticktext;
- * if (ticks.join() !== "QVT-24-001,QVT-24-002") throw new Error(ticks.join());
+ * if (ticks.join() !== "QVT-24-001,QVT-24-002") throw new Error(`cases on the axis: ${ticks.join()}`);
  * ```
  */
 export function readerPercentileFigure(row: Pick<ReaderAuditRow, "entries">): PlotFigure {
@@ -189,13 +193,20 @@ function dateRange(xs: string[]): [string, string] {
  *
  * @example Two dated fields
  * ```ts
+ * import { type AuditReport, readerAudit } from "hotfield";
  * import { readerTimeFigure } from "./reader_plots.ts";
- * const e = (date: string, p: number) => ({
- *   case: "QVT-24-001", count: 3, comparedCount: 3, percentile: p, median: 2, q3: 4,
- *   upperHalf: true, upperQuarter: false, fieldTier: null, hotspotTier: null, date,
+ * const report = (id: string, count: number, date?: string): AuditReport => ({
+ *   case: id, window: { area_mm2: 2.37 }, hotspot: { count: 9 },
+ *   distribution: { positions: 100, median: 2, q3: 4 },
+ *   fields: [{ reader: "trainee-1", count, percentile: count * 10, ...(date ? { date } : {}) }],
+ *   classification: null,
  * });
- * const fig = readerTimeFigure({ entries: [e("2024-05-01", 60), e("2024-02-01T10:00:00Z", 20)] } as never);
- * if ((fig!.data[0].x as string[]).join() !== "2024-02-01 10:00:00,2024-05-01") throw new Error();
+ * const [row] = readerAudit([
+ *   report("QVT-24-001", 6, "2024-05-01"),
+ *   report("QVT-24-002", 2, "2024-02-01T10:00:00Z"),
+ * ]);
+ * const x = (readerTimeFigure(row)?.data[0].x as string[]).join();
+ * if (x !== "2024-02-01 10:00:00,2024-05-01") throw new Error(`dates in time order: ${x}`);
  * ```
  */
 export function readerTimeFigure(row: Pick<ReaderAuditRow, "entries">): PlotFigure | null {

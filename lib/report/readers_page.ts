@@ -181,7 +181,8 @@ function readerSection(
  *   classPairs: 0, gradeDiffers: 0, fieldsNotCounted: 1, datedFields: 0,
  *   firstDate: null, lastDate: null, entries: [],
  * }], { plotlySrc: "assets/plotly.min.js", generatedAt: null, version: "0.1.0" });
- * if (html.includes("<b>x</b>") || !html.includes("&lt;b&gt;x&lt;/b&gt;")) throw new Error();
+ * if (html.includes("<b>x</b>")) throw new Error("markup from a reader name reached the page");
+ * if (!html.includes("&lt;b&gt;x&lt;/b&gt;")) throw new Error("the reader name is missing");
  * ```
  */
 export function renderReadersPage(

@@ -215,7 +215,8 @@ export function casesCsv(reports: readonly ReportJson[]): string {
  * ```ts
  * import { fieldsCsv } from "./report_csv.ts";
  * const csv = fieldsCsv([]);
- * if (!csv.startsWith("case,reader,kind,x_px,y_px,count,coverage,percentile,shortfall,") || !csv.endsWith("\r\n")) {
+ * const lines = csv.split("\r\n");
+ * if (!lines[0].startsWith("case,reader,kind,x_px,y_px,count,coverage,percentile,shortfall,") || lines.length !== 2) {
  *   throw new Error(`no reports should give the header line alone: ${JSON.stringify(csv)}`);
  * }
  * ```
