@@ -5,6 +5,11 @@
  * Exit codes: 0 success, 1 bad input or failure, 2 bad options.
  * Messages go to stderr without a stack trace (set `HOTFIELD_DEBUG=1` for one).
  *
+ * Relative paths are read against the working directory, or against
+ * `HOTFIELD_CWD` when it is set: the `hotfield` task of deno.json sets it to
+ * `INIT_CWD`, the folder `deno task` was called from, because tasks run in
+ * the project's folder.
+ *
  * @module
  */
 
@@ -21,6 +26,14 @@ const COMMANDS: Record<string, { summary: string; load: () => Promise<CommandMod
   report: {
     summary: "count map, exact hotspot, distribution and field check; writes reports",
     load: () => import("./cli/report_command.ts"),
+  },
+  batch: {
+    summary: "every case of a manifest or folder: skips what is done, isolates failures",
+    load: () => import("./cli/batch_command.ts"),
+  },
+  cohort: {
+    summary: "rebuild index.html, cases.csv and fields.csv from every case folder in DIR",
+    load: () => import("./cli/cohort_command.ts"),
   },
   fov: {
     summary: "microscope field of view: diameter, area, fields for a target area",
@@ -86,12 +99,42 @@ export async function main(args: string[], io: CommandIo = defaultIo()): Promise
 
 function defaultIo(): CommandIo {
   const enc = new TextEncoder();
+  const write = (file: typeof Deno.stdout, s: string) => {
+    const bytes = enc.encode(s);
+    for (let k = 0; k < bytes.length;) k += file.writeSync(bytes.subarray(k));
+  };
   return {
-    stdout: (s) => Deno.stdout.writeSync(enc.encode(s)),
-    stderr: (s) => Deno.stderr.writeSync(enc.encode(s)),
+    stdout: (s) => write(Deno.stdout, s),
+    stderr: (s) => write(Deno.stderr, s),
+    isTerminal: () => Deno.stdout.isTerminal(),
   };
 }
 
+/**
+ * Moves to the folder relative paths are meant against: `HOTFIELD_CWD` when
+ * set (see the module documentation). Returns a message when that fails.
+ */
+function enterCallerFolder(): string | null {
+  let dir: string | undefined;
+  try {
+    dir = Deno.env.get("HOTFIELD_CWD");
+  } catch {
+    return null; // no env permission: stay where we are
+  }
+  if (dir === undefined || dir === "") return null;
+  try {
+    Deno.chdir(dir);
+    return null;
+  } catch (e) {
+    return `hotfield: cannot work in HOTFIELD_CWD "${dir}": ${(e as Error).message}\n`;
+  }
+}
+
 if (import.meta.main) {
+  const problem = enterCallerFolder();
+  if (problem) {
+    defaultIo().stderr(problem);
+    Deno.exit(1);
+  }
   Deno.exit(await main(Deno.args));
 }

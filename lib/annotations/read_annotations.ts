@@ -68,6 +68,11 @@ export interface ParseAnnotationsOptions {
    * @default undefined
    */
   slide?: SlideMember;
+  /**
+   * Who sets each field of `slide`, for the warnings.
+   * @default "The case file" for every field
+   */
+  slideLabels?: Partial<Record<keyof SlideMember, string>>;
 }
 
 const WHAT = "annotations";
@@ -183,7 +188,7 @@ export function parseAnnotations(
       'the "slide" member is inside the collection\'s "properties"; hotfield reads it at the top level, beside "type" and "features"',
     );
   }
-  const merged = mergeSlideMembers(fc.slide, options.slide);
+  const merged = mergeSlideMembers(fc.slide, options.slide, options.slideLabels);
   warnings.push(...merged.warnings);
   const slide = parseSlideInfo(merged.member, { what: WHAT, fileName: file });
 

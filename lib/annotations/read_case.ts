@@ -102,6 +102,19 @@ export interface CaseInput {
   slide?: SlideMember;
   /** Report settings named by the case file. */
   settings?: CaseSettings;
+  /**
+   * Micrometres per level-0 pixel given for the case (a command-line option
+   * or a manifest cell), one value or `[x, y]`; replaces the slide's mpp from
+   * the annotation file and the case file, with a warning when it changes one.
+   */
+  mpp?: number | [number, number];
+  /** Who gave {@linkcode CaseInput.mpp}, for that warning. @default "The mpp option" */
+  mppFrom?: string;
+  /**
+   * Folder that relative paths are read against; the paths are recorded in
+   * `sources` and named in messages as given. @default the working directory
+   */
+  baseDir?: string;
 }
 
 /** The version of the case-file format this code reads. */
@@ -134,6 +147,8 @@ const CASE_KEYS = [
  * The files it names are not read here.
  *
  * @param path The case file.
+ * @param options `baseDir`: the folder a relative `path` is read against (kept
+ *   in the result, so the files it names are read against it too).
  * @returns The case input.
  * @throws {Error} When the file cannot be read.
  * @throws {SyntaxError} When it is not JSON.
@@ -153,9 +168,16 @@ const CASE_KEYS = [
  * }
  * ```
  */
-export async function readCaseFile(path: string): Promise<CaseInput> {
-  const text = decodeText(await readBytes(path, "case file"), "case file", path);
-  return parseCaseFile(text, path);
+export async function readCaseFile(
+  path: string,
+  options: { baseDir?: string } = {},
+): Promise<CaseInput> {
+  const base = options.baseDir;
+  const at = base !== undefined && !isAbsolute(path) ? join(base, path) : path;
+  const text = decodeText(await readBytes(path, "case file", at), "case file", path);
+  const input = parseCaseFile(text, path);
+  if (base !== undefined) input.baseDir = base;
+  return input;
 }
 
 /**
@@ -441,9 +463,27 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
   const sources: CaseSource[] = [];
   const record = (kind: CaseSource["kind"], path: string, bytes: Uint8Array) =>
     sources.push({ kind, path, sha256: createHash("sha256").update(bytes).digest("hex") });
+  const base = input.baseDir;
+  const read = (path: string, what: string) =>
+    readBytes(path, what, base !== undefined && !isAbsolute(path) ? join(base, path) : path);
 
   if (input.caseFilePath !== undefined) {
-    record("case", input.caseFilePath, await readBytes(input.caseFilePath, "case file"));
+    record("case", input.caseFilePath, await read(input.caseFilePath, "case file"));
+  }
+  let slideOverride = input.slide;
+  let slideLabels: Partial<Record<keyof SlideMember, string>> | undefined;
+  if (input.mpp !== undefined) {
+    const from = input.mppFrom ?? "The mpp option";
+    const old = input.slide?.mpp;
+    if (old !== undefined && JSON.stringify(old) !== JSON.stringify(input.mpp)) {
+      warnings.push(
+        `${from} sets slide mpp ${JSON.stringify(input.mpp)}, replacing ${
+          JSON.stringify(old)
+        } from the case file`,
+      );
+    }
+    slideOverride = { ...input.slide, mpp: input.mpp };
+    slideLabels = { mpp: from };
   }
 
   let slide: SlideInfo;
@@ -456,16 +496,17 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
 
   if (input.annotationsPath !== undefined) {
     const path = input.annotationsPath;
-    const bytes = await readBytes(path, "annotations");
+    const bytes = await read(path, "annotations");
     record("annotations", path, bytes);
     const parsed = parseAnnotations(decodeText(bytes, "annotations", path), {
       fileName: path,
-      slide: input.slide,
+      slide: slideOverride,
+      slideLabels,
     });
     ({ slide, tissue, tumour, exclude, figures, fields } = parsed);
     warnings.push(...parsed.warnings);
-  } else if (input.slide !== undefined) {
-    slide = parseSlideInfo(input.slide, {
+  } else if (slideOverride !== undefined) {
+    slide = parseSlideInfo(slideOverride, {
       what: "case file",
       fileName: input.caseFilePath ?? "(options)",
     });
@@ -475,7 +516,7 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
 
   if (input.figuresPath !== undefined) {
     const path = input.figuresPath;
-    const bytes = await readBytes(path, "figures CSV");
+    const bytes = await read(path, "figures CSV");
     record("figures", path, bytes);
     const csv = parseFiguresCsv(decodeText(bytes, "figures CSV", path), {
       fileName: path,
@@ -517,7 +558,7 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
       (detail) => inputError(RangeError, "tissue mask", path, `mask mpp ${detail}`),
     );
     const [maskMppX, maskMppY] = typeof maskMpp === "number" ? [maskMpp, maskMpp] : maskMpp;
-    const bytes = await readBytes(path, "tissue mask");
+    const bytes = await read(path, "tissue mask");
     record("tissue-mask", path, bytes);
     const mask = decodeMaskPng(bytes, { fileName: path });
     // throws when the size disagrees; returns warnings for unknown sizes or small mismatches
@@ -664,9 +705,9 @@ function fileStem(path: string): string {
   return m && m[1] !== "" ? m[1] : base;
 }
 
-async function readBytes(path: string, what: string): Promise<Uint8Array> {
+async function readBytes(path: string, what: string, at = path): Promise<Uint8Array> {
   try {
-    return new Uint8Array(await readFile(path));
+    return new Uint8Array(await readFile(at));
   } catch (e) {
     const code = (e as { code?: string }).code;
     const problem = code === "ENOENT"

@@ -153,6 +153,8 @@ function checkSlideMpp(
  *
  * @param fromFile The member from the annotation file (may be absent).
  * @param override The member from the case file (may be absent).
+ * @param labels Who sets each field, for the warnings (e.g. `{ mpp: "The manifest" }`).
+ *   @default "The case file" for every field
  * @returns The merged member and a warning per overridden value.
  *
  * @example The case file corrects the mpp
@@ -167,6 +169,7 @@ function checkSlideMpp(
 export function mergeSlideMembers(
   fromFile: unknown,
   override: SlideMember | undefined,
+  labels: Partial<Record<keyof SlideMember, string>> = {},
 ): { member: unknown; warnings: string[] } {
   if (override === undefined) return { member: fromFile, warnings: [] };
   if (fromFile === undefined || fromFile === null || typeof fromFile !== "object") {
@@ -179,9 +182,9 @@ export function mergeSlideMembers(
     const old = merged[k];
     if (old !== undefined && JSON.stringify(old) !== JSON.stringify(v)) {
       warnings.push(
-        `The case file sets slide ${k} ${JSON.stringify(v)}, replacing ${
-          JSON.stringify(old)
-        } from the annotation file`,
+        `${labels[k as keyof SlideMember] ?? "The case file"} sets slide ${k} ${
+          JSON.stringify(v)
+        }, replacing ${JSON.stringify(old)} from the annotation file`,
       );
     }
     merged[k] = v;

@@ -11,16 +11,30 @@ import { type CaseInput, parseCaseFile } from "../annotations/read_case.ts";
 import type { OptionSpec } from "./_args.ts";
 import { DEFAULT_COUNT_LABEL, DEFAULT_COUNT_LABELS, DEFAULT_MIN_SCORE } from "../defaults.ts";
 
-/** The case and counting options (node:util parseArgs spec). */
-export const CASE_OPTIONS: OptionSpec = {
+/** The options naming a case's files and id (node:util parseArgs spec). */
+export const FILE_OPTIONS: OptionSpec = {
   figures: { type: "string" },
   units: { type: "string" },
   "tissue-mask": { type: "string" },
   "mask-mpp": { type: "string" },
-  "min-score": { type: "string" },
-  "count-label": { type: "string", multiple: true },
+  mpp: { type: "string" },
   id: { type: "string" },
 };
+
+/** The options of what is counted (node:util parseArgs spec). */
+export const COUNT_OPTIONS: OptionSpec = {
+  "min-score": { type: "string" },
+  "count-label": { type: "string", multiple: true },
+};
+
+/** The case and counting options (node:util parseArgs spec). */
+export const CASE_OPTIONS: OptionSpec = { ...FILE_OPTIONS, ...COUNT_OPTIONS };
+
+/** Help lines for {@linkcode COUNT_OPTIONS}. */
+export const COUNT_OPTIONS_HELP = [
+  `  --min-score F          figures with a score below F (0..1) are not counted (default ${DEFAULT_MIN_SCORE})`,
+  `  --count-label L        label that is counted; repeat for several (default "${DEFAULT_COUNT_LABEL}")`,
+].join("\n");
 
 /** Help lines for {@linkcode CASE_OPTIONS}, for a command's `--help`. */
 export const CASE_OPTIONS_HELP = [
@@ -28,8 +42,8 @@ export const CASE_OPTIONS_HELP = [
   "  --units px|um          unit of the CSV's x and y (default px: level-0 pixels)",
   "  --tissue-mask M.png    tissue from a PNG mask (non-zero = tissue); united with tissue polygons",
   "  --mask-mpp N | N,M     micrometres per mask pixel (x, or x,y); needed with a mask",
-  `  --min-score F          figures with a score below F (0..1) are not counted (default ${DEFAULT_MIN_SCORE})`,
-  `  --count-label L        label that is counted; repeat for several (default "${DEFAULT_COUNT_LABEL}")`,
+  "  --mpp N | N,M          micrometres per level-0 slide pixel, replacing the slide's (a warning says so)",
+  COUNT_OPTIONS_HELP,
   "  --id ID                case id (default: slide id, case-file id, or file stem)",
 ].join("\n");
 
@@ -50,8 +64,8 @@ const MAX_CASE_FILE_BYTES = 1 << 20;
  * @param file The command's FILE argument.
  * @param values Parsed option values.
  * @returns The case input.
- * @throws {UsageError} For a bad `--units` or `--mask-mpp`, or `--mask-mpp` or
- *   `--units` with nothing to apply to.
+ * @throws {UsageError} For a bad `--units`, `--mask-mpp` or `--mpp`, or
+ *   `--mask-mpp` or `--units` with nothing to apply to.
  *
  * @example A GeoJSON with a figures CSV in micrometres
  * ```ts
@@ -106,6 +120,8 @@ export async function caseInputFromOptions(file: string, values: Values): Promis
     }
     input.maskMpp = parseMaskMpp(maskMpp);
   }
+  const mpp = str("mpp");
+  if (mpp !== undefined) input.mpp = parseMpp(mpp);
   const id = str("id");
   if (id !== undefined) input.idOverride = id;
   return input;
@@ -153,6 +169,16 @@ export function countOptionsFromValues(
     countLabels = [...new Set(list)];
   }
   return { minScore, countLabels };
+}
+
+function parseMpp(text: string): number | [number, number] {
+  const nums = text.split(",").map((s) => (s.trim() === "" ? NaN : Number(s.trim())));
+  if (nums.length > 2 || nums.some((v) => !Number.isFinite(v) || v <= 0)) {
+    throw new UsageError(
+      `Option --mpp needs a positive number N or a pair N,M (micrometres per level-0 pixel): got "${text}"`,
+    );
+  }
+  return nums.length === 1 ? nums[0] : [nums[0], nums[1]];
 }
 
 function parseMaskMpp(text: string): number | [number, number] {

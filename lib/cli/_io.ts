@@ -2,4 +2,6 @@
 export interface CommandIo {
   stdout(text: string): void;
   stderr(text: string): void;
+  /** Whether stdout is a terminal (live progress bars). @default false */
+  isTerminal?(): boolean;
 }

@@ -6,193 +6,71 @@
  * @module
  */
 
+import { statSync } from "node:fs";
 import { join } from "node:path";
-import { GridSizeError, UsageError } from "../errors.ts";
-import { loadCase } from "../annotations/read_case.ts";
-import { buildCaseResult } from "../pipeline/build_case_result.ts";
-import type { CaseResult, ReportOptions } from "../pipeline/case_result.ts";
-import { getScheme } from "../standards/list_schemes.ts";
-import { ALL_FORMATS, type OutputFormat, writeOutputs } from "../report/write_outputs.ts";
-import { numberOption, parseOptions } from "./_args.ts";
+import { UsageError } from "../errors.ts";
+import type { BatchCase } from "../batch/batch_types.ts";
+import { dropClaimedFiles, folderCases } from "../batch/case_sources.ts";
+import { runBatch } from "../batch/run_batch.ts";
+import type { CaseInput } from "../annotations/read_case.ts";
+import type { ReportJson } from "../pipeline/report_types.ts";
+import { parseOptions } from "./_args.ts";
 import {
   CASE_OPTIONS,
   CASE_OPTIONS_HELP,
   caseInputFromOptions,
   countOptionsFromValues,
+  FILE_OPTIONS,
 } from "./_case_args.ts";
-import type { CommandIo } from "./_io.ts";
 import {
-  DEFAULT_ASPECT,
-  DEFAULT_BEST_N,
-  DEFAULT_FIELD_AREA_MM2,
-  DEFAULT_MIN_COVERAGE,
-  DEFAULT_SEED,
-  DEFAULT_SIMULATIONS,
-  DEFAULT_STRIDE_UM,
-  DEFAULT_TOP,
-  DEFAULT_WINDOW_AREA_MM2,
-} from "../defaults.ts";
+  formatsFromValue,
+  REPORT_OPTIONS,
+  REPORT_OPTIONS_HELP,
+  reportOptionsFromValues,
+} from "./_report_args.ts";
+import type { CommandIo } from "./_io.ts";
+
+export { reportOptionsFromValues } from "./_report_args.ts";
 
 const HELP = `Usage: hotfield report FILE [FILE...] --out DIR [options]
 
-For each case (an annotation GeoJSON or a case file): the count of figures in
-a standard-area window at every grid position, the exact hotspot (the best
-admissible window anywhere), the spread of counts, each reader's field
-checked against it, and optionally a grading scheme's classification.
-Writes DIR/<case>/report.json, hotspot.geojson, and HTML and CSV outputs.
+For each case (an annotation GeoJSON, a case file, or a folder of them): the
+count of figures in a standard-area window at every grid position, the exact
+hotspot (the best admissible window anywhere), the spread of counts, each
+reader's field checked against it, and optionally a grading scheme's
+classification. Writes DIR/<case>/report.json, hotspot.geojson and
+report.html, then DIR/index.html, cases.csv and fields.csv listing every case
+folder in DIR (earlier runs included).
 hotfield supports, never replaces, a pathologist's diagnosis.
+
+A folder stands for its cases: every *.case.json, and every *.geojson that no
+case file of the folder names. A GeoJSON (or figures CSV, or mask) that a
+case file among the FILEs names is not a case of its own. A case that fails
+is reported and the others are still written.
 
 Options:
   --out DIR              output folder (required)
-  --area MM2             window area in mm² (default ${DEFAULT_WINDOW_AREA_MM2})
-  --shape rect|circle    window shape (default rect)
-  --aspect W:H           rectangle aspect, width along slide x (default ${DEFAULT_ASPECT.join(":")})
-  --stride-um N          distance between grid positions in µm (default ${DEFAULT_STRIDE_UM})
-  --min-coverage F       least fraction of a window inside the valid region, in (0, 1] (default ${DEFAULT_MIN_COVERAGE})
-  --top K                separate best windows to report (default ${DEFAULT_TOP})
-  --best-n N             number of single fields in the best field set, 0 to skip (default ${DEFAULT_BEST_N})
-  --field-area MM2       area of one single field in mm² (default ${DEFAULT_FIELD_AREA_MM2}: field number 22 at 40×)
-  --scheme ID            classify against a grading scheme (see hotfield schemes)
-  --simulations N        scan-test simulations with --scheme (0 skips; default ${DEFAULT_SIMULATIONS})
-  --seed N               seed of the simulations (default ${DEFAULT_SEED})
-  --format LIST          outputs, comma-separated from json,html,csv,geojson (default all)
-  --standalone           put plotting code inside each HTML file
-  --map-scale linear|sqrt  colour scale of the count map (default linear; sqrt keeps a
-                         weaker second focus visible)
-  --allow-empty          classify a case even when nothing was counted (figures present,
-                         none counted) or its figures' unit is in doubt; by default it is
-                         left unclassified
+${REPORT_OPTIONS_HELP}
   --strict               exit 1 when any case has a warning (for unattended runs); the
                          reports are still written
 ${CASE_OPTIONS_HELP}
   -h, --help             show this help
 
-Exit codes: 0 reports written, 1 bad input or output folder (or a warning under
---strict), 2 bad options.
+Exit codes: 0 reports written, 1 a case failed (bad input) or bad output
+folder (or a warning under --strict), 2 bad options.
 `;
-
-const REPORT_OPTIONS = {
-  out: { type: "string" },
-  area: { type: "string" },
-  shape: { type: "string" },
-  aspect: { type: "string" },
-  "stride-um": { type: "string" },
-  "min-coverage": { type: "string" },
-  top: { type: "string" },
-  "best-n": { type: "string" },
-  "field-area": { type: "string" },
-  "allow-empty": { type: "boolean" },
-  "map-scale": { type: "string" },
-  strict: { type: "boolean" },
-  scheme: { type: "string" },
-  simulations: { type: "string" },
-  seed: { type: "string" },
-  format: { type: "string" },
-  standalone: { type: "boolean" },
-  help: { type: "boolean", short: "h" },
-} as const;
-
-type Values = Record<string, string | boolean | string[] | undefined>;
-
-/**
- * Reads and checks the report options (everything but the case flags).
- *
- * @throws {UsageError} Naming the option, for every bad value.
- *
- * @example
- * ```ts
- * import { reportOptionsFromValues } from "./report_command.ts";
- * const o = reportOptionsFromValues({ aspect: "16:9", top: "0" });
- * if (o.aspect?.[0] !== 16 || o.top !== 0) throw new Error(`options ${JSON.stringify(o)}`);
- * let failed = false;
- * try { reportOptionsFromValues({ area: "-1" }); } catch { failed = true; }
- * if (!failed) throw new Error("a negative --area must be refused");
- * ```
- */
-export function reportOptionsFromValues(values: Values): ReportOptions {
-  const positive = (v: number) => (v > 0 ? undefined : "must be greater than 0");
-  const whole = (min: number) => (v: number) =>
-    Number.isInteger(v) && v >= min ? undefined : `must be a whole number ≥ ${min}`;
-  const options: ReportOptions = {};
-  options.areaMm2 = numberOption(values, "area", positive);
-  const shape = values.shape;
-  if (shape !== undefined) {
-    if (shape !== "rect" && shape !== "circle") {
-      throw new UsageError(`Option --shape must be rect or circle: got "${shape}"`);
-    }
-    options.shape = shape;
-  }
-  const aspect = values.aspect;
-  if (aspect !== undefined) {
-    const m = /^\s*([0-9.eE+]+)\s*:\s*([0-9.eE+]+)\s*$/.exec(String(aspect));
-    const w = m ? Number(m[1]) : NaN, h = m ? Number(m[2]) : NaN;
-    if (!(Number.isFinite(w) && Number.isFinite(h) && w > 0 && h > 0)) {
-      throw new UsageError(
-        `Option --aspect needs W:H with two positive numbers, e.g. 4:3: got "${aspect}"`,
-      );
-    }
-    options.aspect = [w, h];
-  }
-  options.strideUm = numberOption(values, "stride-um", positive);
-  options.minCoverage = numberOption(
-    values,
-    "min-coverage",
-    (v) => (v > 0 && v <= 1 ? undefined : "must lie in (0, 1]"),
-  );
-  options.top = numberOption(values, "top", whole(0));
-  options.bestN = numberOption(values, "best-n", whole(0));
-  options.fieldAreaMm2 = numberOption(values, "field-area", positive);
-  const scheme = values.scheme;
-  if (scheme !== undefined) {
-    try {
-      getScheme(String(scheme));
-    } catch (e) {
-      throw new UsageError(`Option --scheme: ${(e as Error).message}`, { cause: e });
-    }
-    options.scheme = String(scheme);
-  }
-  options.simulations = numberOption(
-    values,
-    "simulations",
-    (v) =>
-      Number.isInteger(v) && (v === 0 || (v >= 19 && v <= 100_000))
-        ? undefined
-        : "must be 0 or a whole number from 19 to 100000",
-  );
-  options.seed = numberOption(
-    values,
-    "seed",
-    (v) => (Number.isInteger(v) ? undefined : "must be a whole number"),
-  );
-  if (values["allow-empty"] === true) options.allowEmpty = true;
-  for (const k of Object.keys(options) as (keyof ReportOptions)[]) {
-    if (options[k] === undefined) delete options[k];
-  }
-  return options;
-}
-
-/** Parses `--format`. */
-function formatsFromValue(raw: unknown): OutputFormat[] {
-  if (raw === undefined) return [...ALL_FORMATS];
-  const list = String(raw).split(",").map((s) => s.trim()).filter((s) => s !== "");
-  const bad = list.filter((f) => !(ALL_FORMATS as readonly string[]).includes(f));
-  if (list.length === 0 || bad.length > 0) {
-    throw new UsageError(
-      `Option --format takes a comma-separated list of ${ALL_FORMATS.join(", ")}: got "${raw}"`,
-    );
-  }
-  return [...new Set(list)] as OutputFormat[];
-}
 
 /**
  * Runs `hotfield report` with `args` and returns the exit code.
  *
- * Every case is computed before anything is written, so a bad input leaves
- * no output folder behind.
+ * Each case is written as soon as it is done (its folder staged, then
+ * renamed into place); a case that fails is reported on stderr and the
+ * others go on. When no case is written, no output folder is made.
  *
  * @param args The arguments after `report`.
  * @param io Where to write text.
- * @returns 0 when every report was written.
+ * @returns 0 when every report was written, 1 when a case failed (2 when
+ *   every failure was an option too fine for its case).
  * @throws {UsageError} For bad options (exit 2); other errors mean bad input (exit 1).
  *
  * @example Asking for help
@@ -200,11 +78,17 @@ function formatsFromValue(raw: unknown): OutputFormat[] {
  * import { run } from "./report_command.ts";
  * const out: string[] = [];
  * const code = await run(["--help"], { stdout: (s) => out.push(s), stderr: () => {} });
- * if (code !== 0 || !out.join("").startsWith("Usage: hotfield report")) throw new Error(`exit ${code}: ${out.join("")}`);
+ * if (code !== 0 || !out.join("").startsWith("Usage: hotfield report")) throw new Error();
  * ```
  */
 export async function run(args: string[], io: CommandIo): Promise<number> {
-  const { values, positionals } = parseOptions(args, { ...CASE_OPTIONS, ...REPORT_OPTIONS });
+  const { values, positionals } = parseOptions(args, {
+    ...CASE_OPTIONS,
+    ...REPORT_OPTIONS,
+    out: { type: "string" },
+    strict: { type: "boolean" },
+    help: { type: "boolean", short: "h" },
+  });
   if (values.help) {
     io.stdout(HELP);
     return 0;
@@ -220,65 +104,114 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   }
   const options = { ...reportOptionsFromValues(values), ...countOptionsFromValues(values) };
   const formats = formatsFromValue(values.format);
-  const results: CaseResult[] = [];
-  const seen = new Map<string, string>();
+
+  // The cases: folders stand for their cases; files a case file names are not cases.
+  const named: { file: string; input: CaseInput | null; problem?: string }[] = [];
+  const fromFolders: BatchCase[] = [];
   for (const file of positionals) {
-    const input = await caseInputFromOptions(file, values);
-    const caseData = await loadCase(input);
-    const earlier = seen.get(caseData.caseId);
-    if (earlier !== undefined) {
-      throw new Error(
-        `Cases "${earlier}" and "${file}" have the same case id "${caseData.caseId}": ` +
-          "give each a distinct id (--id works for a single file)",
-      );
-    }
-    seen.set(caseData.caseId, file);
-    try {
-      results.push(buildCaseResult(caseData, options));
-    } catch (e) {
-      if (e instanceof GridSizeError) {
+    if (isFolder(file)) {
+      const perFile = Object.keys(FILE_OPTIONS).filter((k) => values[k] !== undefined);
+      if (perFile.length > 0) {
         throw new UsageError(
-          `Option --stride-um is too small for case "${caseData.caseId}": ${e.message}`,
-          { cause: e },
+          `Option --${perFile[0]} applies to one FILE, not to the folder "${file}"`,
         );
       }
-      throw e;
+      fromFolders.push(...await folderCases(file, options));
+      continue;
+    }
+    try {
+      named.push({ file, input: await caseInputFromOptions(file, values) });
+    } catch (e) {
+      if (e instanceof UsageError) throw e;
+      named.push({ file, input: null, problem: (e as Error).message });
     }
   }
-  const mapScale = values["map-scale"];
-  if (mapScale !== undefined && mapScale !== "linear" && mapScale !== "sqrt") {
-    throw new UsageError(`Option --map-scale must be linear or sqrt: got "${mapScale}"`);
+  const { kept, dropped } = dropClaimedFiles(named);
+  for (const file of dropped) {
+    io.stderr(`hotfield report: ${file} is read through a case file given too, not as a case\n`);
   }
-  writeOutputs(results, out, {
+  const cases: BatchCase[] = [
+    ...kept.map((k) => ({
+      index: 0,
+      label: k.file,
+      input: k.input,
+      ...(k.problem !== undefined ? { problem: k.problem } : {}),
+      options: { ...options },
+      shardKey: k.file,
+    })),
+    ...fromFolders,
+  ].map((c, index) => ({ ...c, index }));
+
+  const result = await runBatch(cases, {
+    outDir: out,
     formats,
     standalone: values.standalone === true,
-    ...(mapScale ? { mapScale } : {}),
+    workers: 1,
+    force: true,
   });
-  for (const r of results) {
-    const h = r.report.hotspot;
+  for (const [i, o] of result.outcomes.entries()) {
+    if (o.status === "failed") {
+      const label = result.cases[i].label;
+      const message = o.message ?? "failed";
+      io.stderr(
+        `hotfield report: ${message.includes(label) ? message : `${label}: ${message}`}\n`,
+      );
+      continue;
+    }
+    const s = o.summary!;
     const where = formats.includes("json")
-      ? join(out, r.prepared.caseId, "report.json")
-      : join(out, r.prepared.caseId);
+      ? join(out, o.caseId!, "report.json")
+      : join(out, o.caseId!);
     io.stdout(
-      `${r.prepared.caseId}\thotspot ${h ? `${h.count} (${h.per_mm2} /mm²)` : "none"}\t` +
-        `positions ${r.report.distribution.positions}\t${where}\n`,
+      `${o.caseId}\thotspot ${
+        s.hotspotCount !== null ? `${s.hotspotCount} (${s.perMm2} /mm²)` : "none"
+      }\t` +
+        `positions ${s.positions}\t${where}\n`,
     );
-    io.stdout(caseNotes(r));
+    if (o.report) io.stdout(caseNotes(o.report));
   }
-  const warned = results.filter((r) => r.report.warnings.length > 0);
-  if (values.strict === true && warned.length > 0) {
-    io.stderr(
-      `report: --strict: ${warned.length} case(s) with warnings: ` +
-        `${warned.map((r) => r.prepared.caseId).join(", ")}\n`,
-    );
-    return 1;
+  for (const note of result.notes) io.stderr(`hotfield report: ${note}\n`);
+  const warned = result.outcomes.filter((o) => (o.report?.warnings.length ?? 0) > 0);
+  if (result.failed === 0) {
+    if (values.strict === true && warned.length > 0) {
+      io.stderr(
+        `report: --strict: ${warned.length} case(s) with warnings: ` +
+          `${warned.map((o) => o.caseId).join(", ")}\n`,
+      );
+      return 1;
+    }
+    return 0;
   }
-  return 0;
+  if (cases.length > 1) {
+    io.stderr(`hotfield report: ${result.ok} ok, ${result.failed} failed\n`);
+  }
+  const failures = result.outcomes.filter((o) => o.status === "failed");
+  return failures.every((o) => o.usage) ? 2 : 1;
 }
 
-/** The verdict and every warning of a case, indented under its summary line. */
-export function caseNotes(r: Pick<CaseResult, "report">): string {
-  const lines = [`  verdict: ${r.report.verdict ?? ""}`];
-  for (const w of r.report.warnings) lines.push(`  warning: ${w}`);
+/**
+ * The verdict and every warning of a case, indented under its summary line.
+ *
+ * @param report The case's report.json.
+ * @returns Lines, each ending in a line break.
+ *
+ * @example
+ * ```ts
+ * import { caseNotes } from "./report_command.ts";
+ * const text = caseNotes({ verdict: "ok", warnings: ["w"] } as never);
+ * if (text !== "  verdict: ok\n  warning: w\n") throw new Error(text);
+ * ```
+ */
+export function caseNotes(report: Pick<ReportJson, "verdict" | "warnings">): string {
+  const lines = [`  verdict: ${report.verdict ?? ""}`];
+  for (const w of report.warnings) lines.push(`  warning: ${w}`);
   return lines.join("\n") + "\n";
+}
+
+function isFolder(path: string): boolean {
+  try {
+    return statSync(path).isDirectory();
+  } catch {
+    return false;
+  }
 }

@@ -15,10 +15,11 @@
  * @module
  */
 
-import { existsSync, readdirSync } from "node:fs";
+import { existsSync } from "node:fs";
 import { join, relative, resolve } from "node:path";
 import { parseArgs } from "node:util";
-import { type CaseInput, loadCase, readCaseFile } from "../annotations/read_case.ts";
+import { type CaseInput, loadCase } from "../annotations/read_case.ts";
+import { folderCases } from "../batch/case_sources.ts";
 import { buildCaseResult } from "../pipeline/build_case_result.ts";
 import type { CaseResult } from "../pipeline/case_result.ts";
 import { writeOutputs } from "../report/write_outputs.ts";
@@ -26,11 +27,14 @@ import { demoSchemes } from "./demo_recipes.ts";
 import { DEFAULT_SEED, DEFAULT_SIMULATIONS } from "../defaults.ts";
 
 /**
- * Lists the cases of a demo folder: each `*.case.json`, then each
- * `*.geojson` that no case file names, in file-name order.
+ * Lists the cases of a demo folder with the library's folder logic
+ * (`folderCases`): each `*.case.json`, and each `*.geojson` that no case file
+ * names, in file-name order. Paths are file names read against the folder
+ * (`baseDir`).
  *
  * @param dir The folder (e.g. data/demo).
  * @returns One case input per case.
+ * @throws {Error} With the reader's message when a case file cannot be read.
  *
  * @example The committed demo folder holds eight cases
  * ```ts
@@ -43,20 +47,10 @@ import { DEFAULT_SEED, DEFAULT_SIMULATIONS } from "../defaults.ts";
  * ```
  */
 export async function demoCaseInputs(dir: string): Promise<CaseInput[]> {
-  const names = readdirSync(dir).sort();
-  const byStem = new Map<string, CaseInput>();
-  const claimed = new Set<string>();
-  for (const name of names.filter((n) => n.endsWith(".case.json"))) {
-    const input = await readCaseFile(join(dir, name));
-    if (input.annotationsPath) claimed.add(resolve(input.annotationsPath));
-    byStem.set(name.slice(0, -".case.json".length), input);
-  }
-  for (const name of names.filter((n) => n.endsWith(".geojson"))) {
-    const path = join(dir, name);
-    if (claimed.has(resolve(path))) continue;
-    byStem.set(name.slice(0, -".geojson".length), { annotationsPath: path });
-  }
-  return [...byStem.keys()].sort().map((k) => byStem.get(k)!);
+  return (await folderCases(dir, {})).map((c) => {
+    if (c.input === null) throw new Error(c.problem ?? `Cannot read ${c.label}`);
+    return c.input;
+  });
 }
 
 /** Options of {@linkcode runDemo}. */

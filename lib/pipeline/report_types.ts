@@ -248,6 +248,20 @@ export interface ReportAreas {
 }
 
 /**
+ * Where a report came from, written by the commands that write reports
+ * (`hotfield report`, `hotfield batch`): what `batch` compares to skip a case
+ * that is already done.
+ */
+export interface ReportProvenance {
+  /** The hotfield version that wrote the report. */
+  hotfield_version: string;
+  /** Every file read for the case, in reading order, with its hex sha256. */
+  inputs: { path: string; sha256: string }[];
+  /** Hex sha256 of the canonical JSON of the effective settings (see lib/batch/settings.ts). */
+  settings_sha256: string;
+}
+
+/**
  * The whole report: `report.json`, one per case.
  *
  * Keys are snake_case. The first group (through `warnings`) is the contract;
@@ -320,6 +334,8 @@ export interface ReportJson {
   best_fields?: ReportBestFields | null;
   /** Where the count map lies on the slide. */
   map?: ReportMap;
+  /** Where the report came from; added by the commands that write reports. */
+  provenance?: ReportProvenance;
   /** Room for keys added later. */
   [extra: string]: unknown;
 }

@@ -41,8 +41,12 @@ const SORT_SCRIPT = `(function () {
 
 /** What the cohort page shows besides the results. */
 export interface CohortHtmlContext extends Omit<CaseHtmlContext, "options"> {
-  /** Link each case to `<case>/report.html` (else to `<case>/report.json`). @default true */
-  linkHtml?: boolean;
+  /**
+   * Link each case to `<case>/report.html` (else to `<case>/report.json`);
+   * a list links those case ids to the page and the others to the JSON.
+   * @default true
+   */
+  linkHtml?: boolean | readonly string[];
   /** Mention `cases.csv` and `fields.csv` beside the table. @default true */
   linkCsv?: boolean;
   /** Link the readers page `readers.html` (and `readers.csv` with `linkCsv`). @default false */
@@ -77,11 +81,12 @@ export interface CohortHtmlContext extends Omit<CaseHtmlContext, "options"> {
  * ```
  */
 export function renderCohortIndex(
-  results: readonly CaseResult[],
+  results: readonly (Pick<CaseResult, "report"> & { prepared?: { caseId: string } })[],
   context: CohortHtmlContext,
 ): string {
   const fig = cohortFigure(results);
-  const linkHtml = context.linkHtml ?? true;
+  const link = context.linkHtml ?? true;
+  const linkHtml = (id: string) => typeof link === "boolean" ? link : link.includes(id);
   // Numeric cells carry their value for sorting (data-v); "none" sorts lowest.
   const num = (v: number | null | undefined, digits: number, none = "–") =>
     `<td data-v="${typeof v === "number" && Number.isFinite(v) ? v : -1}">${
@@ -89,8 +94,8 @@ export function renderCohortIndex(
     }</td>`;
   const rows = results.map((res) => {
     const r = res.report, h = r.hotspot, c = r.classification;
-    const folder = encodeURIComponent(res.prepared.caseId);
-    const href = `${folder}/${linkHtml ? "report.html" : "report.json"}`;
+    const id = res.prepared?.caseId ?? r.case; // the folder name
+    const href = `${encodeURIComponent(id)}/${linkHtml(id) ? "report.html" : "report.json"}`;
     const problems = ((r.count_problems as string[] | undefined) ?? []).length;
     const cls = c ? escapeHtml(c.class) : problems > 0 ? "<b>not graded</b>" : "–";
     return `<tr><td><a href="${escapeHtml(href)}">${escapeHtml(r.case)}</a></td>` +

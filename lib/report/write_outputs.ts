@@ -2,10 +2,11 @@
  * Writing the outputs of one report run:
  *
  * - per case `DIR/<case>/report.json`, `DIR/<case>/hotspot.geojson` and
- *   `DIR/<case>/report.html`;
- * - for the run `DIR/cases.csv`, `DIR/fields.csv`, `DIR/readers.csv`,
+ *   `DIR/<case>/report.html` (see `case_folder.ts`);
+ * - for the cohort `DIR/cases.csv`, `DIR/fields.csv`, `DIR/readers.csv`,
  *   `DIR/index.html`, `DIR/readers.html` and the shared
- *   `DIR/assets/plotly.min.js` (unless plotly.js is inlined).
+ *   `DIR/assets/plotly.min.js` (unless plotly.js is inlined), rebuilt from
+ *   every case folder in DIR, earlier runs included (see `write_cohort.ts`).
  *
  * Everything is rendered in memory first, so a rendering problem writes
  * nothing. Each case folder is then staged under a temporary name and renamed
@@ -18,25 +19,19 @@
  * @module
  */
 
-import { existsSync, mkdirSync, renameSync, rmSync, statSync } from "node:fs";
-import { join } from "node:path";
+import { existsSync, mkdirSync, statSync } from "node:fs";
 import type { CaseResult } from "../pipeline/case_result.ts";
-import { writeFileAtomic } from "../io/write_atomic.ts";
-import { HOTFIELD_VERSION } from "../version.ts";
-import { caseHotspotGeoJson } from "./hotspot_geojson.ts";
-import { renderCaseHtml } from "./report_html.ts";
-import { renderCohortIndex } from "./cohort_index.ts";
-import { casesCsv, fieldsCsv } from "./report_csv.ts";
-import { readPlotlyBytes, readPlotlyJs } from "./plotly_asset.ts";
-import { readerAudit } from "../cohort/reader_audit.ts";
-import { readersCsv } from "./readers_csv.ts";
-import { renderReadersPage } from "./readers_page.ts";
+import {
+  ALL_FORMATS,
+  checkCaseFolderName,
+  type OutputFormat,
+  renderCaseFiles,
+  writeCaseFolder,
+} from "./case_folder.ts";
+import { readCaseReports, writeCohortFiles } from "./write_cohort.ts";
+import { readPlotlyJs } from "./plotly_asset.ts";
 
-/** Output formats of `hotfield report --format`. */
-export type OutputFormat = "json" | "html" | "csv" | "geojson";
-
-/** Every output format, the default of `--format`. */
-export const ALL_FORMATS: readonly OutputFormat[] = ["json", "html", "csv", "geojson"];
+export { ALL_FORMATS, type OutputFormat, stableJson } from "./case_folder.ts";
 
 /** Options of {@linkcode writeOutputs}. */
 export interface WriteOutputsOptions {
@@ -55,20 +50,6 @@ export interface WriteOutputsOptions {
   plotlyJs?: string;
   /** Colour scale of the count maps: `sqrt` keeps a weaker second focus visible. @default "linear" */
   mapScale?: "linear" | "sqrt";
-}
-
-/**
- * Stable JSON text: two-space indent, trailing newline.
- *
- * @example
- * ```ts
- * import { stableJson } from "./write_outputs.ts";
- * const text = stableJson({ a: 1 });
- * if (text !== '{\n  "a": 1\n}\n') throw new Error(`two-space indent and a final newline: ${JSON.stringify(text)}`);
- * ```
- */
-export function stableJson(value: unknown): string {
-  return JSON.stringify(value, null, 2) + "\n";
 }
 
 /**
@@ -103,6 +84,24 @@ export function generationTime(sourceDateEpoch: string | undefined, now: Date): 
   return date.toISOString().replace(/\.\d{3}Z$/, "Z");
 }
 
+/**
+ * The generation time reports show: {@linkcode generationTime} of
+ * `SOURCE_DATE_EPOCH` when it is set (and readable), else of `now`.
+ *
+ * @param now The current time.
+ * @returns ISO 8601 UTC.
+ * @throws RangeError when `SOURCE_DATE_EPOCH` is malformed.
+ *
+ * @example
+ * ```ts
+ * import { reportGenerationTime } from "./write_outputs.ts";
+ * if (!/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ$/.test(reportGenerationTime())) throw new Error();
+ * ```
+ */
+export function reportGenerationTime(now: Date = new Date()): string {
+  return generationTime(sourceDateEpochFromEnv(), now);
+}
+
 function sourceDateEpochFromEnv(): string | undefined {
   try {
     const state = Deno.permissions.querySync({ name: "env", variable: "SOURCE_DATE_EPOCH" }).state;
@@ -112,24 +111,16 @@ function sourceDateEpochFromEnv(): string | undefined {
   }
 }
 
-function checkCaseFolderName(id: string): void {
-  if (id === "" || id === "." || id === ".." || /[\/\\\0]/.test(id) || id.startsWith(".")) {
-    throw new Error(
-      `Cannot write the report of case "${id}": the case id is not a safe folder name`,
-    );
-  }
-}
-
 /**
  * Writes the outputs of `results` under `outDir` and returns the paths written.
  *
  * Per case (formats `json`, `geojson`, `html`): `<case>/report.json`,
- * `<case>/hotspot.geojson`, `<case>/report.html`. For the run: `cases.csv`,
- * `fields.csv` and `readers.csv` (format `csv`), `index.html`,
- * `readers.html` (the reader audit across the cases) and
- * `assets/plotly.min.js` (format `html`; the asset is left out with
- * `standalone`, which inlines plotly.js into every page). Any number of
- * cases, including none.
+ * `<case>/hotspot.geojson`, `<case>/report.html`. For the cohort: `cases.csv`,
+ * `fields.csv` and `readers.csv` (format `csv`), `index.html`, `readers.html`
+ * and `assets/plotly.min.js` (format `html`; the asset is left out with
+ * `standalone`, which inlines plotly.js into every page), listing every case
+ * folder in `outDir`, those of earlier runs included. Any number of cases,
+ * including none.
  *
  * @param results Engine results; case ids must be distinct.
  * @param outDir Output folder, created when missing (it may lie inside the input folder).
@@ -167,76 +158,25 @@ export function writeOutputs(
   // 1. Render everything in memory.
   const generatedAt = options.generatedAt !== undefined
     ? options.generatedAt
-    : generationTime(sourceDateEpochFromEnv(), new Date());
-  const wantHtml = formats.has("html");
+    : reportGenerationTime();
   const standalone = options.standalone ?? false;
   // Only inlining needs the text; the shared asset is copied as bytes.
-  const plotlyJs = wantHtml && standalone ? (options.plotlyJs ?? readPlotlyJs()) : "";
-  const perCase: { id: string; files: [string, string][] }[] = results.map((result) => {
-    const files: [string, string][] = [];
-    if (formats.has("json")) files.push(["report.json", stableJson(result.report)]);
-    if (formats.has("geojson")) {
-      files.push(["hotspot.geojson", stableJson(caseHotspotGeoJson(result))]);
-    }
-    if (wantHtml) {
-      files.push([
-        "report.html",
-        renderCaseHtml(result, {
-          plotlySrc: standalone ? null : "../assets/plotly.min.js",
-          plotlyInline: standalone ? plotlyJs : undefined,
-          generatedAt,
-          version: HOTFIELD_VERSION,
-          options: options.runOptions ?? { ...result.report.settings },
-          cohortHref: "../index.html",
-          mapScale: options.mapScale,
-        }),
-      ]);
-    }
-    return { id: result.prepared.caseId, files };
-  });
-  const runFiles: [string, string][] = [];
-  const reports = results.map((r) => r.report);
-  const readers = formats.has("csv") || wantHtml ? readerAudit(reports) : [];
-  if (formats.has("csv")) {
-    runFiles.push(
-      ["cases.csv", casesCsv(reports)],
-      ["fields.csv", fieldsCsv(reports)],
-      ["readers.csv", readersCsv(readers)],
-    );
-  }
-  if (wantHtml) {
-    runFiles.push([
-      "index.html",
-      renderCohortIndex(results, {
-        plotlySrc: standalone ? null : "assets/plotly.min.js",
-        plotlyInline: standalone ? plotlyJs : undefined,
-        generatedAt,
-        version: HOTFIELD_VERSION,
-        linkHtml: true,
-        linkCsv: formats.has("csv"),
-        linkReaders: true,
-      }),
-    ], [
-      "readers.html",
-      renderReadersPage(readers, {
-        plotlySrc: standalone ? null : "assets/plotly.min.js",
-        plotlyInline: standalone ? plotlyJs : undefined,
-        generatedAt,
-        version: HOTFIELD_VERSION,
-        linkHtml: true,
-        linkCsv: formats.has("csv"),
-      }),
-    ]);
-  }
-  const assetFiles: [string, string | Uint8Array][] = wantHtml && !standalone
-    ? [[
-      join("assets", "plotly.min.js"),
-      options.plotlyJs !== undefined ? options.plotlyJs : readPlotlyBytes(),
-    ]]
-    : [];
+  const plotlyJs = formats.has("html") && standalone
+    ? (options.plotlyJs ?? readPlotlyJs())
+    : options.plotlyJs;
+  const perCase = results.map((result) => ({
+    id: result.prepared.caseId,
+    files: renderCaseFiles(result, {
+      formats: [...formats],
+      standalone,
+      plotlyJs,
+      generatedAt,
+      runOptions: options.runOptions,
+      mapScale: options.mapScale,
+    }),
+  }));
 
-  // 2. Write: the shared asset first (reports reference it), then each case folder
-  // staged, then the cohort files that link to the cases.
+  // 2. Write each case folder staged, then the cohort files from every case folder.
   try {
     mkdirSync(outDir, { recursive: true });
   } catch (e) {
@@ -245,39 +185,23 @@ export function writeOutputs(
     });
   }
   const written: string[] = [];
-  const writeRunFile = ([name, text]: [string, string | Uint8Array]) => {
-    const path = join(outDir, name);
-    try {
-      writeFileAtomic(path, text);
-    } catch (e) {
-      throw new Error(`Cannot write "${path}": ${(e as Error).message}`, { cause: e });
-    }
-    written.push(path);
-  };
-  assetFiles.forEach(writeRunFile);
   for (const { id, files } of perCase) {
     // A format list with nothing per case (csv only) makes no empty folder.
-    if (files.length === 0) continue;
-    const finalDir = join(outDir, id);
-    const stage = join(outDir, `.${id}.staging-${Deno.pid}`);
-    const old = join(outDir, `.${id}.old-${Deno.pid}`);
-    rmSync(stage, { recursive: true, force: true });
-    try {
-      mkdirSync(stage, { recursive: true });
-      for (const [name, text] of files) writeFileAtomic(join(stage, name), text);
-      if (existsSync(finalDir)) renameSync(finalDir, old);
-      renameSync(stage, finalDir);
-      rmSync(old, { recursive: true, force: true });
-    } catch (e) {
-      rmSync(stage, { recursive: true, force: true });
-      if (!existsSync(finalDir) && existsSync(old)) renameSync(old, finalDir);
-      throw new Error(
-        `Cannot write the report of "${id}" in "${outDir}": ${(e as Error).message}`,
-        { cause: e },
-      );
-    }
-    for (const [name] of files) written.push(join(finalDir, name));
+    if (files.length > 0) written.push(...writeCaseFolder(outDir, id, files));
   }
-  runFiles.forEach(writeRunFile);
+  const reports = new Map(readCaseReports(outDir).reports.map((r) => [r.case, r]));
+  for (const r of results) reports.set(r.report.case, r.report);
+  const cohort = [...reports.values()].sort((a, b) =>
+    a.case < b.case ? -1 : a.case > b.case ? 1 : 0
+  );
+  written.push(
+    ...writeCohortFiles(outDir, cohort, {
+      csv: formats.has("csv"),
+      html: formats.has("html"),
+      standalone,
+      generatedAt,
+      plotlyJs,
+    }),
+  );
   return written;
 }

@@ -152,10 +152,17 @@ Deno.test("hotfield report exits 1 on bad input and leaves no output folder", as
     const broken = join(dir, "QVT-24-051.geojson");
     writeFileSync(broken, "{ not json");
     const out = join(dir, "out");
-    const r = await run([good, broken, "--out", out]);
+    const lone = await run([broken, "--out", out]);
+    assert.equal(lone.code, 1);
+    assert.match(lone.err, /QVT-24-051\.geojson/);
+    assert.ok(!existsSync(out), "nothing written when no case succeeds");
+    // Several files: the bad one fails, the good one is still written.
+    const r = await run([good, broken, "--out", out, "--best-n", "0", "--stride-um", "100"]);
     assert.equal(r.code, 1);
     assert.match(r.err, /QVT-24-051\.geojson/);
-    assert.ok(!existsSync(out));
+    assert.match(r.err, /1 ok, 1 failed/);
+    assert.ok(existsSync(join(out, "QVT-24-050", "report.json")));
+    assert.ok(!existsSync(join(out, "QVT-24-051")));
     // An output "folder" that is a file.
     const asFile = join(dir, "taken");
     writeFileSync(asFile, "x");
