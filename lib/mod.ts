@@ -199,6 +199,7 @@ export {
   type ReportJson,
   type ReportMap,
   type ReportPlacement,
+  type ReportProvenance,
   type ReportSettings,
   type ReportUncertainty,
   type ReportWholeArea,
@@ -218,6 +219,20 @@ export { countMapFigure, type CountMapFigureOptions } from "./report/count_map_f
 export { admissibleHistogram, distributionFigure } from "./report/distribution_figure.ts";
 export { cutoffLabel } from "./report/plot_labels.ts";
 export type { PlotFigure } from "./report/plot_style.ts";
+
+// Batch runs and cohort folders (nightly runs, manifests, shards, run history).
+export {
+  type CohortFilesOptions,
+  readCaseReports,
+  writeCohortFiles,
+} from "./report/write_cohort.ts";
+export type { BatchCase, CaseOutcome, CaseSummary } from "./batch/batch_types.ts";
+export { type BatchResult, runBatch, type RunBatchOptions } from "./batch/run_batch.ts";
+export { MANIFEST_COLUMNS, readManifest } from "./batch/read_manifest.ts";
+export { folderCases } from "./batch/case_sources.ts";
+export { type EffectiveSettings, effectiveSettings, settingsSha256 } from "./batch/settings.ts";
+export { parseShard, selectShard, type Shard } from "./batch/shard.ts";
+export { RUN_HISTORY_FILE, RunHistory, type RunInfo } from "./batch/run_history.ts";
 
 // Notebooks.
 export {
