@@ -108,8 +108,6 @@ export interface CaseInput {
    * the annotation file and the case file, with a warning when it changes one.
    */
   mpp?: number | [number, number];
-  /** Who gave {@linkcode CaseInput.mpp}, for that warning. @default "The mpp option" */
-  mppFrom?: string;
   /**
    * Folder that relative paths are read against; the paths are recorded in
    * `sources` and named in messages as given. @default the working directory
@@ -473,7 +471,8 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
   let slideOverride = input.slide;
   let slideLabels: Partial<Record<keyof SlideMember, string>> | undefined;
   if (input.mpp !== undefined) {
-    const from = input.mppFrom ?? "The mpp option";
+    // One wording whoever gave it, so a manifest row and the option give the same report.
+    const from = "The mpp given for the case";
     const old = input.slide?.mpp;
     if (old !== undefined && JSON.stringify(old) !== JSON.stringify(input.mpp)) {
       warnings.push(

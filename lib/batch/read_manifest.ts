@@ -331,7 +331,6 @@ export async function readManifest(path: string, options: ReportOptions): Promis
     }
     if (cells.mpp !== undefined) {
       input.mpp = parseMpp(cells.mpp)!;
-      input.mppFrom = `The manifest (row ${row}, column "mpp")`;
     }
     if (cells.id !== undefined) input.idOverride = cells.id;
     cases.push({ index, label, input, options: caseOptions, shardKey });

@@ -64,6 +64,13 @@ export interface RunBatchOptions {
   shard?: Shard;
   /** Rebuild the cohort files at the end. @default true unless sharded */
   cohort?: boolean;
+  /**
+   * First remove every temporary entry a killed run left in the output
+   * folder; only safe when nothing else writes there meanwhile (each case's
+   * own leftovers are always removed before it is written).
+   * @default true unless sharded
+   */
+  clearTemporary?: boolean;
   /** Record the run in `DIR/runs.sqlite`. @default no history */
   history?: RunInfo;
   /** Generation time shown in the pages. @default from SOURCE_DATE_EPOCH, else now */
@@ -139,7 +146,7 @@ export async function runBatch(
   };
   const selected = options.shard ? selectShard(cases, options.shard) : [...cases];
   const notes: string[] = [];
-  if (!options.shard) removeTemporaryEntries(outDir);
+  if (options.clearTemporary ?? !options.shard) removeTemporaryEntries(outDir);
 
   // What is done already: provenance key → case folders holding it.
   const done = new Map<string, { caseId: string; summary: CaseSummary }[]>();

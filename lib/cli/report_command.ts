@@ -53,6 +53,9 @@ Options:
 ${REPORT_OPTIONS_HELP}
   --strict               exit 1 when any case has a warning (for unattended runs); the
                          reports are still written
+  --no-cohort            write the case folders only, not index.html, cases.csv, fields.csv
+                         (for one job per case under a workflow engine; run hotfield cohort
+                         DIR at the end)
 ${CASE_OPTIONS_HELP}
   -h, --help             show this help
 
@@ -87,6 +90,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     ...REPORT_OPTIONS,
     out: { type: "string" },
     strict: { type: "boolean" },
+    "no-cohort": { type: "boolean" },
     help: { type: "boolean", short: "h" },
   });
   if (values.help) {
@@ -148,6 +152,9 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     standalone: values.standalone === true,
     workers: 1,
     force: true,
+    cohort: values["no-cohort"] !== true,
+    // Other jobs may be writing other cases into DIR at the same time.
+    clearTemporary: false,
   });
   for (const [i, o] of result.outcomes.entries()) {
     if (o.status === "failed") {
