@@ -166,7 +166,10 @@ export function parseManifest(text: string, path: string): ManifestRow[] {
     const at = (col: ManifestColumn) => `row ${row}, column "${col}"`;
     const problem = (cls: ErrorClass, col: ManifestColumn | null, detail: string) =>
       problems.push([cls, `${col ? at(col) : `row ${row}`}: ${detail}`]);
-    if (cells.annotations !== undefined && cells.case_file !== undefined) {
+    const hasSourceColumn = seen.has("annotations") || seen.has("case_file");
+    if (!hasSourceColumn) {
+      // already reported once for the header
+    } else if (cells.annotations !== undefined && cells.case_file !== undefined) {
       problem(TypeError, null, 'both "annotations" and "case_file" are given; give one of them');
     } else if (cells.annotations === undefined && cells.case_file === undefined) {
       problem(TypeError, null, 'neither "annotations" nor "case_file" is given; give one of them');

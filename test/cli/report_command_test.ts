@@ -174,3 +174,89 @@ Deno.test("hotfield report exits 1 on bad input and leaves no output folder", as
     rmSync(dir, { recursive: true, force: true });
   }
 });
+
+Deno.test("hotfield report in/*: a GeoJSON a listed case file names is not a case of its own", async () => {
+  const dir = Deno.makeTempDirSync();
+  try {
+    const inDir = join(dir, "in");
+    mkdirSync(inDir);
+    caseFile(inDir); // QVT-24-050.geojson
+    writeFileSync(
+      join(inDir, "QVT-24-050.case.json"),
+      JSON.stringify({ hotfield_case: 1, annotations: "QVT-24-050.geojson" }),
+    );
+    const files = ["QVT-24-050.case.json", "QVT-24-050.geojson"].map((f) => join(inDir, f));
+    const out = join(dir, "out");
+    const r = await run([...files, "--out", out, "--best-n", "0", "--stride-um", "100"]);
+    assert.equal(r.code, 0, r.err);
+    assert.equal(
+      r.err,
+      `hotfield report: ${files[1]} is read through a case file given too, not as a case\n`,
+    );
+    assert.equal(r.out.split("\n").filter((l) => l.startsWith("QVT-24-050\t")).length, 1);
+    // A folder stands for its cases, the same way.
+    const r2 = await run([
+      inDir,
+      "--out",
+      join(dir, "out2"),
+      "--best-n",
+      "0",
+      "--stride-um",
+      "100",
+    ]);
+    assert.equal(r2.code, 0, r2.err);
+    const report = JSON.parse(readFileSync(join(dir, "out2", "QVT-24-050", "report.json"), "utf8"));
+    assert.deepEqual(
+      report.provenance.inputs.map((i: { path: string }) => i.path),
+      ["QVT-24-050.case.json", "QVT-24-050.geojson"],
+    );
+    // --no-cohort writes the case folder only.
+    const r3 = await run([
+      files[0],
+      "--out",
+      join(dir, "out3"),
+      "--best-n",
+      "0",
+      "--stride-um",
+      "100",
+      "--no-cohort",
+    ]);
+    assert.equal(r3.code, 0);
+    assert.ok(!existsSync(join(dir, "out3", "index.html")));
+    assert.ok(existsSync(join(dir, "out3", "QVT-24-050", "report.html")));
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+});
+
+Deno.test("hotfield report --mpp replaces the slide's mpp with a warning", async () => {
+  const dir = Deno.makeTempDirSync();
+  try {
+    const file = caseFile(dir);
+    const out = join(dir, "out");
+    const r = await run([
+      file,
+      "--out",
+      out,
+      "--best-n",
+      "0",
+      "--stride-um",
+      "100",
+      "--mpp",
+      "0.25",
+    ]);
+    assert.equal(r.code, 0, r.err);
+    const report = JSON.parse(readFileSync(join(out, "QVT-24-050", "report.json"), "utf8"));
+    assert.deepEqual(report.mpp, [0.25, 0.25]);
+    assert.ok(
+      report.warnings.includes(
+        "The mpp given for the case sets slide mpp 0.25, replacing 0.5 from the annotation file",
+      ),
+    );
+    const bad = await run([file, "--out", out, "--mpp", "0"]);
+    assert.equal(bad.code, 2);
+    assert.match(bad.err, /Option --mpp needs a positive number N or a pair N,M/);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+});
