@@ -19,6 +19,7 @@ import { join } from "node:path";
 import { parseArgs } from "node:util";
 import booleanPointInPolygon from "@turf/boolean-point-in-polygon";
 import { benchSlideGeoJson, generateBenchSlide } from "../lib/demo/bench_slide.ts";
+import { batchBenchRows } from "./batch_bench.ts";
 
 const ROOT = join(import.meta.dirname ?? ".", "..");
 const OUT = join(ROOT, "bench", "output");
@@ -249,6 +250,7 @@ async function main(): Promise<void> {
       ["--shape circle", ["--shape", "circle"], "info"],
     ]);
     await processRows("tissue only", fileTissue, reps, [["defaults", []]]);
+    await batchBenchRows({ root: ROOT, out: OUT, quick, add, log });
   }
 
   log("In-process steps …");

@@ -196,8 +196,12 @@ export async function runBatch(
     history = RunHistory.open(join(outDir, RUN_HISTORY_FILE), options.history);
   }
   const toRecord: { outcome: CaseOutcome; label: string }[] = [];
-  const flush = () => {
+  // A commit waits for the disk (about 10 ms); commit at most once a second.
+  let lastFlush = -Infinity;
+  const flush = (final = false) => {
     if (!history || toRecord.length === 0) return;
+    if (!final && performance.now() - lastFlush < 1000) return;
+    lastFlush = performance.now();
     try {
       history.recordMany(toRecord.splice(0));
     } catch (e) {
@@ -307,7 +311,7 @@ export async function runBatch(
     cohortFiles,
     notes,
   };
-  flush();
+  flush(true);
   if (history) {
     try {
       history.finish(result.failed > 0 ? 1 : 0);

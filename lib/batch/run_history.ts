@@ -14,9 +14,9 @@
  * Times are ISO 8601 UTC text (`2026-01-05T02:00:03Z`, the real clock: the
  * history is a log, not a report). `status` is `ok`, `skipped` or `failed`;
  * `case_id` is null for a case that failed before its id was known (`label`
- * names it then). A run with no `finished_at` was interrupted. Each case is
- * committed as it ends, so the history of a killed run is kept up to its
- * last finished case.
+ * names it then). A run with no `finished_at` was interrupted. Cases are
+ * committed as they end, at most once a second, so the history of a killed
+ * run is kept up to about its last second.
  *
  * @module
  */
