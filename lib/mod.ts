@@ -222,6 +222,7 @@ export type { PlotFigure } from "./report/plot_style.ts";
 
 // Batch runs and cohort folders (nightly runs, manifests, shards, run history).
 export {
+  type CaseReports,
   type CohortFilesOptions,
   readCaseReports,
   writeCohortFiles,

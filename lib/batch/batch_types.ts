@@ -50,11 +50,17 @@ export interface CaseJob {
 
 /** What a report says, in a few numbers for logs and the run history. */
 export interface CaseSummary {
+  /** Figures in the hotspot window, or null when no window is admissible. */
   hotspotCount: number | null;
+  /** Hotspot density, figures per mm², or null. */
   perMm2: number | null;
+  /** Admissible grid positions. */
   positions: number;
+  /** The scheme classified against, or null. */
   scheme: string | null;
+  /** The class under that scheme, or null. */
   class: string | null;
+  /** The tier, when the scheme has tiers. */
   tier: string | null;
 }
 
@@ -62,6 +68,7 @@ export interface CaseSummary {
 export interface CaseOutcome {
   /** {@linkcode BatchCase.index}. */
   index: number;
+  /** Written (`ok`), done before with the same inputs (`skipped`), or `failed`. */
   status: "ok" | "skipped" | "failed";
   /** The case id (the folder name), when it got that far. */
   caseId: string | null;

@@ -31,7 +31,7 @@ const GEOJSON = /\.geojson$/i;
  *
  * @example The committed demo folder holds eight cases
  * ```ts
- * import { folderCases } from "./case_sources.ts";
+ * import { folderCases } from "hotfield";
  * import { fileURLToPath } from "node:url";
  * const cases = await folderCases(fileURLToPath(new URL("../../data/demo/", import.meta.url)), {});
  * if (cases.length !== 8 || cases[6].input?.tissueMaskPath !== "QVT-24-007.tissue.png") {
@@ -82,14 +82,14 @@ export async function folderCases(dir: string, options: ReportOptions): Promise<
  * @param cases Cases with the file each was named by.
  * @returns The cases to run, in the order given, and the files dropped.
  *
- * @example
+ * @example A case file and the GeoJSON it names make one case
  * ```ts
  * import { dropClaimedFiles } from "./case_sources.ts";
  * const { kept, dropped } = dropClaimedFiles([
  *   { file: "in/x.case.json", input: { caseFilePath: "in/x.case.json", annotationsPath: "in/x.geojson" } },
  *   { file: "in/x.geojson", input: { annotationsPath: "in/x.geojson" } },
  * ]);
- * if (kept.length !== 1 || dropped[0] !== "in/x.geojson") throw new Error();
+ * if (kept.length !== 1 || dropped[0] !== "in/x.geojson") throw new Error("dropClaimedFiles: the example's check failed");
  * ```
  */
 export function dropClaimedFiles<T extends { file: string; input: CaseInput | null }>(

@@ -39,7 +39,7 @@ let plotlyCache: string | undefined;
  *   settingsSha256: "0",
  * }, { outDir: "/tmp/unused", formats: ["json"], standalone: false, generatedAt: null },
  *   () => Promise.resolve(null));
- * if (outcome.status !== "failed" || !outcome.message?.includes("file not found")) throw new Error();
+ * if (outcome.status !== "failed" || !outcome.message?.includes("file not found")) throw new Error("processCase: the example's check failed");
  * ```
  */
 export async function processCase(
@@ -104,11 +104,11 @@ export async function processCase(
  * @param report A report.json object.
  * @returns Hotspot count and density, positions, scheme, class and tier.
  *
- * @example
+ * @example A report without a hotspot or a scheme
  * ```ts
  * import { reportSummary } from "./process_case.ts";
  * const s = reportSummary({ hotspot: null, distribution: { positions: 0 }, classification: null } as never);
- * if (s.hotspotCount !== null || s.class !== null) throw new Error();
+ * if (s.hotspotCount !== null || s.class !== null) throw new Error("reportSummary: the example's check failed");
  * ```
  */
 export function reportSummary(report: ReportJson): CaseSummary {

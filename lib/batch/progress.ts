@@ -31,7 +31,7 @@ function stamp(date: Date): string {
  * @param now The time to stamp.
  * @returns E.g. `2026-01-05T02:00:03Z ok      QVT-24-001  1.23 s  hotspot 12 (5.0633 /mm²)`.
  *
- * @example
+ * @example A skipped case
  * ```ts
  * import { caseLine } from "./progress.ts";
  * const line = caseLine(
@@ -68,7 +68,7 @@ function oneLine(text: string): string {
  * @param now The clock.
  * @returns The reporter.
  *
- * @example
+ * @example The line a run starts with
  * ```ts
  * import { lineProgress } from "./progress.ts";
  * const out: string[] = [];
@@ -100,7 +100,7 @@ export function lineProgress(
  * @param width Bar width in characters.
  * @returns One line without a line break.
  *
- * @example
+ * @example Half done, one failure
  * ```ts
  * import { formatBar } from "./progress.ts";
  * const bar = formatBar({ done: 5, total: 10, failed: 1, etaSeconds: 75 }, 10);
@@ -136,14 +136,14 @@ function clock(seconds: number): string {
  * @param tick Redraw once a second (for the time left) besides when cases end.
  * @returns The reporter.
  *
- * @example
+ * @example A bar drawn into a collector
  * ```ts
  * import { barProgress } from "./progress.ts";
  * const out: string[] = [];
  * const p = barProgress((s) => out.push(s), () => 0, false);
  * p.plan({ total: 2, toRun: 2 });
  * p.finish();
- * if (!out.join("").includes("0/2")) throw new Error();
+ * if (!out.join("").includes("0/2")) throw new Error("barProgress: the example's check failed");
  * ```
  */
 export function barProgress(

@@ -21,11 +21,11 @@ import { canonicalJson } from "./settings.ts";
  * @param settingsSha256 See `settingsSha256` in settings.ts.
  * @returns `{hotfield_version, inputs: [{path, sha256}], settings_sha256}`.
  *
- * @example
+ * @example From the sources of a case
  * ```ts
  * import { caseProvenance } from "./provenance.ts";
  * const p = caseProvenance([{ kind: "annotations", path: "a.geojson", sha256: "ab" }], "cd");
- * if (p.inputs[0].path !== "a.geojson" || p.settings_sha256 !== "cd") throw new Error();
+ * if (p.inputs[0].path !== "a.geojson" || p.settings_sha256 !== "cd") throw new Error("caseProvenance: the example's check failed");
  * ```
  */
 export function caseProvenance(
@@ -46,11 +46,11 @@ export function caseProvenance(
  * @param input The case input.
  * @returns Paths as written.
  *
- * @example
+ * @example Annotations and a figures CSV
  * ```ts
  * import { caseInputFiles } from "./provenance.ts";
  * const files = caseInputFiles({ annotationsPath: "a.geojson", figuresPath: "f.csv" });
- * if (files.join() !== "a.geojson,f.csv") throw new Error();
+ * if (files.join() !== "a.geojson,f.csv") throw new Error("caseInputFiles: the example's check failed");
  * ```
  */
 export function caseInputFiles(input: CaseInput): string[] {
@@ -71,7 +71,7 @@ export function caseInputFiles(input: CaseInput): string[] {
  * ```ts
  * import { expectedProvenance } from "./provenance.ts";
  * if (await expectedProvenance({ annotationsPath: "/no/such/file.geojson" }, "0") !== null) {
- *   throw new Error();
+ *   throw new Error("expectedProvenance: the example's check failed");
  * }
  * ```
  */
@@ -99,11 +99,11 @@ export async function expectedProvenance(
  * @param p A provenance (possibly from an older report, possibly malformed).
  * @returns The key, or null when `p` is not a provenance.
  *
- * @example
+ * @example Equal provenances, equal keys
  * ```ts
  * import { provenanceKey } from "./provenance.ts";
  * const p = { hotfield_version: "0.1.0", inputs: [{ path: "a", sha256: "b" }], settings_sha256: "c" };
- * if (provenanceKey(p) !== provenanceKey({ ...p }) || provenanceKey(undefined) !== null) throw new Error();
+ * if (provenanceKey(p) !== provenanceKey({ ...p }) || provenanceKey(undefined) !== null) throw new Error("provenanceKey: the example's check failed");
  * ```
  */
 export function provenanceKey(p: unknown): string | null {

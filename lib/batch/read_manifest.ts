@@ -267,7 +267,7 @@ export function parseManifest(text: string, path: string): ManifestRow[] {
  *
  * @example A missing manifest
  * ```ts
- * import { readManifest } from "./read_manifest.ts";
+ * import { readManifest } from "hotfield";
  * let message = "";
  * try { await readManifest("no-such-manifest.csv", {}); } catch (e) { message = (e as Error).message; }
  * if (message !== 'Cannot read manifest "no-such-manifest.csv": file not found') throw new Error(message);

@@ -87,8 +87,11 @@ export interface BatchResult {
   cases: BatchCase[];
   /** Their outcomes, in the same order. */
   outcomes: CaseOutcome[];
+  /** Cases written. */
   ok: number;
+  /** Cases done before with the same inputs, settings and version. */
   skipped: number;
+  /** Cases that failed (each with its message in `outcomes`). */
   failed: number;
   /** Cohort files written (empty when sharded or no folder exists). */
   cohortFiles: string[];
@@ -112,7 +115,7 @@ type Claim =
  *
  * @example Two cases in the calling thread, one of them missing
  * ```ts
- * import { runBatch } from "./run_batch.ts";
+ * import { runBatch } from "hotfield";
  * import { fileURLToPath } from "node:url";
  * const outDir = Deno.makeTempDirSync();
  * const demo = fileURLToPath(new URL("../../data/demo/", import.meta.url));

@@ -66,7 +66,9 @@ export interface RunInfo {
   source: string;
   /** `K/N`, or null for an unsharded run. */
   shard: string | null;
+  /** `--workers`. */
   workers: number;
+  /** Whether `--force` was given. */
   forced: boolean;
 }
 
@@ -80,7 +82,7 @@ export function isoSeconds(date: Date = new Date()): string {
  *
  * @example Recording a run with one case
  * ```ts
- * import { RunHistory } from "./run_history.ts";
+ * import { RunHistory } from "hotfield";
  * const dir = Deno.makeTempDirSync();
  * const h = RunHistory.open(`${dir}/runs.sqlite`, { source: "m.csv", shard: null, workers: 1, forced: false });
  * h.record({ index: 0, status: "ok", caseId: "QVT-24-001", seconds: 1.5, message: null, summary: null }, "a.geojson");
@@ -88,7 +90,7 @@ export function isoSeconds(date: Date = new Date()): string {
  * const n = h.query("SELECT count(*) AS n FROM case_runs")[0].n;
  * h.close();
  * Deno.removeSync(dir, { recursive: true });
- * if (n !== 1) throw new Error();
+ * if (n !== 1) throw new Error("RunHistory: the example's check failed");
  * ```
  */
 export class RunHistory {

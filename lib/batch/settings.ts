@@ -46,22 +46,39 @@ import {
 
 /** Every setting a case folder depends on, defaults filled in. */
 export interface EffectiveSettings {
+  /** Window area, mm². */
   areaMm2: number;
+  /** Window shape. */
   shape: "rect" | "circle";
+  /** Rectangle aspect, width along slide x (rectangles only). */
   aspect?: [number, number];
+  /** Grid spacing, µm. */
   strideUm: number;
+  /** Least fraction of a window inside the valid region. */
   minCoverage: number;
+  /** Least counted figure score. */
   minScore: number;
+  /** Counted labels, in the order given. */
   countLabels: string[];
+  /** Separate best windows reported. */
   top: number;
+  /** Fields in the best field set (0: none). */
   bestN: number;
+  /** Single-field area, mm². */
   fieldAreaMm2: number;
+  /** Grid size limit, cells. */
   maxGridCells: number;
+  /** Classify even when nothing was counted. */
   allowEmpty: boolean;
+  /** Grading scheme id, or null. */
   scheme: string | null;
+  /** Scan-test simulations (with a scheme only). */
   simulations?: number;
+  /** Seed of the simulations (with a scheme only). */
   seed?: number;
+  /** Output formats, sorted. */
   formats: OutputFormat[];
+  /** plotly.js inlined into every page. */
   standalone: boolean;
 }
 
@@ -75,9 +92,9 @@ export interface EffectiveSettings {
  *
  * @example Defaults
  * ```ts
- * import { effectiveSettings } from "./settings.ts";
+ * import { effectiveSettings } from "hotfield";
  * const s = effectiveSettings({ shape: "circle" }, { formats: ["json"], standalone: false });
- * if (s.areaMm2 !== 2.37 || s.aspect !== undefined || s.scheme !== null) throw new Error();
+ * if (s.areaMm2 !== 2.37 || s.aspect !== undefined || s.scheme !== null) throw new Error("effectiveSettings: the example's check failed");
  * ```
  */
 export function effectiveSettings(
@@ -121,7 +138,7 @@ export function effectiveSettings(
  * @example Key order does not matter
  * ```ts
  * import { canonicalJson } from "./settings.ts";
- * if (canonicalJson({ b: 1, a: [{ d: 2, c: 3 }] }) !== '{"a":[{"c":3,"d":2}],"b":1}') throw new Error();
+ * if (canonicalJson({ b: 1, a: [{ d: 2, c: 3 }] }) !== '{"a":[{"c":3,"d":2}],"b":1}') throw new Error("canonicalJson: the example's check failed");
  * ```
  */
 export function canonicalJson(value: unknown): string {
@@ -152,7 +169,7 @@ function sortKeys(value: unknown): unknown {
  *
  * @example Giving a default explicitly changes nothing
  * ```ts
- * import { settingsSha256 } from "./settings.ts";
+ * import { settingsSha256 } from "hotfield";
  * const out = { formats: ["json", "html"] as const, standalone: false };
  * const a = settingsSha256({}, { ...out, formats: [...out.formats] });
  * const b = settingsSha256({ strideUm: 25 }, { ...out, formats: ["html", "json"] });

@@ -16,7 +16,9 @@ import type { BatchCase } from "./batch_types.ts";
 
 /** A shard: the K-th of N, 1 ≤ K ≤ N. */
 export interface Shard {
+  /** Which share, from 1. */
   k: number;
+  /** How many shares. */
   n: number;
 }
 
@@ -27,10 +29,10 @@ export interface Shard {
  * @returns The shard.
  * @throws {UsageError} Unless K and N are whole numbers with 1 ≤ K ≤ N.
  *
- * @example
+ * @example Good and bad shards
  * ```ts
- * import { parseShard } from "./shard.ts";
- * if (parseShard("2/3").k !== 2) throw new Error();
+ * import { parseShard } from "hotfield";
+ * if (parseShard("2/3").k !== 2) throw new Error("parseShard: the example's check failed");
  * for (const bad of ["0/3", "4/3", "a/b"]) {
  *   let failed = false;
  *   try { parseShard(bad); } catch { failed = true; }
@@ -64,7 +66,7 @@ export function parseShard(text: string): Shard {
  *
  * @example Three shards take every case once
  * ```ts
- * import { selectShard } from "./shard.ts";
+ * import { selectShard } from "hotfield";
  * const cases = ["c", "a", "b", "d"].map((key, index) =>
  *   ({ index, shardKey: key, label: key, input: null, options: {} }));
  * const shares = [1, 2, 3].map((k) => selectShard(cases, { k, n: 3 }).map((c) => c.shardKey));

@@ -67,14 +67,14 @@ type Values = Record<string, string | boolean | string[] | undefined>;
  *
  * @throws {UsageError} Naming the option, for every bad value.
  *
- * @example
+ * @example An aspect, a top count and a bad area
  * ```ts
  * import { reportOptionsFromValues } from "./_report_args.ts";
  * const o = reportOptionsFromValues({ aspect: "16:9", top: "0" });
- * if (o.aspect?.[0] !== 16 || o.top !== 0) throw new Error();
+ * if (o.aspect?.[0] !== 16 || o.top !== 0) throw new Error("reportOptionsFromValues: the example's check failed");
  * let failed = false;
  * try { reportOptionsFromValues({ area: "-1" }); } catch { failed = true; }
- * if (!failed) throw new Error();
+ * if (!failed) throw new Error("reportOptionsFromValues: the example's check failed");
  * ```
  */
 export function reportOptionsFromValues(values: Values): ReportOptions {
@@ -146,10 +146,10 @@ export function reportOptionsFromValues(values: Values): ReportOptions {
  * @returns The formats, without repeats.
  * @throws {UsageError} For an unknown or empty list.
  *
- * @example
+ * @example A list with spaces
  * ```ts
  * import { formatsFromValue } from "./_report_args.ts";
- * if (formatsFromValue("json, html").join() !== "json,html") throw new Error();
+ * if (formatsFromValue("json, html").join() !== "json,html") throw new Error("formatsFromValue: the example's check failed");
  * ```
  */
 export function formatsFromValue(raw: unknown): OutputFormat[] {

@@ -32,10 +32,10 @@ export const TEMP_PREFIX = ".tmp-";
 /**
  * Stable JSON text: two-space indent, trailing newline.
  *
- * @example
+ * @example Two-space indent and a final line break
  * ```ts
  * import { stableJson } from "./case_folder.ts";
- * if (stableJson({ a: 1 }) !== '{\n  "a": 1\n}\n') throw new Error();
+ * if (stableJson({ a: 1 }) !== '{\n  "a": 1\n}\n') throw new Error("stableJson: the example's check failed");
  * ```
  */
 export function stableJson(value: unknown): string {
@@ -72,7 +72,7 @@ export interface CaseFilesContext {
  * const files = renderCaseFiles({ report: { case: "QVT-24-001" } } as never, {
  *   formats: ["json"], generatedAt: null,
  * });
- * if (files.length !== 1 || files[0][0] !== "report.json") throw new Error();
+ * if (files.length !== 1 || files[0][0] !== "report.json") throw new Error("renderCaseFiles: the example's check failed");
  * ```
  */
 export function renderCaseFiles(
@@ -110,13 +110,13 @@ export function renderCaseFiles(
  * @param id The case id.
  * @throws {Error} Naming the id.
  *
- * @example
+ * @example A safe id and one that leaves the folder
  * ```ts
  * import { checkCaseFolderName } from "./case_folder.ts";
  * checkCaseFolderName("QVT-24-001");
  * let failed = false;
  * try { checkCaseFolderName("../x"); } catch { failed = true; }
- * if (!failed) throw new Error();
+ * if (!failed) throw new Error("checkCaseFolderName: the example's check failed");
  * ```
  */
 export function checkCaseFolderName(id: string): void {
@@ -148,7 +148,7 @@ export function checkCaseFolderName(id: string): void {
  * writeCaseFolder(dir, "QVT-24-001", [["a.txt", "1"], ["b.txt", "2"]]);
  * writeCaseFolder(dir, "QVT-24-001", [["a.txt", "3"]]);
  * if (readdirSync(`${dir}/QVT-24-001`).join() !== "a.txt") throw new Error("old files gone");
- * if (readFileSync(`${dir}/QVT-24-001/a.txt`, "utf8") !== "3") throw new Error();
+ * if (readFileSync(`${dir}/QVT-24-001/a.txt`, "utf8") !== "3") throw new Error("writeCaseFolder: the example's check failed");
  * if (readdirSync(dir).join() !== "QVT-24-001") throw new Error("no temporary folder left");
  * rmSync(dir, { recursive: true });
  * ```
@@ -206,7 +206,7 @@ const TEMP_FILE = /\.tmp-\d+-\d+$/;
  * mkdirSync(`${dir}/QVT-24-002`);
  * const gone = removeTemporaryEntries(dir);
  * if (gone.join() !== ".tmp-QVT-24-001-4242" || readdirSync(dir).join() !== "QVT-24-002") {
- *   throw new Error();
+ *   throw new Error("removeTemporaryEntries: the example's check failed");
  * }
  * rmSync(dir, { recursive: true });
  * ```

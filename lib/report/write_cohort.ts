@@ -41,7 +41,7 @@ export interface CaseReports {
  *
  * @example Two case folders and a hidden one
  * ```ts
- * import { readCaseReports } from "./write_cohort.ts";
+ * import { readCaseReports } from "hotfield";
  * import { mkdirSync, rmSync, writeFileSync } from "node:fs";
  * const dir = Deno.makeTempDirSync();
  * for (const id of ["QVT-24-002", "QVT-24-001", ".tmp-QVT-24-003-7"]) {
@@ -49,7 +49,7 @@ export interface CaseReports {
  *   writeFileSync(`${dir}/${id}/report.json`, JSON.stringify({ schema: "hotfield.report/1", case: id }));
  * }
  * const { reports } = readCaseReports(dir);
- * if (reports.map((r) => r.case).join() !== "QVT-24-001,QVT-24-002") throw new Error();
+ * if (reports.map((r) => r.case).join() !== "QVT-24-001,QVT-24-002") throw new Error("readCaseReports: the example's check failed");
  * rmSync(dir, { recursive: true });
  * ```
  */
@@ -109,12 +109,12 @@ export interface CohortFilesOptions {
  *
  * @example The CSV tables of an empty cohort
  * ```ts
- * import { writeCohortFiles } from "./write_cohort.ts";
+ * import { writeCohortFiles } from "hotfield";
  * import { readFileSync, rmSync } from "node:fs";
  * const dir = Deno.makeTempDirSync();
  * const written = writeCohortFiles(dir, [], { html: false, generatedAt: null });
  * if (written.length !== 2 || !readFileSync(`${dir}/cases.csv`, "utf8").startsWith("case,")) {
- *   throw new Error();
+ *   throw new Error("writeCohortFiles: the example's check failed");
  * }
  * rmSync(dir, { recursive: true });
  * ```
