@@ -39,6 +39,8 @@ export interface CaseRunContext {
   standalone: boolean;
   /** Generation time shown in the pages, or null. */
   generatedAt: string | null;
+  /** Colour scale of the count maps. @default "linear" */
+  mapScale?: "linear" | "sqrt";
 }
 
 /** A case with what the runner worked out for it, as sent to a worker. */

@@ -6,6 +6,7 @@
  * @module
  */
 
+import { GridSizeError } from "../errors.ts";
 import { loadCase } from "../annotations/read_case.ts";
 import { buildCaseResult } from "../pipeline/build_case_result.ts";
 import type { ReportJson } from "../pipeline/report_types.ts";
@@ -69,7 +70,7 @@ export async function processCase(
     try {
       result = buildCaseResult(caseData, c.options);
     } catch (e) {
-      if (e instanceof RangeError && e.message.startsWith("The count grid")) {
+      if (e instanceof GridSizeError) {
         return fail(`Option --stride-um is too small for case "${caseId}": ${e.message}`, true);
       }
       throw e;
@@ -81,6 +82,7 @@ export async function processCase(
       standalone: context.standalone,
       plotlyJs: plotlyCache,
       generatedAt: context.generatedAt,
+      mapScale: context.mapScale,
     });
     // A format list with nothing per case (csv only) makes no empty folder.
     if (files.length > 0) writeCaseFolder(context.outDir, caseId, files);

@@ -56,6 +56,8 @@ export interface RunBatchOptions {
   formats?: readonly OutputFormat[];
   /** Inline plotly.js into every page. @default false */
   standalone?: boolean;
+  /** Colour scale of the count maps. @default "linear" */
+  mapScale?: "linear" | "sqrt";
   /** Cases computed at once (Web Workers; 1 runs in the calling thread). @default the machine's cores */
   workers?: number;
   /** Run every case, skipping none. @default false */
@@ -146,6 +148,7 @@ export async function runBatch(
     formats,
     standalone,
     generatedAt: options.generatedAt !== undefined ? options.generatedAt : reportGenerationTime(),
+    ...(options.mapScale ? { mapScale: options.mapScale } : {}),
   };
   const selected = options.shard ? selectShard(cases, options.shard) : [...cases];
   const notes: string[] = [];
@@ -170,7 +173,11 @@ export async function runBatch(
   const skipAs: ({ caseId: string; summary: CaseSummary } | null)[] = new Array(n).fill(null);
   const jobs: CaseJob[] = [];
   for (const [i, c] of selected.entries()) {
-    const sha = settingsSha256(c.options, { formats, standalone }, c.input?.settings);
+    const sha = settingsSha256(
+      c.options,
+      { formats, standalone, mapScale: options.mapScale },
+      c.input?.settings,
+    );
     if (c.input !== null && !options.force) {
       const expected = await expectedProvenance(c.input, sha);
       const key = expected && provenanceKey(expected);

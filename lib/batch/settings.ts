@@ -13,8 +13,8 @@
  * `areaMm2`, `shape`, `aspect` (rectangles only), `strideUm`, `minCoverage`,
  * `minScore`, `countLabels` (in the order given), `top`, `bestN`,
  * `fieldAreaMm2`, `maxGridCells`, `allowEmpty`, `scheme` (null for none),
- * `simulations` and `seed` (with a scheme only), `formats` (sorted) and
- * `standalone`. The settings a case file names for its case are laid over
+ * `simulations` and `seed` (with a scheme only), `formats` (sorted),
+ * `standalone` and `mapScale` (with the `html` format only). The settings a case file names for its case are laid over
  * the options first (they win, as in the report itself).
  *
  * A setting that cannot change a case's folder is left out (the aspect of a
@@ -80,6 +80,18 @@ export interface EffectiveSettings {
   formats: OutputFormat[];
   /** plotly.js inlined into every page. */
   standalone: boolean;
+  /** Colour scale of the count map in report.html (with the `html` format only). */
+  mapScale?: "linear" | "sqrt";
+}
+
+/** How the outputs are written: the part of the settings that is not a report option. */
+export interface SettingsOutput {
+  /** Formats written. */
+  formats: readonly OutputFormat[];
+  /** plotly.js inlined into every page. */
+  standalone: boolean;
+  /** Colour scale of the count map. @default "linear" */
+  mapScale?: "linear" | "sqrt";
 }
 
 /**
@@ -99,7 +111,7 @@ export interface EffectiveSettings {
  */
 export function effectiveSettings(
   options: ReportOptions,
-  output: { formats: readonly OutputFormat[]; standalone: boolean },
+  output: SettingsOutput,
   caseSettings?: CaseSettings,
 ): EffectiveSettings {
   if (caseSettings !== undefined) options = { ...options, ...caseSettings };
@@ -122,6 +134,7 @@ export function effectiveSettings(
     standalone: output.standalone,
   };
   if (shape === "rect") s.aspect = [...(options.aspect ?? DEFAULT_ASPECT)] as [number, number];
+  if (output.formats.includes("html")) s.mapScale = output.mapScale ?? "linear";
   if (scheme !== null) {
     s.simulations = options.simulations ?? DEFAULT_SIMULATIONS;
     s.seed = options.seed ?? DEFAULT_SEED;
@@ -178,7 +191,7 @@ function sortKeys(value: unknown): unknown {
  */
 export function settingsSha256(
   options: ReportOptions,
-  output: { formats: readonly OutputFormat[]; standalone: boolean },
+  output: SettingsOutput,
   caseSettings?: CaseSettings,
 ): string {
   const text = canonicalJson(effectiveSettings(options, output, caseSettings));

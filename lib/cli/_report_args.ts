@@ -38,6 +38,8 @@ export const REPORT_OPTIONS_HELP =
   --seed N               seed of the simulations (default ${DEFAULT_SEED})
   --format LIST          outputs, comma-separated from json,html,csv,geojson (default all)
   --standalone           put plotting code inside each HTML file
+  --map-scale linear|sqrt  colour scale of the count map (default linear; sqrt keeps a
+                         weaker second focus visible)
   --allow-empty          classify a case even when nothing was counted (figures present,
                          none counted) or its figures' unit is in doubt; by default it is
                          left unclassified`;
@@ -53,6 +55,7 @@ export const REPORT_OPTIONS: OptionSpec = {
   "best-n": { type: "string" },
   "field-area": { type: "string" },
   "allow-empty": { type: "boolean" },
+  "map-scale": { type: "string" },
   scheme: { type: "string" },
   simulations: { type: "string" },
   seed: { type: "string" },
@@ -115,7 +118,7 @@ export function reportOptionsFromValues(values: Values): ReportOptions {
     try {
       getScheme(String(scheme));
     } catch (e) {
-      throw new UsageError(`Option --scheme: ${(e as Error).message}`);
+      throw new UsageError(`Option --scheme: ${(e as Error).message}`, { cause: e });
     }
     options.scheme = String(scheme);
   }
@@ -137,6 +140,29 @@ export function reportOptionsFromValues(values: Values): ReportOptions {
     if (options[k] === undefined) delete options[k];
   }
   return options;
+}
+
+/**
+ * Reads `--map-scale`.
+ *
+ * @param raw The option's value.
+ * @returns `"linear"` or `"sqrt"`, or undefined when not given.
+ * @throws {UsageError} For another value.
+ *
+ * @example Linear, square root, or not given
+ * ```ts
+ * import { mapScaleFromValue } from "./_report_args.ts";
+ * if (mapScaleFromValue("sqrt") !== "sqrt" || mapScaleFromValue(undefined) !== undefined) {
+ *   throw new Error("mapScaleFromValue: the example's check failed");
+ * }
+ * ```
+ */
+export function mapScaleFromValue(raw: unknown): "linear" | "sqrt" | undefined {
+  if (raw === undefined) return undefined;
+  if (raw !== "linear" && raw !== "sqrt") {
+    throw new UsageError(`Option --map-scale must be linear or sqrt: got "${raw}"`);
+  }
+  return raw;
 }
 
 /**

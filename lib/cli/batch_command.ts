@@ -18,6 +18,7 @@ import { parseOptions } from "./_args.ts";
 import { COUNT_OPTIONS, COUNT_OPTIONS_HELP, countOptionsFromValues } from "./_case_args.ts";
 import {
   formatsFromValue,
+  mapScaleFromValue,
   REPORT_OPTIONS,
   REPORT_OPTIONS_HELP,
   reportOptionsFromValues,
@@ -108,6 +109,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   }
   const options = { ...reportOptionsFromValues(values), ...countOptionsFromValues(values) };
   const formats = formatsFromValue(values.format);
+  const mapScale = mapScaleFromValue(values["map-scale"]);
   const workers = workersFromValue(values.workers);
   const shard: Shard | undefined = values.shard !== undefined
     ? parseShard(String(values.shard))
@@ -137,6 +139,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
       outDir: out,
       formats,
       standalone: values.standalone === true,
+      mapScale,
       workers,
       force: values.force === true,
       shard,

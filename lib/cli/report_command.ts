@@ -24,6 +24,7 @@ import {
 } from "./_case_args.ts";
 import {
   formatsFromValue,
+  mapScaleFromValue,
   REPORT_OPTIONS,
   REPORT_OPTIONS_HELP,
   reportOptionsFromValues,
@@ -108,6 +109,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   }
   const options = { ...reportOptionsFromValues(values), ...countOptionsFromValues(values) };
   const formats = formatsFromValue(values.format);
+  const mapScale = mapScaleFromValue(values["map-scale"]);
 
   // The cases: folders stand for their cases; files a case file names are not cases.
   const named: { file: string; input: CaseInput | null; problem?: string }[] = [];
@@ -150,6 +152,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     outDir: out,
     formats,
     standalone: values.standalone === true,
+    mapScale,
     workers: 1,
     force: true,
     cohort: values["no-cohort"] !== true,

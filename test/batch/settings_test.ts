@@ -8,7 +8,7 @@ const ALL = { formats: [...ALL_FORMATS], standalone: false };
 // The canonical JSON of the default settings, keys sorted by hand (UTF-16 order).
 const DEFAULTS_JSON = '{"allowEmpty":false,"areaMm2":2.37,"aspect":[4,3],"bestN":10,' +
   '"countLabels":["mitotic figure"],"fieldAreaMm2":0.2376,"formats":["csv","geojson","html","json"],' +
-  '"maxGridCells":25000000,"minCoverage":0.95,"minScore":0,"scheme":null,"shape":"rect",' +
+  '"mapScale":"linear","maxGridCells":25000000,"minCoverage":0.95,"minScore":0,"scheme":null,"shape":"rect",' +
   '"standalone":false,"strideUm":25,"top":3}';
 
 Deno.test("canonicalJson() of the default settings is the documented text", () => {
@@ -20,7 +20,7 @@ Deno.test("settingsSha256() of the defaults equals an outside sha256 of the cano
   // computed when this test was written (C). SHA-256 as specified in FIPS 180-4.
   assert.equal(
     settingsSha256({}, ALL),
-    "c34c4bf5064de61789d7178317f0129c0932fb15787b6d6f317dd4b29f4e959d",
+    "a8e6365257f8a8670fe06d201a6b880845e2ccd5a20e90e42588f1ba2c045753",
   );
 });
 
