@@ -231,7 +231,12 @@ export type { BatchCase, CaseOutcome, CaseSummary } from "./batch/batch_types.ts
 export { type BatchResult, runBatch, type RunBatchOptions } from "./batch/run_batch.ts";
 export { MANIFEST_COLUMNS, readManifest } from "./batch/read_manifest.ts";
 export { folderCases } from "./batch/case_sources.ts";
-export { type EffectiveSettings, effectiveSettings, settingsSha256 } from "./batch/settings.ts";
+export {
+  type EffectiveSettings,
+  effectiveSettings,
+  type SettingsOutput,
+  settingsSha256,
+} from "./batch/settings.ts";
 export { parseShard, selectShard, type Shard } from "./batch/shard.ts";
 export { RUN_HISTORY_FILE, RunHistory, type RunInfo } from "./batch/run_history.ts";
 
