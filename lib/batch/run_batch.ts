@@ -290,7 +290,9 @@ export async function runBatch(
   settle();
 
   let cohortFiles: string[] = [];
-  if ((options.cohort ?? !options.shard) && existsSync(outDir)) {
+  // With no case written and no folder yet there is nothing to list (and nothing is made).
+  const anyReport = outcomes.some((o) => o?.report !== undefined);
+  if ((options.cohort ?? !options.shard) && (existsSync(outDir) || anyReport)) {
     const found = readCaseReports(outDir);
     notes.push(...found.skipped.map((s) => `Passed over ${s}`));
     // This run's reports count even when report.json is not among the formats.

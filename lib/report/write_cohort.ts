@@ -113,7 +113,7 @@ export interface CohortFilesOptions {
  * import { readFileSync, rmSync } from "node:fs";
  * const dir = Deno.makeTempDirSync();
  * const written = writeCohortFiles(dir, [], { html: false, generatedAt: null });
- * if (written.length !== 2 || !readFileSync(`${dir}/cases.csv`, "utf8").startsWith("case,")) {
+ * if (written.length !== 3 || !readFileSync(`${dir}/cases.csv`, "utf8").startsWith("case,")) {
  *   throw new Error("writeCohortFiles: the example's check failed");
  * }
  * rmSync(dir, { recursive: true });

@@ -15,7 +15,16 @@ async function output(
   cwd: string,
   extra: Record<string, string> = {},
 ) {
-  const r = await new Deno.Command(cmd, { args, cwd, env: { ...env(), ...extra } }).output();
+  // deno task sets INIT_CWD only when it is unset: drop the one of the task running the tests.
+  const inherited = Deno.env.toObject();
+  delete inherited.INIT_CWD;
+  delete inherited.HOTFIELD_CWD;
+  const r = await new Deno.Command(cmd, {
+    args,
+    cwd,
+    clearEnv: true,
+    env: { ...inherited, ...env(), ...extra },
+  }).output();
   const dec = new TextDecoder();
   return { code: r.code, out: dec.decode(r.stdout), err: dec.decode(r.stderr) };
 }
