@@ -89,7 +89,7 @@ export async function folderCases(dir: string, options: ReportOptions): Promise<
  *   { file: "in/x.case.json", input: { caseFilePath: "in/x.case.json", annotationsPath: "in/x.geojson" } },
  *   { file: "in/x.geojson", input: { annotationsPath: "in/x.geojson" } },
  * ]);
- * if (kept.length !== 1 || dropped[0] !== "in/x.geojson") throw new Error("dropClaimedFiles: the example's check failed");
+ * if (kept.length !== 1 || dropped[0] !== "in/x.geojson") throw new Error(`one case, x.geojson dropped: ${JSON.stringify({ kept, dropped })}`);
  * ```
  */
 export function dropClaimedFiles<T extends { file: string; input: CaseInput | null }>(

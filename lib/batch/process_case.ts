@@ -40,7 +40,7 @@ let plotlyCache: string | undefined;
  *   settingsSha256: "0",
  * }, { outDir: "/tmp/unused", formats: ["json"], standalone: false, generatedAt: null },
  *   () => Promise.resolve(null));
- * if (outcome.status !== "failed" || !outcome.message?.includes("file not found")) throw new Error("processCase: the example's check failed");
+ * if (outcome.status !== "failed" || !outcome.message?.includes("file not found")) throw new Error(`a missing file fails the case: ${JSON.stringify(outcome)}`);
  * ```
  */
 export async function processCase(
@@ -109,11 +109,18 @@ export async function processCase(
  * @example A report without a hotspot or a scheme
  * ```ts
  * import { reportSummary } from "./process_case.ts";
- * const s = reportSummary({ hotspot: null, distribution: { positions: 0 }, classification: null } as never);
- * if (s.hotspotCount !== null || s.class !== null) throw new Error("reportSummary: the example's check failed");
+ * import type { ReportJson } from "../pipeline/report_types.ts";
+ * const report: Pick<ReportJson, "hotspot" | "distribution" | "classification"> = {
+ *   hotspot: null, classification: null,
+ *   distribution: { positions: 0, min: null, q1: null, median: null, q3: null, max: null, mean: null },
+ * };
+ * const s = reportSummary(report);
+ * if (s.hotspotCount !== null || s.class !== null) throw new Error(`no hotspot, no class: ${JSON.stringify(s)}`);
  * ```
  */
-export function reportSummary(report: ReportJson): CaseSummary {
+export function reportSummary(
+  report: Pick<ReportJson, "hotspot" | "distribution" | "classification">,
+): CaseSummary {
   const c = report.classification;
   return {
     hotspotCount: report.hotspot?.count ?? null,

@@ -143,7 +143,7 @@ function clock(seconds: number): string {
  * const p = barProgress((s) => out.push(s), () => 0, false);
  * p.plan({ total: 2, toRun: 2 });
  * p.finish();
- * if (!out.join("").includes("0/2")) throw new Error("barProgress: the example's check failed");
+ * if (!out.join("").includes("0/2")) throw new Error(`the bar shows 0 of 2 done: ${JSON.stringify(out)}`);
  * ```
  */
 export function barProgress(

@@ -25,7 +25,7 @@ import { canonicalJson } from "./settings.ts";
  * ```ts
  * import { caseProvenance } from "./provenance.ts";
  * const p = caseProvenance([{ kind: "annotations", path: "a.geojson", sha256: "ab" }], "cd");
- * if (p.inputs[0].path !== "a.geojson" || p.settings_sha256 !== "cd") throw new Error("caseProvenance: the example's check failed");
+ * if (p.inputs[0].path !== "a.geojson" || p.settings_sha256 !== "cd") throw new Error(`paths and settings sha256 kept: ${JSON.stringify(p)}`);
  * ```
  */
 export function caseProvenance(
@@ -50,7 +50,7 @@ export function caseProvenance(
  * ```ts
  * import { caseInputFiles } from "./provenance.ts";
  * const files = caseInputFiles({ annotationsPath: "a.geojson", figuresPath: "f.csv" });
- * if (files.join() !== "a.geojson,f.csv") throw new Error("caseInputFiles: the example's check failed");
+ * if (files.join() !== "a.geojson,f.csv") throw new Error(`annotations, then figures: ${files}`);
  * ```
  */
 export function caseInputFiles(input: CaseInput): string[] {
@@ -71,7 +71,7 @@ export function caseInputFiles(input: CaseInput): string[] {
  * ```ts
  * import { expectedProvenance } from "./provenance.ts";
  * if (await expectedProvenance({ annotationsPath: "/no/such/file.geojson" }, "0") !== null) {
- *   throw new Error("expectedProvenance: the example's check failed");
+ *   throw new Error("a missing file must give null (run the case)");
  * }
  * ```
  */
@@ -103,7 +103,7 @@ export async function expectedProvenance(
  * ```ts
  * import { provenanceKey } from "./provenance.ts";
  * const p = { hotfield_version: "0.1.0", inputs: [{ path: "a", sha256: "b" }], settings_sha256: "c" };
- * if (provenanceKey(p) !== provenanceKey({ ...p }) || provenanceKey(undefined) !== null) throw new Error("provenanceKey: the example's check failed");
+ * if (provenanceKey(p) !== provenanceKey({ ...p }) || provenanceKey(undefined) !== null) throw new Error("equal provenances give equal keys; a non-provenance gives null");
  * ```
  */
 export function provenanceKey(p: unknown): string | null {

@@ -90,7 +90,7 @@ export function isoSeconds(date: Date = new Date()): string {
  * const n = h.query("SELECT count(*) AS n FROM case_runs")[0].n;
  * h.close();
  * Deno.removeSync(dir, { recursive: true });
- * if (n !== 1) throw new Error("RunHistory: the example's check failed");
+ * if (n !== 1) throw new Error(`one case recorded, found ${n}`);
  * ```
  */
 export class RunHistory {

@@ -106,7 +106,7 @@ export interface SettingsOutput {
  * ```ts
  * import { effectiveSettings } from "hotfield";
  * const s = effectiveSettings({ shape: "circle" }, { formats: ["json"], standalone: false });
- * if (s.areaMm2 !== 2.37 || s.aspect !== undefined || s.scheme !== null) throw new Error("effectiveSettings: the example's check failed");
+ * if (s.areaMm2 !== 2.37 || s.aspect !== undefined || s.scheme !== null) throw new Error(`defaults filled in, no aspect for a circle: ${JSON.stringify(s)}`);
  * ```
  */
 export function effectiveSettings(
@@ -151,7 +151,7 @@ export function effectiveSettings(
  * @example Key order does not matter
  * ```ts
  * import { canonicalJson } from "./settings.ts";
- * if (canonicalJson({ b: 1, a: [{ d: 2, c: 3 }] }) !== '{"a":[{"c":3,"d":2}],"b":1}') throw new Error("canonicalJson: the example's check failed");
+ * if (canonicalJson({ b: 1, a: [{ d: 2, c: 3 }] }) !== '{"a":[{"c":3,"d":2}],"b":1}') throw new Error("keys sorted at every level");
  * ```
  */
 export function canonicalJson(value: unknown): string {

@@ -32,7 +32,7 @@ export interface Shard {
  * @example Good and bad shards
  * ```ts
  * import { parseShard } from "hotfield";
- * if (parseShard("2/3").k !== 2) throw new Error("parseShard: the example's check failed");
+ * if (parseShard("2/3").k !== 2) throw new Error("2/3 is the second of three shares");
  * for (const bad of ["0/3", "4/3", "a/b"]) {
  *   let failed = false;
  *   try { parseShard(bad); } catch { failed = true; }

@@ -74,10 +74,10 @@ type Values = Record<string, string | boolean | string[] | undefined>;
  * ```ts
  * import { reportOptionsFromValues } from "./_report_args.ts";
  * const o = reportOptionsFromValues({ aspect: "16:9", top: "0" });
- * if (o.aspect?.[0] !== 16 || o.top !== 0) throw new Error("reportOptionsFromValues: the example's check failed");
+ * if (o.aspect?.[0] !== 16 || o.top !== 0) throw new Error(`options ${JSON.stringify(o)}`);
  * let failed = false;
  * try { reportOptionsFromValues({ area: "-1" }); } catch { failed = true; }
- * if (!failed) throw new Error("reportOptionsFromValues: the example's check failed");
+ * if (!failed) throw new Error("a negative --area must be refused");
  * ```
  */
 export function reportOptionsFromValues(values: Values): ReportOptions {
@@ -153,7 +153,7 @@ export function reportOptionsFromValues(values: Values): ReportOptions {
  * ```ts
  * import { mapScaleFromValue } from "./_report_args.ts";
  * if (mapScaleFromValue("sqrt") !== "sqrt" || mapScaleFromValue(undefined) !== undefined) {
- *   throw new Error("mapScaleFromValue: the example's check failed");
+ *   throw new Error("sqrt is kept; no value gives undefined");
  * }
  * ```
  */
@@ -175,7 +175,7 @@ export function mapScaleFromValue(raw: unknown): "linear" | "sqrt" | undefined {
  * @example A list with spaces
  * ```ts
  * import { formatsFromValue } from "./_report_args.ts";
- * if (formatsFromValue("json, html").join() !== "json,html") throw new Error("formatsFromValue: the example's check failed");
+ * if (formatsFromValue("json, html").join() !== "json,html") throw new Error("spaces around the commas are dropped");
  * ```
  */
 export function formatsFromValue(raw: unknown): OutputFormat[] {

@@ -77,7 +77,7 @@ written then); 2 bad options.
  * import { run } from "./batch_command.ts";
  * const out: string[] = [];
  * const code = await run(["--help"], { stdout: (s) => out.push(s), stderr: () => {} });
- * if (code !== 0 || !out.join("").startsWith("Usage: hotfield batch")) throw new Error("run: the example's check failed");
+ * if (code !== 0 || !out.join("").startsWith("Usage: hotfield batch")) throw new Error(`exit ${code}: ${out.join("")}`);
  * ```
  */
 export async function run(args: string[], io: CommandIo): Promise<number> {

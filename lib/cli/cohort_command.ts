@@ -43,7 +43,7 @@ Exit codes: 0 written, 1 DIR missing or not a folder, 2 bad options.
  * import { run } from "./cohort_command.ts";
  * const out: string[] = [];
  * const code = await run(["--help"], { stdout: (s) => out.push(s), stderr: () => {} });
- * if (code !== 0 || !out.join("").startsWith("Usage: hotfield cohort")) throw new Error("run: the example's check failed");
+ * if (code !== 0 || !out.join("").startsWith("Usage: hotfield cohort")) throw new Error(`exit ${code}: ${out.join("")}`);
  * ```
  */
 export function run(args: string[], io: CommandIo): Promise<number> {

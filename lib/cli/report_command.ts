@@ -208,7 +208,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
  * @example
  * ```ts
  * import { caseNotes } from "./report_command.ts";
- * const text = caseNotes({ verdict: "ok", warnings: ["w"] } as never);
+ * const text = caseNotes({ verdict: "ok", warnings: ["w"] });
  * if (text !== "  verdict: ok\n  warning: w\n") throw new Error(text);
  * ```
  */

@@ -35,7 +35,7 @@ export const TEMP_PREFIX = ".tmp-";
  * @example Two-space indent and a final line break
  * ```ts
  * import { stableJson } from "./case_folder.ts";
- * if (stableJson({ a: 1 }) !== '{\n  "a": 1\n}\n') throw new Error("stableJson: the example's check failed");
+ * if (stableJson({ a: 1 }) !== '{\n  "a": 1\n}\n') throw new Error("two-space indent and a final line break");
  * ```
  */
 export function stableJson(value: unknown): string {
@@ -68,11 +68,16 @@ export interface CaseFilesContext {
  *
  * @example Only the JSON
  * ```ts
+ * import { buildCaseResult, parseAnnotations } from "hotfield";
  * import { renderCaseFiles } from "./case_folder.ts";
- * const files = renderCaseFiles({ report: { case: "QVT-24-001" } } as never, {
- *   formats: ["json"], generatedAt: null,
- * });
- * if (files.length !== 1 || files[0][0] !== "report.json") throw new Error("renderCaseFiles: the example's check failed");
+ * const square = [[[0, 0], [8000, 0], [8000, 6000], [0, 6000], [0, 0]]];
+ * const parsed = parseAnnotations(JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 0.5 },
+ *   features: [{ type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon", coordinates: square } }],
+ * }), { fileName: "QVT-24-001.geojson" });
+ * const result = buildCaseResult({ caseId: "QVT-24-001", ...parsed, sources: [] }, { bestN: 0, strideUm: 200 });
+ * const files = renderCaseFiles(result, { formats: ["json"], generatedAt: null });
+ * if (files.length !== 1 || files[0][0] !== "report.json") throw new Error(`only report.json: ${files.map((f) => f[0])}`);
  * ```
  */
 export function renderCaseFiles(
@@ -116,7 +121,7 @@ export function renderCaseFiles(
  * checkCaseFolderName("QVT-24-001");
  * let failed = false;
  * try { checkCaseFolderName("../x"); } catch { failed = true; }
- * if (!failed) throw new Error("checkCaseFolderName: the example's check failed");
+ * if (!failed) throw new Error(`"../x" must be refused`);
  * ```
  */
 export function checkCaseFolderName(id: string): void {
@@ -148,7 +153,7 @@ export function checkCaseFolderName(id: string): void {
  * writeCaseFolder(dir, "QVT-24-001", [["a.txt", "1"], ["b.txt", "2"]]);
  * writeCaseFolder(dir, "QVT-24-001", [["a.txt", "3"]]);
  * if (readdirSync(`${dir}/QVT-24-001`).join() !== "a.txt") throw new Error("old files gone");
- * if (readFileSync(`${dir}/QVT-24-001/a.txt`, "utf8") !== "3") throw new Error("writeCaseFolder: the example's check failed");
+ * if (readFileSync(`${dir}/QVT-24-001/a.txt`, "utf8") !== "3") throw new Error("the second write replaces the first");
  * if (readdirSync(dir).join() !== "QVT-24-001") throw new Error("no temporary folder left");
  * rmSync(dir, { recursive: true });
  * ```
@@ -206,7 +211,7 @@ const TEMP_FILE = /\.tmp-\d+-\d+$/;
  * mkdirSync(`${dir}/QVT-24-002`);
  * const gone = removeTemporaryEntries(dir);
  * if (gone.join() !== ".tmp-QVT-24-001-4242" || readdirSync(dir).join() !== "QVT-24-002") {
- *   throw new Error("removeTemporaryEntries: the example's check failed");
+ *   throw new Error(`only the staged folder goes: removed ${gone}`);
  * }
  * rmSync(dir, { recursive: true });
  * ```

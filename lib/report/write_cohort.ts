@@ -49,7 +49,7 @@ export interface CaseReports {
  *   writeFileSync(`${dir}/${id}/report.json`, JSON.stringify({ schema: "hotfield.report/1", case: id }));
  * }
  * const { reports } = readCaseReports(dir);
- * if (reports.map((r) => r.case).join() !== "QVT-24-001,QVT-24-002") throw new Error("readCaseReports: the example's check failed");
+ * if (reports.map((r) => r.case).join() !== "QVT-24-001,QVT-24-002") throw new Error(`two case folders in id order, the hidden one passed over: ${reports.map((r) => r.case)}`);
  * rmSync(dir, { recursive: true });
  * ```
  */
@@ -114,7 +114,7 @@ export interface CohortFilesOptions {
  * const dir = Deno.makeTempDirSync();
  * const written = writeCohortFiles(dir, [], { html: false, generatedAt: null });
  * if (written.length !== 3 || !readFileSync(`${dir}/cases.csv`, "utf8").startsWith("case,")) {
- *   throw new Error("writeCohortFiles: the example's check failed");
+ *   throw new Error(`three CSV files with headers: ${written}`);
  * }
  * rmSync(dir, { recursive: true });
  * ```
