@@ -33,6 +33,7 @@ import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
 import { polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
 import { mergeSlideMembers, parseSlideInfo, type SlideMember } from "./slide_info.ts";
+import { type SlideFileFacts, withSlideFileFacts } from "./_slide_facts.ts";
 
 /** The roles a feature may have, in the order of the table above. */
 export const ANNOTATION_ROLES = ["tissue", "tumour", "exclude", "figure", "field"] as const;
@@ -68,6 +69,12 @@ export interface ParseAnnotationsOptions {
    * @default undefined
    */
   slide?: SlideMember;
+  /**
+   * A slide file's own facts: they fill the slide member's missing fields,
+   * and a value that disagrees with them is an error naming both.
+   * @default undefined
+   */
+  slideFile?: SlideFileFacts;
 }
 
 const WHAT = "annotations";
@@ -185,7 +192,10 @@ export function parseAnnotations(
   }
   const merged = mergeSlideMembers(fc.slide, options.slide);
   warnings.push(...merged.warnings);
-  const slide = parseSlideInfo(merged.member, { what: WHAT, fileName: file });
+  const member = options.slideFile === undefined
+    ? merged.member
+    : withSlideFileFacts(merged.member, options.slideFile, WHAT, file);
+  const slide = parseSlideInfo(member, { what: WHAT, fileName: file });
 
   const tissue: RegionPart[] = [];
   const tumour: RegionPart[] = [];
