@@ -22,6 +22,10 @@ const COMMANDS: Record<string, { summary: string; load: () => Promise<CommandMod
     summary: "count map, exact hotspot, distribution and field check; writes reports",
     load: () => import("./cli/report_command.ts"),
   },
+  tissue: {
+    summary: "find the tissue on a slide file or thumbnail; writes it as GeoJSON",
+    load: () => import("./cli/tissue_command.ts"),
+  },
   fov: {
     summary: "microscope field of view: diameter, area, fields for a target area",
     load: () => import("./cli/fov_command.ts"),

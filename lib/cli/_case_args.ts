@@ -20,6 +20,7 @@ export const CASE_OPTIONS: OptionSpec = {
   "min-score": { type: "string" },
   "count-label": { type: "string", multiple: true },
   id: { type: "string" },
+  slide: { type: "string" },
 };
 
 /** Help lines for {@linkcode CASE_OPTIONS}, for a command's `--help`. */
@@ -31,6 +32,8 @@ export const CASE_OPTIONS_HELP = [
   `  --min-score F          figures with a score below F (0..1) are not counted (default ${DEFAULT_MIN_SCORE})`,
   `  --count-label L        label that is counted; repeat for several (default "${DEFAULT_COUNT_LABEL}")`,
   "  --id ID                case id (default: slide id, case-file id, or file stem)",
+  "  --slide FILE           the slide file (or PNG/JPEG thumbnail): mpp and size, and the tissue",
+  "                         when no outline is given (a slide file needs the OpenSlide library)",
 ].join("\n");
 
 type Values = Record<string, string | boolean | string[] | undefined>;
@@ -47,7 +50,9 @@ const MAX_CASE_FILE_BYTES = 1 << 20;
  * GeoJSON. Options override what a case file says. A file that cannot be
  * read is left for `loadCase` to report.
  *
- * @param file The command's FILE argument.
+ * With no `file` (only `--slide`), the case is the slide file alone.
+ *
+ * @param file The command's FILE argument, if any.
  * @param values Parsed option values.
  * @returns The case input.
  * @throws {UsageError} For a bad `--units` or `--mask-mpp`, or `--mask-mpp` or
@@ -62,10 +67,15 @@ const MAX_CASE_FILE_BYTES = 1 << 20;
  * }
  * ```
  */
-export async function caseInputFromOptions(file: string, values: Values): Promise<CaseInput> {
-  let input: CaseInput = { annotationsPath: file };
-  const text = await smallText(file);
-  if (text !== undefined && looksLikeCaseFile(text)) input = parseCaseFile(text, file);
+export async function caseInputFromOptions(
+  file: string | undefined,
+  values: Values,
+): Promise<CaseInput> {
+  let input: CaseInput = file === undefined ? {} : { annotationsPath: file };
+  const text = file === undefined ? undefined : await smallText(file);
+  if (file !== undefined && text !== undefined && looksLikeCaseFile(text)) {
+    input = parseCaseFile(text, file);
+  }
 
   const str = (name: string): string | undefined => {
     const v = values[name];
@@ -108,6 +118,11 @@ export async function caseInputFromOptions(file: string, values: Values): Promis
   }
   const id = str("id");
   if (id !== undefined) input.idOverride = id;
+  const slide = str("slide");
+  if (slide !== undefined) input.slidePath = slide;
+  if (input.annotationsPath === undefined && input.slidePath === undefined && !input.slide) {
+    throw new UsageError("Give a FILE (an annotation GeoJSON or a case file) or --slide FILE");
+  }
   return input;
 }
 

@@ -34,12 +34,15 @@ import {
 } from "../defaults.ts";
 
 const HELP = `Usage: hotfield report FILE [FILE...] --out DIR [options]
+       hotfield report --slide SLIDE --figures F.csv --out DIR [options]
 
 For each case (an annotation GeoJSON or a case file): the count of figures in
 a standard-area window at every grid position, the exact hotspot (the best
 admissible window anywhere), the spread of counts, each reader's field
 checked against it, and optionally a grading scheme's classification.
 Writes DIR/<case>/report.json, hotspot.geojson, and HTML and CSV outputs.
+With --slide and no FILE, the case is the slide alone: its mpp, its size and
+the tissue found on it (recorded in report.json's tissue_source).
 hotfield supports, never replaces, a pathologist's diagnosis.
 
 Options:
@@ -209,9 +212,14 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     io.stdout(HELP);
     return 0;
   }
-  if (positionals.length === 0) {
+  if (positionals.length === 0 && values.slide === undefined) {
     throw new UsageError(
-      "Give at least one FILE (an annotation GeoJSON or a case file); see hotfield report --help",
+      "Give at least one FILE (an annotation GeoJSON or a case file), or --slide FILE; see hotfield report --help",
+    );
+  }
+  if (positionals.length > 1 && values.slide !== undefined) {
+    throw new UsageError(
+      `Option --slide names the slide of one case: give one FILE with it, not ${positionals.length}`,
     );
   }
   const out = values.out;
@@ -222,17 +230,19 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   const formats = formatsFromValue(values.format);
   const results: CaseResult[] = [];
   const seen = new Map<string, string>();
-  for (const file of positionals) {
+  for (const file of positionals.length === 0 ? [undefined] : positionals) {
     const input = await caseInputFromOptions(file, values);
     const caseData = await loadCase(input);
     const earlier = seen.get(caseData.caseId);
     if (earlier !== undefined) {
       throw new Error(
-        `Cases "${earlier}" and "${file}" have the same case id "${caseData.caseId}": ` +
+        `Cases "${earlier}" and "${
+          file ?? values.slide
+        }" have the same case id "${caseData.caseId}": ` +
           "give each a distinct id (--id works for a single file)",
       );
     }
-    seen.set(caseData.caseId, file);
+    seen.set(caseData.caseId, file ?? String(values.slide));
     try {
       results.push(buildCaseResult(caseData, options));
     } catch (e) {
