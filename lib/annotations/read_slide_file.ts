@@ -75,7 +75,7 @@ const pair = (v: number | [number, number]): [number, number] =>
  *
  * @example
  * ```ts
- * import { slideIdFromPath } from "./read_slide_file.ts";
+ * import { slideIdFromPath } from "hotfield";
  * if (slideIdFromPath("/slides/QVT-24-009.tiff") !== "QVT-24-009") throw new Error();
  * ```
  */
@@ -173,7 +173,7 @@ function checkLevel0Mpp(path: string, mpp: [number, number], what: string, fix: 
  * @example A PNG thumbnail at 16 µm/px of a slide at 0.5 µm/px
  * ```ts
  * import { encode } from "fast-png";
- * import { readSlideImage } from "./read_slide_file.ts";
+ * import { readSlideImage } from "hotfield";
  * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
  *   const path = Deno.makeTempFileSync({ prefix: "QVT-24-001-", suffix: ".png" });
  *   const data = new Uint8Array(40 * 30 * 3).fill(236);
@@ -370,7 +370,7 @@ async function readThumbnail(path: string, options: ReadSlideImageOptions): Prom
  *
  * @example Glass only: no tissue, and a warning
  * ```ts
- * import { detectSlideTissue, type SlideImage } from "./read_slide_file.ts";
+ * import { detectSlideTissue, type SlideImage } from "hotfield";
  * const image = { width: 50, height: 40, data: new Uint8Array(50 * 40 * 3).fill(236) };
  * const s = { path: "QVT-24-002.png", image, imageMppX: 16, imageMppY: 16, scaleX: 32,
  *   scaleY: 32 } as SlideImage;
@@ -406,8 +406,7 @@ export function detectSlideTissue(
  *
  * @example
  * ```ts
- * import { tissueFeatureCollection, type SlideImage } from "./read_slide_file.ts";
- * import type { TissueDetection } from "../tissue/detect_tissue.ts";
+ * import { type SlideImage, tissueFeatureCollection, type TissueDetection } from "hotfield";
  * const sq: [number, number][] = [[0, 0], [10, 0], [10, 10], [0, 10], [0, 0]];
  * const fc = tissueFeatureCollection(
  *   { path: "QVT-24-003.tiff", kind: "slide", format: "generic-tiff", level: 1, mppFrom: "",

@@ -93,7 +93,7 @@ const LN10 = Math.LN10;
  *
  * @example A small slide
  * ```ts
- * import { generateSyntheticSlide } from "./synthetic_slide.ts";
+ * import { generateSyntheticSlide } from "hotfield";
  * const s = generateSyntheticSlide(1, { widthPx: 800, heightPx: 600, mpp: 8 });
  * if (s.levels.length !== 2 || s.bytes[0] !== 0x49 || s.tissue.length !== 2) throw new Error();
  * ```
@@ -274,7 +274,7 @@ export function generateSyntheticSlide(
  *
  * @example Writing a small slide (needs write permission)
  * ```ts
- * import { writeSyntheticSlide } from "./synthetic_slide.ts";
+ * import { writeSyntheticSlide } from "hotfield";
  * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
  *   const path = Deno.makeTempFileSync({ suffix: ".tiff" });
  *   const s = writeSyntheticSlide(path, 2, { widthPx: 600, heightPx: 400, mpp: 8 });

@@ -62,6 +62,28 @@ export interface SlideFile {
 const WHAT = "slide";
 
 /**
+ * Whether slide files can be read here (the OpenSlide library is installed
+ * and FFI is permitted).
+ *
+ * @returns true, or the reason it cannot (with what to do).
+ *
+ * @example
+ * ```ts
+ * import { isOpenSlideAvailable } from "hotfield";
+ * const ok = isOpenSlideAvailable();
+ * if (ok !== true && typeof ok !== "string") throw new Error();
+ * ```
+ */
+export function isOpenSlideAvailable(): true | string {
+  try {
+    openSlideLib();
+    return true;
+  } catch (e) {
+    return (e as Error).message;
+  }
+}
+
+/**
  * Takes the level-0 micrometres per pixel from a slide's properties.
  *
  * OpenSlide's own `openslide.mpp-x`/`openslide.mpp-y` come first (a missing
@@ -76,7 +98,7 @@ const WHAT = "slide";
  *
  * @example Resolution tags in pixels per centimetre
  * ```ts
- * import { mppFromProperties } from "./open_slide.ts";
+ * import { mppFromProperties } from "hotfield";
  * const m = mppFromProperties({
  *   "tiff.XResolution": "20000", "tiff.YResolution": "40000", "tiff.ResolutionUnit": "centimeter",
  * });
@@ -128,7 +150,7 @@ export function mppFromProperties(props: Record<string, string>): SlideMpp | nul
  *
  * @example Refusing a file that is not a slide (needs --allow-ffi and OpenSlide)
  * ```ts
- * import { openSlide } from "./open_slide.ts";
+ * import { openSlide } from "hotfield";
  * const ffi = (await Deno.permissions.query({ name: "ffi" })).state === "granted";
  * let ok = false;
  * try { Deno.dlopen("libopenslide.so.0", {}).close(); ok = ffi; } catch { ok = false; }

@@ -182,30 +182,43 @@ export function labelComponents(
   const labels = new Int32Array(n).fill(-1);
   const sizes: number[] = [], touchesBorder: boolean[] = [];
   const stack = new Int32Array(n);
-  const is = (k: number) => (mask[k] !== 0) === (value === 1);
+  // 1 where the pixel is of the kind labelled and not yet labelled
+  const open = new Uint8Array(n);
+  for (let k = 0; k < n; k++) open[k] = (mask[k] !== 0) === (value === 1) ? 1 : 0;
+  const eight = connectivity === 8;
   for (let start = 0; start < n; start++) {
-    if (labels[start] >= 0 || !is(start)) continue;
+    if (open[start] === 0) continue;
     const id = sizes.length;
     let size = 0, border = false, top = 0;
     stack[top++] = start;
-    labels[start] = id;
+    open[start] = 0;
     while (top > 0) {
       const k = stack[--top];
+      labels[k] = id;
       size++;
-      const x = k % width, y = (k - x) / width;
-      if (x === 0 || y === 0 || x === width - 1 || y === height - 1) border = true;
-      for (let dy = -1; dy <= 1; dy++) {
-        const yy = y + dy;
-        if (yy < 0 || yy >= height) continue;
-        for (let dx = -1; dx <= 1; dx++) {
-          if ((dx === 0 && dy === 0) || (connectivity === 4 && dx !== 0 && dy !== 0)) continue;
-          const xx = x + dx;
-          if (xx < 0 || xx >= width) continue;
-          const q = yy * width + xx;
-          if (labels[q] < 0 && is(q)) {
-            labels[q] = id;
-            stack[top++] = q;
-          }
+      const x = k % width;
+      const left = x > 0, right = x < width - 1, up = k >= width, down = k < n - width;
+      if (!left || !right || !up || !down) border = true;
+      if (left && open[k - 1]) (open[k - 1] = 0, stack[top++] = k - 1);
+      if (right && open[k + 1]) (open[k + 1] = 0, stack[top++] = k + 1);
+      if (up && open[k - width]) (open[k - width] = 0, stack[top++] = k - width);
+      if (down && open[k + width]) (open[k + width] = 0, stack[top++] = k + width);
+      if (eight) {
+        if (left && up && open[k - width - 1]) {
+          open[k - width - 1] = 0;
+          stack[top++] = k - width - 1;
+        }
+        if (right && up && open[k - width + 1]) {
+          open[k - width + 1] = 0;
+          stack[top++] = k - width + 1;
+        }
+        if (left && down && open[k + width - 1]) {
+          open[k + width - 1] = 0;
+          stack[top++] = k + width - 1;
+        }
+        if (right && down && open[k + width + 1]) {
+          open[k + width + 1] = 0;
+          stack[top++] = k + width + 1;
         }
       }
     }

@@ -113,7 +113,7 @@ const LOG_HI = Math.log10(3); // stain OD 3
  * }
  * const t = detectTissue({ width, height, data }, { mppX: 10, mppY: 10, scaleX: 40, scaleY: 40 });
  * // 40 × 40 pixels of 10 µm: 0.16 mm², less the corners the 25 µm opening rounds off
- * if (!(t.areaMm2 > 0.155 && t.areaMm2 <= 0.16)) throw new Error(`area ${t.areaMm2}`);
+ * if (!(t.areaMm2 > 0.15 && t.areaMm2 <= 0.16)) throw new Error(`area ${t.areaMm2}`);
  * if (t.polygons.length !== 1) throw new Error("one piece");
  * ```
  */
