@@ -15,8 +15,8 @@
  * is bins 0..k, class 1 the bins above: values in bins > k are "above the
  * threshold". This is the computation of scikit-image's `threshold_otsu`
  * (which returns the centre of bin k), which the tests compare with. Splits
- * that leave a class empty are
- * never chosen; a histogram with a single non-empty bin gives that bin.
+ * that leave a class empty are never chosen; a histogram with a single
+ * non-empty bin gives that bin.
  *
  * @see Otsu N (1979). A threshold selection method from gray-level
  *   histograms. IEEE Trans Syst Man Cybern 9(1):62–66. doi:10.1109/TSMC.1979.4310076
