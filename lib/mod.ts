@@ -295,6 +295,7 @@ export {
   detectSlideTissue,
   readSlideImage,
   type ReadSlideImageOptions,
+  type SlideFileFacts,
   slideFileKind,
   slideIdFromPath,
   type SlideImage,

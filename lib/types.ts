@@ -192,7 +192,10 @@ export interface TissueSource {
  * composited over white when an image is read.
  */
 export interface RgbImage {
+  /** Width in pixels. */
   width: number;
+  /** Height in pixels. */
   height: number;
+  /** 3·width·height bytes: R, G, B of each pixel, rows top to bottom. */
   data: Uint8Array;
 }

@@ -6,17 +6,7 @@
  */
 
 import { inputError } from "../errors.ts";
-import type { SlideMember } from "./slide_info.ts";
-
-/** A slide file's own facts, as a `slide` member, and the file. */
-export interface SlideFileFacts {
-  /** `{id, mpp: [x, y], width, height}` read from the slide file. */
-  member: SlideMember & { mpp: [number, number]; width: number; height: number };
-  /** The slide file as given, for messages. */
-  path: string;
-  /** Where the slide file's mpp came from, for messages. */
-  mppFrom: string;
-}
+import type { SlideFileFacts } from "./read_slide_file.ts";
 
 /** Relative difference allowed between two mpp values (files round them to about 4 digits). */
 const MPP_TOLERANCE = 1e-3;

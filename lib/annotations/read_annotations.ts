@@ -33,7 +33,8 @@ import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
 import { polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
 import { mergeSlideMembers, parseSlideInfo, type SlideMember } from "./slide_info.ts";
-import { type SlideFileFacts, withSlideFileFacts } from "./_slide_facts.ts";
+import { withSlideFileFacts } from "./_slide_facts.ts";
+import type { SlideFileFacts } from "./read_slide_file.ts";
 
 /** The roles a feature may have, in the order of the table above. */
 export const ANNOTATION_ROLES = ["tissue", "tumour", "exclude", "figure", "field"] as const;

@@ -91,10 +91,11 @@ import { parseAnnotations } from "./read_annotations.ts";
 import { parseFiguresCsv } from "./read_figures_csv.ts";
 import { parseSlideInfo, type SlideMember } from "./slide_info.ts";
 import { sha256File } from "../io/hash_file.ts";
-import { type SlideFileFacts, withSlideFileFacts } from "./_slide_facts.ts";
+import { withSlideFileFacts } from "./_slide_facts.ts";
 import {
   detectSlideTissue,
   readSlideImage,
+  type SlideFileFacts,
   slideFileKind,
   type SlideImage,
 } from "./read_slide_file.ts";
@@ -625,7 +626,6 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
       tissue = [...tissue, { polygons, source: path }];
     }
   }
-
 
   if (tissue.length === 0 && tumour.length === 0) {
     const what = input.annotationsPath !== undefined ? "annotations" : "case file";

@@ -9,6 +9,7 @@
 import { basename } from "node:path";
 import { closeSync, openSync, readSync } from "node:fs";
 import { inputError } from "../errors.ts";
+import { roundTo } from "../numbers.ts";
 import type { MultiPolygonPx, RgbImage, SlideInfo } from "../types.ts";
 import { decodeRgbImage, sniffImageFormat } from "../slide/decode_image.ts";
 import { openSlide } from "../slide/open_slide.ts";
@@ -18,7 +19,17 @@ import {
   type DetectTissueOptions,
   type TissueDetection,
 } from "../tissue/detect_tissue.ts";
-import { MAX_PLAUSIBLE_MPP, MIN_PLAUSIBLE_MPP } from "./slide_info.ts";
+import { MAX_PLAUSIBLE_MPP, MIN_PLAUSIBLE_MPP, type SlideMember } from "./slide_info.ts";
+
+/** A slide file's own facts, as a `slide` member, and the file. */
+export interface SlideFileFacts {
+  /** `{id, mpp: [x, y], width, height}` read from the slide file. */
+  member: SlideMember & { mpp: [number, number]; width: number; height: number };
+  /** The slide file as given, for messages. */
+  path: string;
+  /** Where the slide file's mpp came from, for messages. */
+  mppFrom: string;
+}
 
 /** Options of {@linkcode readSlideImage}. */
 export interface ReadSlideImageOptions {
@@ -434,7 +445,7 @@ export function tissueFeatureCollection(image: SlideImage, detection: TissueDete
       type: "Feature",
       properties: {
         role: "tissue",
-        area_mm2: Math.round(detection.areaMm2 * 1e6) / 1e6,
+        area_mm2: roundTo(detection.areaMm2, 6),
         source: {
           file: image.path,
           kind: image.kind,
@@ -453,7 +464,7 @@ export function tissueFeatureCollection(image: SlideImage, detection: TissueDete
 }
 
 function fmt(v: number): string {
-  return String(Math.round(v * 1e4) / 1e4);
+  return String(roundTo(v, 4));
 }
 
 function fmtPair([x, y]: [number, number]): string {

@@ -8,6 +8,7 @@
 
 import { encode } from "fast-png";
 import { UsageError } from "../errors.ts";
+import { roundTo } from "../numbers.ts";
 import { writeFileAtomic } from "../io/write_atomic.ts";
 import {
   detectSlideTissue,
@@ -133,7 +134,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     writeFileAtomic(maskOut, encode({ width, height, data: grey, channels: 1, depth: 8 }));
   }
   for (const w of [...image.warnings, ...detection.warnings]) io.stderr(`warning: ${w}\n`);
-  const r = (v: number, d: number) => String(Math.round(v * 10 ** d) / 10 ** d);
+  const r = (v: number, d: number) => String(roundTo(v, d));
   const pieces = detection.polygons.length;
   const where = image.level === null ? "thumbnail" : `level ${image.level}`;
   io.stdout(

@@ -12,7 +12,8 @@ import { mkdirSync } from "node:fs";
 import type { CaseInput } from "../annotations/read_case.ts";
 import { writeFileAtomic } from "../io/write_atomic.ts";
 import { normal, seededRandom } from "../random.ts";
-import { inAny, round1 } from "./_shapes.ts";
+import { inAny } from "./_shapes.ts";
+import { roundTo } from "../numbers.ts";
 import { DEMO_SEED } from "./demo_cohort.ts";
 import { type SyntheticSlide, writeSyntheticSlide } from "./synthetic_slide.ts";
 
@@ -98,7 +99,7 @@ export function slideDemoFiguresCsv(slide: SyntheticSlide, seed: number): string
   const cy = Math.min(...ys) * 0.3 + Math.max(...ys) * 0.7;
   const add = (x: number, y: number, label: string, score: number) => {
     if (x < 0 || y < 0 || x > W || y > H || !inAny(slide.tissue, x, y)) return false;
-    rows.push(`${round1(x)},${round1(y)},${label},${score.toFixed(3)}`);
+    rows.push(`${roundTo(x, 1)},${roundTo(y, 1)},${label},${score.toFixed(3)}`);
     return true;
   };
   for (let n = 0, tries = 0; n < 40 && tries < 4000; tries++) {

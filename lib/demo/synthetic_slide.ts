@@ -45,7 +45,9 @@ export interface SyntheticSlideOptions {
 
 /** One written level. */
 export interface SyntheticLevel {
+  /** Width of the level in its own pixels. */
   widthPx: number;
+  /** Height of the level in its own pixels. */
   heightPx: number;
   /** Drawn pixel by pixel (true) or made of flat tiles (false). */
   detailed: boolean;
@@ -53,13 +55,17 @@ export interface SyntheticLevel {
 
 /** A generated slide: the file's bytes and what is on it. */
 export interface SyntheticSlide {
+  /** The slide id. */
   id: string;
-  /** Level-0 size, px. */
+  /** Level-0 width, px. */
   widthPx: number;
+  /** Level-0 height, px. */
   heightPx: number;
-  /** Level-0 micrometres per pixel. */
+  /** Level-0 micrometres per pixel along x. */
   mppX: number;
+  /** Level-0 micrometres per pixel along y. */
   mppY: number;
+  /** The levels written, level 0 first. */
   levels: SyntheticLevel[];
   /** The true tissue: the main piece (with its glass hole) and the pale piece, level-0 px. */
   tissue: MultiPolygonPx;

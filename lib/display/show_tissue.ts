@@ -5,9 +5,11 @@
  */
 
 import { encode } from "fast-png";
+import { roundTo } from "../numbers.ts";
 import type { SlideImage } from "../annotations/read_slide_file.ts";
 import type { TissueDetection } from "../tissue/detect_tissue.ts";
-import { OKABE_ITO, type PlotFigure, plotText } from "../report/plots.ts";
+import { OKABE_ITO, type PlotFigure } from "../report/plot_style.ts";
+import { plotText } from "../report/plot_labels.ts";
 import {
   type Displayable,
   JUPYTER_DISPLAY,
@@ -89,7 +91,7 @@ export function tissueFigure(image: SlideImage, detection: TissueDetection): Plo
     caption: `${s.id}: ${detection.polygons.length} tissue piece${
       detection.polygons.length === 1 ? "" : "s"
     }, ${
-      Math.round(detection.areaMm2 * 1000) / 1000
+      roundTo(detection.areaMm2, 3)
     } mm², found automatically; check the outline before counting on it`,
   };
 }

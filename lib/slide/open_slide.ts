@@ -22,7 +22,9 @@ export interface SlideLevel {
 
 /** Micrometres per level-0 pixel and where they were read. */
 export interface SlideMpp {
+  /** Micrometres per level-0 pixel along x. */
   mppX: number;
+  /** Micrometres per level-0 pixel along y. */
   mppY: number;
   /** The properties they came from, e.g. `openslide.mpp-x, openslide.mpp-y`. */
   from: string;

@@ -6,6 +6,7 @@
 
 import type { MultiPolygonPx, RgbImage } from "../types.ts";
 import { px2ToMm2 } from "../units.ts";
+import { roundTo } from "../numbers.ts";
 import { multiPolygonAreaPx2 } from "../geometry/planar_area.ts";
 import { type Mask, maskToPolygons } from "./read_mask.ts";
 import { otsuThreshold } from "./otsu_threshold.ts";
@@ -176,10 +177,10 @@ export function detectTissue(image: RgbImage, options: DetectTissueOptions): Tis
     step: "threshold",
     method: "Otsu 1979 on the log10 histogram of the channel",
     bins: BINS,
-    range_od: [round(Math.pow(10, LOG_LO), 6), round(Math.pow(10, LOG_HI), 6)],
-    otsu_od: round(otsuOd, 5),
+    range_od: [roundTo(Math.pow(10, LOG_LO), 6), roundTo(Math.pow(10, LOG_HI), 6)],
+    otsu_od: roundTo(otsuOd, 5),
     floor_od: floorOd,
-    used_od: round(usedOd, 5),
+    used_od: roundTo(usedOd, 5),
   });
 
   // 4. pen marks
@@ -199,7 +200,7 @@ export function detectTissue(image: RgbImage, options: DetectTissueOptions): Tis
     for (let k = 0; k < n; k++) if (wide[k]) mask[k] = 0;
     warnings.push(
       `Likely pen marks (strongly saturated blue, green or black) covering ${
-        round(penAreaMm2, 3)
+        roundTo(penAreaMm2, 3)
       } mm² were excluded from the tissue of ${source}`,
     );
   }
@@ -211,7 +212,7 @@ export function detectTissue(image: RgbImage, options: DetectTissueOptions): Tis
     black_od: penBlackOd,
     min_piece_mm2: minPieceMm2,
     margin_um: penMarginUm,
-    excluded_mm2: round(penAreaMm2, 6),
+    excluded_mm2: roundTo(penAreaMm2, 6),
   });
 
   // 5. closing, then opening
@@ -277,7 +278,7 @@ export function detectTissue(image: RgbImage, options: DetectTissueOptions): Tis
   const traced = maskToPolygons(finalMask, { scaleX: 1, scaleY: 1 });
   const simple = simplifyPolygons(traced, simplifyToleranceUm, mppX, mppY);
   const polygons: MultiPolygonPx = simple.polygons.map((p) =>
-    p.map((r) => r.map(([x, y]) => [round(x * scaleX, 2), round(y * scaleY, 2)]))
+    p.map((r) => r.map(([x, y]) => [roundTo(x * scaleX, 2), roundTo(y * scaleY, 2)]))
   );
   steps.push({
     step: "contours",
@@ -297,7 +298,7 @@ export function detectTissue(image: RgbImage, options: DetectTissueOptions): Tis
   if (tissuePx === 0) {
     warnings.push(
       `No tissue was found on ${source}: nothing stained stood out from the glass (stain OD threshold ${
-        round(usedOd, 4)
+        roundTo(usedOd, 4)
       })`,
     );
   } else {
@@ -317,16 +318,11 @@ export function detectTissue(image: RgbImage, options: DetectTissueOptions): Tis
   const method: Record<string, unknown> = {
     name: TISSUE_METHOD,
     version: TISSUE_METHOD_VERSION,
-    image: { width: W, height: H, mpp: [round(mppX, 6), round(mppY, 6)] },
+    image: { width: W, height: H, mpp: [roundTo(mppX, 6), roundTo(mppY, 6)] },
     steps,
-    tissue_mm2: round(areaMm2, 6),
-    mask_mm2: round(maskMm2, 6),
-    tissue_share: round(share, 6),
+    tissue_mm2: roundTo(areaMm2, 6),
+    mask_mm2: roundTo(maskMm2, 6),
+    tissue_share: roundTo(share, 6),
   };
   return { polygons, mask: finalMask, areaMm2, share, method, warnings };
-}
-
-function round(v: number, digits: number): number {
-  const f = 10 ** digits;
-  return Math.round(v * f) / f;
 }

@@ -11,7 +11,7 @@ import {
 } from "../../lib/demo/slide_demo.ts";
 import { inAny } from "../../lib/demo/_shapes.ts";
 import { loadCase } from "../../lib/annotations/read_case.ts";
-import { buildCaseResult } from "../../lib/count/build_case_result.ts";
+import { buildCaseResult } from "../../lib/pipeline/build_case_result.ts";
 import { needsOpenSlide, tempDir } from "../slide/_fixture.ts";
 import { DEMO_SEED } from "../../lib/demo/demo_cohort.ts";
 
