@@ -84,7 +84,7 @@ const pair = (v: number | [number, number]): [number, number] =>
 /**
  * The stem of a file name: without folders and without its last extension.
  *
- * @example
+ * @example The stem of a slide path
  * ```ts
  * import { slideIdFromPath } from "hotfield";
  * if (slideIdFromPath("/slides/QVT-24-009.tiff") !== "QVT-24-009") throw new Error();
@@ -103,6 +103,22 @@ export function slideIdFromPath(path: string): string {
  * @param path The file.
  * @returns `thumbnail` or `slide`.
  * @throws {Error} When the file cannot be read (names it).
+ *
+ * @example A PNG is a thumbnail, anything else a slide (needs write permission)
+ * ```ts
+ * import { slideFileKind } from "hotfield";
+ * import { encode } from "fast-png";
+ * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
+ *   const png = Deno.makeTempFileSync({ suffix: ".png" });
+ *   Deno.writeFileSync(png, encode({ width: 1, height: 1, data: new Uint8Array(3), channels: 3, depth: 8 }));
+ *   const tif = Deno.makeTempFileSync({ suffix: ".tiff" });
+ *   Deno.writeFileSync(tif, new Uint8Array([0x49, 0x49, 42, 0]));
+ *   const kinds = [slideFileKind(png), slideFileKind(tif)];
+ *   Deno.removeSync(png);
+ *   Deno.removeSync(tif);
+ *   if (kinds.join() !== "thumbnail,slide") throw new Error(kinds.join());
+ * }
+ * ```
  */
 export function slideFileKind(path: string): "slide" | "thumbnail" {
   let fd: number;
@@ -415,7 +431,7 @@ export function detectSlideTissue(
  * @param detection The detection.
  * @returns The FeatureCollection as a plain object.
  *
- * @example
+ * @example One square piece becomes a Polygon feature
  * ```ts
  * import { type SlideImage, tissueFeatureCollection, type TissueDetection } from "hotfield";
  * const sq: [number, number][] = [[0, 0], [10, 0], [10, 10], [0, 10], [0, 0]];

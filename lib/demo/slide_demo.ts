@@ -79,7 +79,7 @@ export function writeSlideDemoCase(dir: string, seed: number = DEMO_SEED): Slide
  * @param seed The seed.
  * @returns RFC 4180 CSV text with a header line.
  *
- * @example
+ * @example The CSV header
  * ```ts
  * import { generateSyntheticSlide } from "hotfield";
  * import { slideDemoFiguresCsv } from "hotfield";

@@ -104,7 +104,7 @@ export function tissueFigure(image: SlideImage, detection: TissueDetection): Plo
  * @param options How plotly.js reaches the HTML fallback.
  * @returns A displayable object.
  *
- * @example
+ * @example A bundle with an HTML fallback
  * ```ts
  * import { JUPYTER_DISPLAY, showTissue, type SlideImage, type TissueDetection } from "hotfield";
  * const image = { path: "x.png", scaleX: 1, scaleY: 1,

@@ -19,7 +19,7 @@ export type ImageFormat = "png" | "jpeg";
  * @param bytes At least the first 8 bytes of the file.
  * @returns The format, or null for anything else.
  *
- * @example
+ * @example A PNG signature, and a TIFF header that is neither
  * ```ts
  * import { sniffImageFormat } from "hotfield";
  * const png = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);

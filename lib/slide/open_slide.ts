@@ -69,7 +69,7 @@ const WHAT = "slide";
  *
  * @returns true, or the reason it cannot (with what to do).
  *
- * @example
+ * @example Either true or the reason
  * ```ts
  * import { isOpenSlideAvailable } from "hotfield";
  * const ok = isOpenSlideAvailable();
