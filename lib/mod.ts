@@ -284,6 +284,7 @@ export {
   sniffImageFormat,
 } from "./slide/decode_image.ts";
 export { otsuThreshold } from "./tissue/otsu_threshold.ts";
+export type { Mask } from "./tissue/read_mask.ts";
 export {
   detectTissue,
   type DetectTissueOptions,
