@@ -35,6 +35,10 @@ const COMMANDS: Record<string, { summary: string; load: () => Promise<CommandMod
     summary: "rebuild index.html, cases.csv and fields.csv from every case folder in DIR",
     load: () => import("./cli/cohort_command.ts"),
   },
+  tissue: {
+    summary: "find the tissue on a slide file or thumbnail; writes it as GeoJSON",
+    load: () => import("./cli/tissue_command.ts"),
+  },
   fov: {
     summary: "microscope field of view: diameter, area, fields for a target area",
     load: () => import("./cli/fov_command.ts"),

@@ -52,8 +52,10 @@ export type {
   MultiPolygonPx,
   PolygonPx,
   RegionPart,
+  RgbImage,
   Ring,
   SlideInfo,
+  TissueSource,
   Vec2,
 } from "./types.ts";
 export {
@@ -283,3 +285,56 @@ export {
 } from "./report/readers_page.ts";
 export { readerPercentileFigure, readerTimeFigure } from "./report/reader_plots.ts";
 export { showReaderFields } from "./display/show_readers.ts";
+
+// Slide files and tissue detection (slide area): OpenSlide reading, PNG/JPEG
+// thumbnails, tissue found on a low-resolution image, its GeoJSON and display,
+// and the generated slides of tests and demo.
+export {
+  isOpenSlideAvailable,
+  mppFromProperties,
+  openSlide,
+  type SlideFile,
+  type SlideLevel,
+  type SlideMpp,
+} from "./slide/open_slide.ts";
+export { type Overview, readOverview, type ReadOverviewOptions } from "./slide/read_overview.ts";
+export {
+  decodeRgbImage,
+  type DecodeRgbImageOptions,
+  type ImageFormat,
+  sniffImageFormat,
+} from "./slide/decode_image.ts";
+export { otsuThreshold } from "./tissue/otsu_threshold.ts";
+export type { Mask } from "./tissue/read_mask.ts";
+export {
+  detectTissue,
+  type DetectTissueOptions,
+  TISSUE_METHOD,
+  TISSUE_METHOD_VERSION,
+  type TissueDetection,
+} from "./tissue/detect_tissue.ts";
+export {
+  detectSlideTissue,
+  readSlideImage,
+  type ReadSlideImageOptions,
+  type SlideFileFacts,
+  slideFileKind,
+  slideIdFromPath,
+  type SlideImage,
+  tissueFeatureCollection,
+} from "./annotations/read_slide_file.ts";
+export { sha256File } from "./io/hash_file.ts";
+export { showTissue, tissueFigure } from "./display/show_tissue.ts";
+export {
+  generateSyntheticSlide,
+  type SyntheticLevel,
+  type SyntheticSlide,
+  type SyntheticSlideOptions,
+  writeSyntheticSlide,
+} from "./demo/synthetic_slide.ts";
+export {
+  SLIDE_DEMO_ID,
+  type SlideDemoCase,
+  slideDemoFiguresCsv,
+  writeSlideDemoCase,
+} from "./demo/slide_demo.ts";

@@ -117,7 +117,7 @@ export interface FieldSpec {
 /** An input file of a case, for provenance in reports. */
 export interface CaseSource {
   /** What the file provided. */
-  kind: "annotations" | "figures" | "tissue-mask" | "case";
+  kind: "annotations" | "figures" | "tissue-mask" | "case" | "slide";
   /** Path as given (relative paths resolved against the working directory or case file). */
   path: string;
   /** Hex sha256 of the file bytes. */
@@ -174,4 +174,28 @@ export interface CaseData {
   countProblems?: string[];
   /** Report settings named by the case file, if any. */
   settings?: CaseSettings;
+  /** Where the tissue came from when it was detected in a slide file (absent otherwise). */
+  tissueSource?: TissueSource;
+}
+
+/** Tissue detected in a slide file, for the report's record of where it came from. */
+export interface TissueSource {
+  /** The slide file (or thumbnail) as given. */
+  slide: string;
+  /** Each step of the detection with its parameters, as `detectTissue` records it. */
+  method: Record<string, unknown>;
+}
+
+/**
+ * An 8-bit RGB image, row-major, 3 bytes per pixel: `data[3·(y·width + x) + c]`
+ * for channel c = 0 (red), 1 (green), 2 (blue). Transparent pixels are
+ * composited over white when an image is read.
+ */
+export interface RgbImage {
+  /** Width in pixels. */
+  width: number;
+  /** Height in pixels. */
+  height: number;
+  /** 3·width·height bytes: R, G, B of each pixel, rows top to bottom. */
+  data: Uint8Array;
 }

@@ -33,6 +33,8 @@ import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
 import { polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
 import { mergeSlideMembers, parseSlideInfo, type SlideMember } from "./slide_info.ts";
+import { withSlideFileFacts } from "./_slide_facts.ts";
+import type { SlideFileFacts } from "./read_slide_file.ts";
 
 /** The roles a feature may have, in the order of the table above. */
 export const ANNOTATION_ROLES = ["tissue", "tumour", "exclude", "figure", "field"] as const;
@@ -73,6 +75,12 @@ export interface ParseAnnotationsOptions {
    * @default "The case file" for every field
    */
   slideLabels?: Partial<Record<keyof SlideMember, string>>;
+  /**
+   * A slide file's own facts: they fill the slide member's missing fields,
+   * and a value that disagrees with them is an error naming both.
+   * @default undefined
+   */
+  slideFile?: SlideFileFacts;
 }
 
 const WHAT = "annotations";
@@ -190,7 +198,10 @@ export function parseAnnotations(
   }
   const merged = mergeSlideMembers(fc.slide, options.slide, options.slideLabels);
   warnings.push(...merged.warnings);
-  const slide = parseSlideInfo(merged.member, { what: WHAT, fileName: file });
+  const member = options.slideFile === undefined
+    ? merged.member
+    : withSlideFileFacts(merged.member, options.slideFile, WHAT, file);
+  const slide = parseSlideInfo(member, { what: WHAT, fileName: file });
 
   const tissue: RegionPart[] = [];
   const tumour: RegionPart[] = [];

@@ -14,6 +14,7 @@
  *   "slide": { "id": "QVT-24-003", "mpp": 0.25, "width": 80000, "height": 60000 },
  *   "scheme": "canine-mct-2tier",
  *   "min_score": 0.5,
+ *   "slide_file": "QVT-24-003.tiff",
  *   "notes": "free text, ignored"
  * }
  * ```
@@ -33,6 +34,8 @@
  *   `shape` (`"rect"` or `"circle"`), `stride_um` and `min_coverage`. They win
  *   over the command line's options for this case (a warning says when they
  *   differ from an option given there).
+ * - `slide_file` names the slide itself (any format OpenSlide reads, or a
+ *   PNG/JPEG thumbnail), see "The slide file" below.
  * - Unknown members are an error, so that a misspelt name is not ignored.
  *
  * ## How inputs combine
@@ -50,6 +53,16 @@
  *   when read as µm instead of px or the reverse), the case carries a count
  *   problem (left unclassified) unless the unit was stated explicitly; then it
  *   is a warning.
+ *
+ * ## The slide file
+ *
+ * A slide file (`--slide`, or `slide_file` in a case file) supplies the
+ * level-0 mpp, width and height: missing `slide` values are taken from it,
+ * and a value that disagrees with it is an error naming both. With no
+ * annotation file at all its stem is the slide id. When no tissue outline
+ * or mask is given, the tissue is found on the slide (`detectTissue`) and
+ * the case records how (`tissueSource`). A PNG/JPEG thumbnail works too when
+ * the `slide` member gives the level-0 size and mpp; its aspect must match.
  *
  * @module
  */
@@ -77,6 +90,15 @@ import { safeCaseId } from "./case_id.ts";
 import { parseAnnotations } from "./read_annotations.ts";
 import { parseFiguresCsv } from "./read_figures_csv.ts";
 import { parseSlideInfo, type SlideMember } from "./slide_info.ts";
+import { sha256File } from "../io/hash_file.ts";
+import { withSlideFileFacts } from "./_slide_facts.ts";
+import {
+  detectSlideTissue,
+  readSlideImage,
+  type SlideFileFacts,
+  slideFileKind,
+  type SlideImage,
+} from "./read_slide_file.ts";
 
 /** The files and settings of one case, before reading. */
 export interface CaseInput {
@@ -113,6 +135,8 @@ export interface CaseInput {
    * `sources` and named in messages as given. @default the working directory
    */
   baseDir?: string;
+  /** The slide file (or a PNG/JPEG thumbnail): mpp and size, and the tissue when none is given. */
+  slidePath?: string;
 }
 
 /** The version of the case-file format this code reads. */
@@ -135,6 +159,7 @@ const CASE_KEYS = [
   "figures",
   "tissue_mask",
   "slide",
+  "slide_file",
   "notes",
   ...SETTING_KEYS,
 ];
@@ -352,14 +377,18 @@ export function parseCaseFile(text: string, path: string): CaseInput {
     }
     input.slide = c.slide as SlideMember;
   }
+  if (c.slide_file !== undefined) input.slidePath = needPath(c.slide_file, "slide_file");
   const settings = parseSettings(c, (detail) => inputError(TypeError, what, path, detail));
   if (Object.keys(settings).length > 0) input.settings = settings;
-  if (input.annotationsPath === undefined && input.slide === undefined) {
+  if (
+    input.annotationsPath === undefined && input.slide === undefined &&
+    input.slidePath === undefined
+  ) {
     throw inputError(
       TypeError,
       what,
       path,
-      `names no "annotations" file and no "slide"; give at least an annotation GeoJSON, or a "slide" with its mpp plus a tissue mask`,
+      `names no "annotations" file, no "slide" and no "slide_file"; give at least an annotation GeoJSON, a "slide_file", or a "slide" with its mpp plus a tissue mask`,
     );
   }
   return input;
@@ -462,8 +491,8 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
   const record = (kind: CaseSource["kind"], path: string, bytes: Uint8Array) =>
     sources.push({ kind, path, sha256: createHash("sha256").update(bytes).digest("hex") });
   const base = input.baseDir;
-  const read = (path: string, what: string) =>
-    readBytes(path, what, base !== undefined && !isAbsolute(path) ? join(base, path) : path);
+  const at = (path: string) => base !== undefined && !isAbsolute(path) ? join(base, path) : path;
+  const read = (path: string, what: string) => readBytes(path, what, at(path));
 
   if (input.caseFilePath !== undefined) {
     record("case", input.caseFilePath, await read(input.caseFilePath, "case file"));
@@ -491,7 +520,24 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
   let exclude: RegionPart[] = [];
   let figures = emptyFigureSet();
   let fields: CaseData["fields"] = [];
-  const mainFile = input.annotationsPath ?? input.caseFilePath;
+  let tissueSource: CaseData["tissueSource"];
+  const mainFile = input.annotationsPath ?? input.caseFilePath ?? input.slidePath;
+
+  // a slide file says its own mpp and size, which the annotations must agree with
+  let slideImage: SlideImage | undefined;
+  let slideFacts: SlideFileFacts | undefined;
+  if (input.slidePath !== undefined && slideFileKind(at(input.slidePath)) === "slide") {
+    const path = at(input.slidePath);
+    slideImage = await readSlideImage(path);
+    const s = slideImage.slide;
+    slideFacts = {
+      member: { id: s.id, mpp: [s.mppX, s.mppY], width: s.widthPx, height: s.heightPx },
+      path,
+      mppFrom: slideImage.mppFrom,
+    };
+    sources.push({ kind: "slide", path, sha256: sha256File(path) });
+    warnings.push(...slideImage.warnings);
+  }
 
   if (input.annotationsPath !== undefined) {
     const path = input.annotationsPath;
@@ -501,16 +547,55 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
       fileName: path,
       slide: slideOverride,
       slideLabels,
+      slideFile: slideFacts,
     });
     ({ slide, tissue, tumour, exclude, figures, fields } = parsed);
     warnings.push(...parsed.warnings);
   } else if (slideOverride !== undefined) {
-    slide = parseSlideInfo(slideOverride, {
-      what: "case file",
-      fileName: input.caseFilePath ?? "(options)",
-    });
+    const fileName = input.caseFilePath ?? "(options)";
+    slide = parseSlideInfo(
+      slideFacts === undefined
+        ? slideOverride
+        : withSlideFileFacts(slideOverride, slideFacts, "case file", fileName),
+      { what: "case file", fileName },
+    );
+  } else if (slideFacts !== undefined) {
+    slide = parseSlideInfo(slideFacts.member, { what: "slide", fileName: slideFacts.path });
   } else {
     throw new TypeError("Cannot read case: no annotation file and no slide information given");
+  }
+
+  if (input.slidePath !== undefined && slideImage === undefined) {
+    // a thumbnail: placed by the slide's level-0 size and mpp from the annotations
+    const path = at(input.slidePath);
+    if (slide.widthPx === undefined || slide.heightPx === undefined) {
+      throw inputError(
+        TypeError,
+        "slide",
+        path,
+        `it is a thumbnail image, and the slide's level-0 width and height are not known to place it; give them in the "slide" member, or make a tissue outline first with hotfield tissue ${path} --mpp N --slide-mpp N`,
+      );
+    }
+    slideImage = await readSlideImage(path, { slide });
+    sources.push({ kind: "slide", path, sha256: sha256File(path) });
+    warnings.push(...slideImage.warnings);
+  }
+
+  // found on the slide when no outline or mask gives the tissue; before the
+  // figures, so their unit check sees the tissue too
+  if (slideImage !== undefined && tissue.length === 0 && input.tissueMaskPath === undefined) {
+    const detection = detectSlideTissue(slideImage);
+    warnings.push(...detection.warnings);
+    if (detection.polygons.length === 0) {
+      throw inputError(
+        TypeError,
+        "slide",
+        slideImage.path,
+        "no tissue was found on it and no tissue outline was given, so there is nothing to count; give a tissue outline or mask",
+      );
+    }
+    tissue = [{ polygons: detection.polygons, source: `${slideImage.path} (detected tissue)` }];
+    tissueSource = { slide: slideImage.path, method: detection.method };
   }
 
   if (input.figuresPath !== undefined) {
@@ -627,6 +712,7 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
   };
   if (countProblems.length > 0) out.countProblems = countProblems;
   if (input.settings !== undefined) out.settings = { ...input.settings };
+  if (tissueSource !== undefined) out.tissueSource = tissueSource;
   return out;
 }
 

@@ -19,6 +19,7 @@ export const FILE_OPTIONS: OptionSpec = {
   "mask-mpp": { type: "string" },
   mpp: { type: "string" },
   id: { type: "string" },
+  slide: { type: "string" },
 };
 
 /** The options of what is counted (node:util parseArgs spec). */
@@ -45,6 +46,8 @@ export const CASE_OPTIONS_HELP = [
   "  --mpp N | N,M          micrometres per level-0 slide pixel, replacing the slide's (a warning says so)",
   COUNT_OPTIONS_HELP,
   "  --id ID                case id (default: slide id, case-file id, or file stem)",
+  "  --slide FILE           the slide file (or PNG/JPEG thumbnail): mpp and size, and the tissue",
+  "                         when no outline is given (a slide file needs the OpenSlide library)",
 ].join("\n");
 
 type Values = Record<string, string | boolean | string[] | undefined>;
@@ -61,7 +64,9 @@ const MAX_CASE_FILE_BYTES = 1 << 20;
  * GeoJSON. Options override what a case file says. A file that cannot be
  * read is left for `loadCase` to report.
  *
- * @param file The command's FILE argument.
+ * With no `file` (only `--slide`), the case is the slide file alone.
+ *
+ * @param file The command's FILE argument, if any.
  * @param values Parsed option values.
  * @returns The case input.
  * @throws {UsageError} For a bad `--units`, `--mask-mpp` or `--mpp`, or
@@ -76,10 +81,15 @@ const MAX_CASE_FILE_BYTES = 1 << 20;
  * }
  * ```
  */
-export async function caseInputFromOptions(file: string, values: Values): Promise<CaseInput> {
-  let input: CaseInput = { annotationsPath: file };
-  const text = await smallText(file);
-  if (text !== undefined && looksLikeCaseFile(text)) input = parseCaseFile(text, file);
+export async function caseInputFromOptions(
+  file: string | undefined,
+  values: Values,
+): Promise<CaseInput> {
+  let input: CaseInput = file === undefined ? {} : { annotationsPath: file };
+  const text = file === undefined ? undefined : await smallText(file);
+  if (file !== undefined && text !== undefined && looksLikeCaseFile(text)) {
+    input = parseCaseFile(text, file);
+  }
 
   const str = (name: string): string | undefined => {
     const v = values[name];
@@ -124,6 +134,11 @@ export async function caseInputFromOptions(file: string, values: Values): Promis
   if (mpp !== undefined) input.mpp = parseMpp(mpp);
   const id = str("id");
   if (id !== undefined) input.idOverride = id;
+  const slide = str("slide");
+  if (slide !== undefined) input.slidePath = slide;
+  if (input.annotationsPath === undefined && input.slidePath === undefined && !input.slide) {
+    throw new UsageError("Give a FILE (an annotation GeoJSON or a case file) or --slide FILE");
+  }
   return input;
 }
 

@@ -57,7 +57,7 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     io.stdout(HELP);
     return 0;
   }
-  if (positionals.length !== 1) {
+  if (positionals.length !== 1 && !(positionals.length === 0 && values.slide !== undefined)) {
     throw new UsageError(
       positionals.length === 0
         ? "Give one FILE (an annotation GeoJSON or a case file); see hotfield inspect --help"

@@ -34,6 +34,7 @@ import type { CommandIo } from "./_io.ts";
 export { reportOptionsFromValues } from "./_report_args.ts";
 
 const HELP = `Usage: hotfield report FILE [FILE...] --out DIR [options]
+       hotfield report --slide SLIDE --figures F.csv --out DIR [options]
 
 For each case (an annotation GeoJSON, a case file, or a folder of them): the
 count of figures in a standard-area window at every grid position, the exact
@@ -42,6 +43,8 @@ reader's field checked against it, and optionally a grading scheme's
 classification. Writes DIR/<case>/report.json, hotspot.geojson and
 report.html, then DIR/index.html, cases.csv and fields.csv listing every case
 folder in DIR (earlier runs included).
+With --slide and no FILE, the case is the slide alone: its mpp, its size and
+the tissue found on it (recorded in report.json's tissue_source).
 hotfield supports, never replaces, a pathologist's diagnosis.
 
 A folder stands for its cases: every *.case.json, and every *.geojson that no
@@ -98,9 +101,14 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
     io.stdout(HELP);
     return 0;
   }
-  if (positionals.length === 0) {
+  if (positionals.length === 0 && values.slide === undefined) {
     throw new UsageError(
-      "Give at least one FILE (an annotation GeoJSON or a case file); see hotfield report --help",
+      "Give at least one FILE (an annotation GeoJSON or a case file), or --slide FILE; see hotfield report --help",
+    );
+  }
+  if (positionals.length > 1 && values.slide !== undefined) {
+    throw new UsageError(
+      `Option --slide names the slide of one case: give one FILE with it, not ${positionals.length}`,
     );
   }
   const out = values.out;
@@ -114,6 +122,13 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
   // The cases: folders stand for their cases; files a case file names are not cases.
   const named: { file: string; input: CaseInput | null; problem?: string }[] = [];
   const fromFolders: BatchCase[] = [];
+  if (positionals.length === 0) {
+    // --slide alone: the slide is the case.
+    named.push({
+      file: String(values.slide),
+      input: await caseInputFromOptions(undefined, values),
+    });
+  }
   for (const file of positionals) {
     if (isFolder(file)) {
       const perFile = Object.keys(FILE_OPTIONS).filter((k) => values[k] !== undefined);

@@ -25,6 +25,8 @@ import type { CaseResult } from "../pipeline/case_result.ts";
 import { writeOutputs } from "../report/write_outputs.ts";
 import { demoSchemes } from "./demo_recipes.ts";
 import { DEFAULT_SEED, DEFAULT_SIMULATIONS } from "../defaults.ts";
+import { writeSlideDemoCase } from "./slide_demo.ts";
+import { isOpenSlideAvailable } from "../slide/open_slide.ts";
 
 /**
  * Lists the cases of a demo folder with the library's folder logic
@@ -63,6 +65,12 @@ export interface RunDemoOptions {
   simulations?: number;
   /** Where the summary lines go. @default console.log */
   print?: (line: string) => void;
+  /**
+   * Folder to write the slide demo case into (QVT-24-009: a generated slide
+   * file and a figures CSV only, see `slide_demo.ts`); the case is added when
+   * this is given and the OpenSlide library can be used. @default undefined
+   */
+  slideDir?: string;
 }
 
 /**
@@ -131,7 +139,13 @@ export async function runDemo(
   const print = options.print ?? ((line: string) => console.log(line));
   const schemes = demoSchemes();
   const results: CaseResult[] = [];
-  for (const input of await demoCaseInputs(dataDir)) {
+  const inputs = await demoCaseInputs(dataDir);
+  if (options.slideDir !== undefined) {
+    const why = isOpenSlideAvailable();
+    if (why === true) inputs.push(writeSlideDemoCase(options.slideDir).input);
+    else print(`QVT-24-009  skipped (the case read from a slide file): ${why}`);
+  }
+  for (const input of inputs) {
     const caseData = await loadCase(input);
     const result = buildCaseResult(caseData, {
       scheme: schemes.get(caseData.caseId) ?? "canine-mct-2tier",
@@ -152,7 +166,11 @@ if (import.meta.main) {
     options: { data: { type: "string" }, out: { type: "string" } },
   });
   try {
-    const { open } = await runDemo({ dataDir: values.data, outDir: values.out });
+    const { open } = await runDemo({
+      dataDir: values.data,
+      outDir: values.out,
+      slideDir: join("out", "demo-slide"),
+    });
     const rel = relative(Deno.cwd(), resolve(open)) || ".";
     console.log(`\nReports written. Open ${rel}`);
   } catch (e) {

@@ -444,6 +444,8 @@ export function finishCaseResult(parts: CaseResultParts, best: BestFieldSet | nu
     warnings,
     hotfield_version: HOTFIELD_VERSION,
     inputs: caseData.sources.map((s) => ({ kind: s.kind, path: s.path, sha256: s.sha256 })),
+    // tissue found on the slide file: which file, and every step of the method
+    ...(caseData.tissueSource ? { tissue_source: caseData.tissueSource } : {}),
     mpp: [mppX, mppY],
     areas_mm2: {
       tissue: roundTo(prepared.areasMm2.tissue, 6),

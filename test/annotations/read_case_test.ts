@@ -144,7 +144,7 @@ Deno.test("parseCaseFile() rejects unknown members, a missing version and a mask
     {
       name: "TypeError",
       message:
-        /^Cannot read case file "x\.case\.json": unknown member "tissue-mask"; known members: hotfield_case, id, annotations, figures, tissue_mask, slide, notes, scheme, min_score, count_labels, area_mm2, shape, stride_um, min_coverage$/,
+        /^Cannot read case file "x\.case\.json": unknown member "tissue-mask"; known members: hotfield_case, id, annotations, figures, tissue_mask, slide, slide_file, notes, scheme, min_score, count_labels, area_mm2, shape, stride_um, min_coverage$/,
     },
   );
   assert.throws(() => parseCaseFile('{"annotations": "a.geojson"}', "x.case.json"), {
@@ -176,7 +176,7 @@ Deno.test("parseCaseFile() rejects unknown members, a missing version and a mask
   );
   assert.throws(() => parseCaseFile('{"hotfield_case": 1, "id": "x"}', "x.case.json"), {
     name: "TypeError",
-    message: /names no "annotations" file and no "slide"/,
+    message: /names no "annotations" file, no "slide" and no "slide_file"/,
   });
 });
 

@@ -90,6 +90,7 @@ Deno.test("notebooks are stored without outputs, on the hotfield kernel (nbforma
     "01-explore-a-case.ipynb",
     "02-cohort-report.ipynb",
     "03-check-my-field.ipynb",
+    "05-tissue-from-a-slide.ipynb",
   ]);
   for (const name of files) {
     const nb = JSON.parse(readFileSync(join(NOTEBOOKS, name), "utf8")) as Notebook;
@@ -119,6 +120,11 @@ const EXPECT: Record<string, RegExp[]> = {
     /^grade: 8 in 10 fields \(2\.3758 mm²\) is above the cut-off ≥ 7, tier high/m,
     /^your field: \d+ figures? in 10 fields/m,
     /^trainee-1: \d+ fields in \d+ cases/m,
+  ],
+  "05-tissue-from-a-slide.ipynb": [
+    /^slide QVT-24-009: 4000 × 3000 px at 2 µm\/px \(from tiff\.XResolution/m,
+    /^tissue: [\d.]+ mm² in 2 pieces/m,
+    /^hotspot: \d+ figures in 2\.37 mm²/m,
   ],
 };
 
