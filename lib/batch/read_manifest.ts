@@ -14,6 +14,7 @@
  * | `tissue_mask`   | PNG tissue mask (non-zero = tissue), needs `mask_mpp`                |
  * | `mask_mpp`      | micrometres per mask pixel: `N`, or `"N,M"` for x and y              |
  * | `mpp`           | micrometres per level-0 slide pixel, replacing the slide's: `N`, `"N,M"` |
+ * | `slide`         | slide file (or PNG/JPEG thumbnail): mpp, size, and the tissue when no outline is given |
  * | `scheme`        | grading scheme of this case, overriding `--scheme`                   |
  * | `min_score`     | least figure score counted, 0 to 1, overriding `--min-score`         |
  *
@@ -53,6 +54,7 @@ export const MANIFEST_COLUMNS = [
   "mpp",
   "scheme",
   "min_score",
+  "slide",
 ] as const;
 
 /** A manifest column name. */
@@ -335,6 +337,7 @@ export async function readManifest(path: string, options: ReportOptions): Promis
     if (cells.mpp !== undefined) {
       input.mpp = parseMpp(cells.mpp)!;
     }
+    if (cells.slide !== undefined) input.slidePath = cells.slide;
     if (cells.id !== undefined) input.idOverride = cells.id;
     cases.push({ index, label, input, options: caseOptions, shardKey });
   }

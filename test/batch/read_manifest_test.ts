@@ -31,9 +31,21 @@ Deno.test("parseManifest() names the unknown column and the closest known one", 
     problem("annotations,sheme\na.geojson,gist\n"),
     'Cannot read manifest "cases.csv": row 1, column 2: unknown column "sheme"; did you mean ' +
       '"scheme"? Known columns: annotations, case_file, id, figures, figures_units, tissue_mask, ' +
-      "mask_mpp, mpp, scheme, min_score",
+      "mask_mpp, mpp, scheme, min_score, slide",
   );
   assert.match(problem("Annotation\na.geojson\n"), /did you mean "annotations"\?/);
+});
+
+Deno.test("readManifest() passes a row's slide file to the case, relative to the manifest", async () => {
+  const dir = Deno.makeTempDirSync();
+  try {
+    writeFileSync(join(dir, "m.csv"), "annotations,slide\na.geojson,slides/a.tiff\n");
+    const cases = await readManifest(join(dir, "m.csv"), {});
+    assert.equal(cases[0].input?.slidePath, "slides/a.tiff");
+    assert.equal(cases[0].input?.baseDir, dir);
+  } finally {
+    Deno.removeSync(dir, { recursive: true });
+  }
 });
 
 Deno.test("parseManifest() wants exactly one of annotations and case_file per row", () => {
