@@ -9,3 +9,5 @@ export * from "./comparison_types.ts";
 export * from "./match_figures.ts";
 export * from "./detection_scores.ts";
 export * from "./compare_case.ts";
+export * from "./read_candidates.ts";
+export * from "./compare_cohort.ts";
