@@ -118,7 +118,11 @@ export function compareOptionsFromValues(values: Values): CompareOptions {
   const radiusUm = numberOption(
     values,
     "radius-um",
-    (v) => (v > 0 && v <= MAX_MATCH_RADIUS_UM ? undefined : `must lie in (0, ${MAX_MATCH_RADIUS_UM}] µm`),
+    (
+      v,
+    ) => (v > 0 && v <= MAX_MATCH_RADIUS_UM
+      ? undefined
+      : `must lie in (0, ${MAX_MATCH_RADIUS_UM}] µm`),
   );
   const match = values.match;
   if (match !== undefined && match !== "optimal" && match !== "greedy") {
@@ -153,7 +157,8 @@ function candidateUnits(values: Values): "px" | "um" | undefined {
 function pageTime(): string {
   let epoch: string | undefined;
   try {
-    const ok = Deno.permissions.querySync({ name: "env", variable: "SOURCE_DATE_EPOCH" }).state === "granted";
+    const ok = Deno.permissions.querySync({ name: "env", variable: "SOURCE_DATE_EPOCH" }).state ===
+      "granted";
     epoch = ok ? Deno.env.get("SOURCE_DATE_EPOCH") : undefined;
   } catch {
     epoch = undefined;

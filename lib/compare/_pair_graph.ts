@@ -34,9 +34,7 @@ export function rankCandidates(points: PointsUm, score: Float64Array): Int32Arra
   for (let i = 0; i < n; i++) order[i] = i;
   const { xUm, yUm } = points;
   const key = (i: number) => (Number.isNaN(score[i]) ? Infinity : score[i]);
-  return order.sort((a, b) =>
-    key(b) - key(a) || yUm[a] - yUm[b] || xUm[a] - xUm[b] || a - b
-  );
+  return order.sort((a, b) => key(b) - key(a) || yUm[a] - yUm[b] || xUm[a] - xUm[b] || a - b);
 }
 
 /** Rank of each reference point: y, then x ascending, then input order. */

@@ -179,7 +179,11 @@ export function compareCase(
   const countLabels = options.countLabels && options.countLabels.length > 0
     ? [...options.countLabels]
     : ["mitotic figure"];
-  const window = makeWindow({ areaMm2: options.areaMm2, shape: options.shape, aspect: options.aspect });
+  const window = makeWindow({
+    areaMm2: options.areaMm2,
+    shape: options.shape,
+    aspect: options.aspect,
+  });
   const strideUm = options.strideUm ?? DEFAULT_STRIDE_UM;
   const minCoverage = options.minCoverage ?? DEFAULT_MIN_COVERAGE;
   const warnings: string[] = [];
@@ -317,7 +321,9 @@ export function compareCase(
   }
   let best: { threshold: number | null; f1: number | null } = { threshold: null, f1: null };
   for (const p of curve) {
-    if (p.f1 !== null && (best.f1 === null || p.f1 > best.f1)) best = { threshold: p.threshold, f1: p.f1 };
+    if (p.f1 !== null && (best.f1 === null || p.f1 > best.f1)) {
+      best = { threshold: p.threshold, f1: p.f1 };
+    }
   }
 
   // 8. The operating point.
@@ -377,7 +383,12 @@ export function compareCase(
   }
 
   const sources = [
-    ...reference.sources.map((s) => ({ role: "reference", kind: s.kind, path: s.path, sha256: s.sha256 })),
+    ...reference.sources.map((s) => ({
+      role: "reference",
+      kind: s.kind,
+      path: s.path,
+      sha256: s.sha256,
+    })),
     ...(candidates.source
       ? [{
         role: "candidate",
@@ -407,7 +418,13 @@ export function compareCase(
         ))
         : null,
       reference_count_at_candidate: candHotspot
-        ? countInWindow(refPts.xUm, refPts.yUm, window, candHotspot.centerUm[0], candHotspot.centerUm[1])
+        ? countInWindow(
+          refPts.xUm,
+          refPts.yUm,
+          window,
+          candHotspot.centerUm[0],
+          candHotspot.centerUm[1],
+        )
         : null,
       candidate_count_at_reference: refHotspot
         ? countInWindow(
@@ -431,13 +448,15 @@ export function compareCase(
       precision: "tp / (tp + fp); null when no candidate takes part",
       recall: "tp / (tp + fn); null when there is no reference figure",
       f1: "2·tp / (2·tp + fp + fn); null only when both sets are empty",
-      curve: "Thresholds i/100, i = 0 … 100: candidates with score ≥ threshold (no score: always) " +
+      curve:
+        "Thresholds i/100, i = 0 … 100: candidates with score ≥ threshold (no score: always) " +
         "take part; hotspot_count is their exact hotspot (same window and grid as the reference)",
       average_precision: "All-point interpolated average precision (PASCAL VOC from 2010; " +
         "Everingham et al. 2010, IJCV): precision made non-increasing from the right over the " +
         "operating points at every distinct score (tied scores enter together), summed over recall steps",
       best_f1: "Highest F1 over the curve's thresholds; ties go to the lowest threshold",
-      reference_count_at_candidate: "Reference figures inside the closed window of the candidate's hotspot",
+      reference_count_at_candidate:
+        "Reference figures inside the closed window of the candidate's hotspot",
     },
     settings: {
       window: windowJson(window),
@@ -501,7 +520,13 @@ function classify(
 
 function windowJson(w: WindowShape): Record<string, unknown> {
   return w.shape === "rect"
-    ? { shape: "rect", area_mm2: w.areaMm2, width_um: round2(w.widthUm), height_um: round2(w.heightUm), aspect: w.aspect }
+    ? {
+      shape: "rect",
+      area_mm2: w.areaMm2,
+      width_um: round2(w.widthUm),
+      height_um: round2(w.heightUm),
+      aspect: w.aspect,
+    }
     : { shape: "circle", area_mm2: w.areaMm2, diameter_um: round2(w.diameterUm) };
 }
 

@@ -15,7 +15,7 @@ import { safeCaseId } from "../annotations/case_id.ts";
 import { cohenKappa } from "../stats/kappa.ts";
 import { blandAltman } from "../stats/bland_altman.ts";
 import { HOTFIELD_VERSION } from "../version.ts";
-import { type CompareOptions, compareCase, type ComparisonResult } from "./compare_case.ts";
+import { compareCase, type CompareOptions, type ComparisonResult } from "./compare_case.ts";
 import { readCandidates } from "./read_candidates.ts";
 import { detectionScores } from "./detection_scores.ts";
 import {
@@ -202,7 +202,9 @@ export async function compareCohort(
       const reference = await loadCase(await referenceInput(row.reference));
       id = row.id !== undefined ? safeCaseId(row.id) : reference.caseId;
       if (seen.has(id)) {
-        throw new Error(`Case id "${id}" is used by an earlier pair of the manifest: give each pair its own id`);
+        throw new Error(
+          `Case id "${id}" is used by an earlier pair of the manifest: give each pair its own id`,
+        );
       }
       seen.add(id);
       const candidates = await readCandidates(row.candidate, {
@@ -324,10 +326,12 @@ export function summarizeComparisons(
     methods: {
       pooled: "tp, fp and fn summed over the cases; precision, recall and F1 of the sums",
       mean_case_f1: "Mean of the cases' F1 at each case's operating threshold",
-      bland_altman: "Hotspot counts, candidate − reference, over cases where both have a hotspot: " +
+      bland_altman:
+        "Hotspot counts, candidate − reference, over cases where both have a hotspot: " +
         "bias = mean difference, limits = bias ± 1.96 × sample SD (n − 1) (Bland & Altman 1986, Lancet)",
       class_agreement: "Share of graded cases whose candidate class equals the reference class",
-      kappa: "Cohen's kappa (1960) of the reference × candidate class table; rows are the reference",
+      kappa:
+        "Cohen's kappa (1960) of the reference × candidate class table; rows are the reference",
     },
     hotfield_version: HOTFIELD_VERSION,
   };

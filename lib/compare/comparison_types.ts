@@ -144,11 +144,24 @@ export interface ComparisonSummaryJson {
   /** Beside the contract. */
   schema?: typeof COMPARISON_SUMMARY_SCHEMA;
   /** tp, fp and fn summed over the cases, and the scores of the sums. */
-  pooled: { tp: number; fp: number; fn: number; precision: number | null; recall: number | null; f1: number | null };
+  pooled: {
+    tp: number;
+    fp: number;
+    fn: number;
+    precision: number | null;
+    recall: number | null;
+    f1: number | null;
+  };
   /** Mean of the cases' F1 (cases with an F1). */
   mean_case_f1: number | null;
   /** Hotspot counts, candidate − reference, over cases where both have a hotspot. */
-  bland_altman: { n: number; bias: number | null; lower: number | null; upper: number | null; sd?: number | null };
+  bland_altman: {
+    n: number;
+    bias: number | null;
+    lower: number | null;
+    upper: number | null;
+    sd?: number | null;
+  };
   /** Share of graded cases whose candidate class equals the reference class; null without graded cases. */
   class_agreement: number | null;
   /** Cohen's kappa of the classes over graded cases; null when undefined. */

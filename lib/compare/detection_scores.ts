@@ -89,7 +89,10 @@ export interface RankedPoint {
  * if (ap === null || Math.abs(ap - 5 / 6) > 1e-15) throw new Error(`AP ${ap}`);
  * ```
  */
-export function averagePrecision(points: readonly RankedPoint[], references: number): number | null {
+export function averagePrecision(
+  points: readonly RankedPoint[],
+  references: number,
+): number | null {
   if (!Number.isInteger(references) || references < 0) {
     throw new RangeError(`Reference count must be a whole number ≥ 0: got ${references}`);
   }

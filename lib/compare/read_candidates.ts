@@ -75,7 +75,12 @@ export async function readCandidates(
   try {
     text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);
   } catch {
-    throw inputError(SyntaxError, WHAT, path, "not UTF-8 text (is it a binary file, such as an image?)");
+    throw inputError(
+      SyntaxError,
+      WHAT,
+      path,
+      "not UTF-8 text (is it a binary file, such as an image?)",
+    );
   }
   const sha256 = createHash("sha256").update(bytes).digest("hex");
   const { slide } = options;
@@ -128,7 +133,9 @@ export async function readCandidates(
     const near = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * Math.max(a, b);
     if (!near(s.mppX, slide.mppX) || !near(s.mppY, slide.mppY)) {
       problems.push(
-        `mpp ${fmtMpp(s.mppX, s.mppY)} differs from the reference's ${fmtMpp(slide.mppX, slide.mppY)} µm/px`,
+        `mpp ${fmtMpp(s.mppX, s.mppY)} differs from the reference's ${
+          fmtMpp(slide.mppX, slide.mppY)
+        } µm/px`,
       );
     }
     if (problems.length > 0) {
@@ -137,12 +144,16 @@ export async function readCandidates(
           RangeError,
           WHAT,
           path,
-          `${problems.join("; ")}: the pair must be of the same slide (give --same-slide if it is, ` +
+          `${
+            problems.join("; ")
+          }: the pair must be of the same slide (give --same-slide if it is, ` +
             "and the positions are level-0 pixels of the reference's slide)",
         );
       }
       warnings.push(
-        `${path}: ${problems.join("; ")}; taken as the same slide (same-slide), with the reference's mpp`,
+        `${path}: ${
+          problems.join("; ")
+        }; taken as the same slide (same-slide), with the reference's mpp`,
       );
     }
   }
@@ -154,7 +165,9 @@ export async function readCandidates(
     );
   }
   warnings.push(...parsed.warnings);
-  if (parsed.figures.xPx.length === 0) warnings.push(`${path}: no figure features (an empty candidate set)`);
+  if (parsed.figures.xPx.length === 0) {
+    warnings.push(`${path}: no figure features (an empty candidate set)`);
+  }
   return { figures: parsed.figures, source: { kind: "figures", path, sha256 }, warnings };
 }
 

@@ -42,6 +42,7 @@ export const COMPARE_CAUTIONS: readonly string[] = [
 
 const EXTRA_CSS = `
 .agree{color:#00664a;font-weight:600}.disagree{color:#a33b00;font-weight:600}
+.cases td:first-child{white-space:nowrap}
 .plots2{display:grid;grid-template-columns:1fr 1fr;gap:14px}
 @media (max-width:900px){.plots2{grid-template-columns:1fr}}
 `;
@@ -55,7 +56,9 @@ function card(label: string, value: string, sub: string, cls = ""): string {
 }
 
 function plotBlock(id: string, fig: PlotFigure): string {
-  return `<div id="${id}" class="plot" style="min-height:${(fig.layout.height as number) + 2}px"></div>\n` +
+  return `<div id="${id}" class="plot" style="min-height:${
+    (fig.layout.height as number) + 2
+  }px"></div>\n` +
     `<p class="caption">${escapeHtml(fig.caption)}</p>`;
 }
 
@@ -102,13 +105,20 @@ function warningsBlock(warnings: readonly string[]): string {
  * if (typeof renderComparisonHtml !== "function") throw new Error();
  * ```
  */
-export function renderComparisonHtml(result: ComparisonResult, context: ComparePageContext): string {
+export function renderComparisonHtml(
+  result: ComparisonResult,
+  context: ComparePageContext,
+): string {
   const j = result.json;
   const d = j.detection, h = j.hotspot, g = j.grade;
   const pr = precisionRecallFigure(j), th = thresholdFigure(j), map = comparisonMapFigure(result);
   const same = g && g.reference_class !== null && g.reference_class === g.candidate_class;
   const cards = [
-    card("F1 at the chosen threshold", fmt(d.f1, 3), `precision ${pct(d.precision)}, recall ${pct(d.recall)}`),
+    card(
+      "F1 at the chosen threshold",
+      fmt(d.f1, 3),
+      `precision ${pct(d.precision)}, recall ${pct(d.recall)}`,
+    ),
     card(
       "reference hotspot",
       h.reference ? fmt(h.reference.count, 0) : "none",
@@ -130,16 +140,18 @@ export function renderComparisonHtml(result: ComparisonResult, context: CompareP
       ? card(
         "class",
         same ? "same" : "differs",
-        `reference ${escapeHtml(g.reference_class ?? "none")}, candidate ${escapeHtml(g.candidate_class ?? "none")}`,
+        `reference ${escapeHtml(g.reference_class ?? "none")}, candidate ${
+          escapeHtml(g.candidate_class ?? "none")
+        }`,
         same ? "agree" : "disagree",
       )
       : card("class", "–", "no scheme given"),
   ];
   const agreeText = g
-    ? g.agreeing_thresholds.length === 0
-      ? "at no threshold"
-      : g.agreeing_thresholds.map(([a, b]) => (a === b ? a.toFixed(2) : `${a.toFixed(2)}–${b.toFixed(2)}`))
-        .join(", ")
+    ? g.agreeing_thresholds.length === 0 ? "at no threshold" : g.agreeing_thresholds.map((
+      [a, b],
+    ) => (a === b ? a.toFixed(2) : `${a.toFixed(2)}–${b.toFixed(2)}`))
+      .join(", ")
     : "–";
   const kv = (rows: [string, string][]) =>
     `<dl class="kv">${rows.map(([k, v]) => `<div><dt>${k}</dt><dd>${v}</dd></div>`).join("")}</dl>`;
@@ -149,7 +161,10 @@ export function renderComparisonHtml(result: ComparisonResult, context: CompareP
     ["reference figures", fmt(d.reference, 0)],
     ["candidates at the threshold", fmt(d.candidate, 0)],
     ["TP / FP / FN", `${d.tp} / ${d.fp} / ${d.fn}`],
-    ["average precision", j.average_precision === null ? "not defined" : fmt(j.average_precision, 3)],
+    [
+      "average precision",
+      j.average_precision === null ? "not defined" : fmt(j.average_precision, 3),
+    ],
     [
       "best F1",
       j.best_f1.f1 === null ? "–" : `${fmt(j.best_f1.f1, 3)} at ${fmt(j.best_f1.threshold, 2)}`,
@@ -161,14 +176,23 @@ export function renderComparisonHtml(result: ComparisonResult, context: CompareP
         : fmt(h.candidate_count_at_reference, 0),
     ],
     ["scheme", g ? escapeHtml(g.scheme) : "none"],
-    ["cut-off", g ? `${escapeHtml(g.cutoff_rule ?? "")} ${fmt(g.cutoff, 2)} (window count ${fmt(g.min_count_for_window, 0)})` : "–"],
+    [
+      "cut-off",
+      g
+        ? `${escapeHtml(g.cutoff_rule ?? "")} ${fmt(g.cutoff, 2)} (window count ${
+          fmt(g.min_count_for_window, 0)
+        })`
+        : "–",
+    ],
     ["thresholds with the same class", escapeHtml(agreeText)],
   ]);
-  const sampled = j.curve.filter((p, i) => i % 10 === 0 || j.curve.length <= 11);
+  const sampled = j.curve.filter((_p, i) => i % 10 === 0 || j.curve.length <= 11);
   const curveRows = sampled.map((p) =>
     `<tr><td>${p.threshold.toFixed(2)}</td><td>${p.tp}</td><td>${p.fp}</td><td>${p.fn}</td>` +
     `<td>${fmt(p.precision, 3)}</td><td>${fmt(p.recall, 3)}</td><td>${fmt(p.f1, 3)}</td>` +
-    `<td>${fmt(p.hotspot_count, 0)}</td><td>${p.class === undefined ? "–" : escapeHtml(p.class ?? "none")}</td></tr>`
+    `<td>${fmt(p.hotspot_count, 0)}</td><td>${
+      p.class === undefined ? "–" : escapeHtml(p.class ?? "none")
+    }</td></tr>`
   ).join("\n");
   return `${head(`Comparison: ${j.case}`, context)}
 <header class="top">
@@ -202,18 +226,20 @@ ${curveRows}
 <section><h2>Warnings</h2>
 ${warningsBlock(j.warnings)}
 </section>
-<footer>hotfield ${escapeHtml(context.version)} · comparison.json holds every number of this page.</footer>
+<footer>hotfield ${
+      escapeHtml(context.version)
+    } · comparison.json holds every number of this page.</footer>
 </main>
 ${
-    plotScripts(
-      [
-        { id: "plot-pr", figure: { data: pr.data, layout: pr.layout } },
-        { id: "plot-threshold", figure: { data: th.data, layout: th.layout } },
-        { id: "plot-map", figure: { data: map.data, layout: map.layout } },
-      ],
-      context.plotlySrc ?? "inline",
-    )
-  }
+      plotScripts(
+        [
+          { id: "plot-pr", figure: { data: pr.data, layout: pr.layout } },
+          { id: "plot-threshold", figure: { data: th.data, layout: th.layout } },
+          { id: "plot-map", figure: { data: map.data, layout: map.layout } },
+        ],
+        context.plotlySrc ?? "inline",
+      )
+    }
 </body>
 </html>
 `;
@@ -251,7 +277,11 @@ export function renderComparisonCohortHtml(
   const ba = blandAltmanFigure(comparisons, summary), ag = countAgreementFigure(comparisons);
   const p = summary.pooled;
   const cards = [
-    card("cases", fmt(comparisons.length, 0), failed.length > 0 ? `${failed.length} failed` : "all compared"),
+    card(
+      "cases",
+      fmt(comparisons.length, 0),
+      failed.length > 0 ? `${failed.length} failed` : "all compared",
+    ),
     card("pooled F1", fmt(p.f1, 3), `precision ${pct(p.precision)}, recall ${pct(p.recall)}`),
     card("mean case F1", fmt(summary.mean_case_f1, 3), "each case at its threshold"),
     card(
@@ -288,7 +318,9 @@ export function renderComparisonCohortHtml(
       `<td>${c.hotspot.candidate ? c.hotspot.candidate.count : "none"}</td>` +
       `<td>${fmt(c.hotspot.reference_count_at_candidate, 0)}</td>` +
       `<td>${g ? escapeHtml(g.reference_class ?? "none") : "–"}</td>` +
-      `<td${g ? (same ? ' class="agree"' : ' class="disagree"') : ""}>${g ? escapeHtml(g.candidate_class ?? "none") : "–"}</td></tr>`;
+      `<td${g ? (same ? ' class="agree"' : ' class="disagree"') : ""}>${
+        g ? escapeHtml(g.candidate_class ?? "none") : "–"
+      }</td></tr>`;
   }).join("\n");
   const failedBlock = failed.length === 0 ? "" : `<section><h2>Pairs that failed</h2>
 <div class="table-wrap"><table><thead><tr><th>pair</th><th>manifest line</th><th>error</th></tr></thead><tbody>
@@ -309,7 +341,9 @@ ${
 ${cautions()}
 <section class="cards">${cards.join("")}</section>
 <section><h2>Hotspot counts: candidate against reference</h2>
-<div class="plots2"><div>${plotBlock("plot-ba", ba)}</div><div>${plotBlock("plot-agree", ag)}</div></div>
+<div class="plots2"><div>${plotBlock("plot-ba", ba)}</div><div>${
+    plotBlock("plot-agree", ag)
+  }</div></div>
 </section>
 <section><h2>Classes</h2>
 ${classTable}
@@ -317,7 +351,7 @@ ${classTable}
     `Cohen's kappa ${fmt(summary.kappa, 3)} over ${summary.graded_cases ?? 0} graded case(s).</p>
 </section>
 <section><h2>Cases</h2>
-<div class="table-wrap"><table><thead><tr><th>case</th><th>TP</th><th>FP</th><th>FN</th><th>F1</th>` +
+<div class="table-wrap"><table class="cases"><thead><tr><th>case</th><th>TP</th><th>FP</th><th>FN</th><th>F1</th>` +
     `<th>AP</th><th>reference hotspot</th><th>candidate hotspot</th><th>reference figures in candidate's window</th>` +
     `<th>reference class</th><th>candidate class</th></tr></thead>
 <tbody>
@@ -330,14 +364,14 @@ ${failedBlock}
 <footer>hotfield ${escapeHtml(context.version)}.</footer>
 </main>
 ${
-    plotScripts(
-      [
-        { id: "plot-ba", figure: { data: ba.data, layout: ba.layout } },
-        { id: "plot-agree", figure: { data: ag.data, layout: ag.layout } },
-      ],
-      context.plotlySrc ?? "inline",
-    )
-  }
+      plotScripts(
+        [
+          { id: "plot-ba", figure: { data: ba.data, layout: ba.layout } },
+          { id: "plot-agree", figure: { data: ag.data, layout: ag.layout } },
+        ],
+        context.plotlySrc ?? "inline",
+      )
+    }
 </body>
 </html>
 `;

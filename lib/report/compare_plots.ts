@@ -77,8 +77,14 @@ export function precisionRecallFigure(json: ComparisonJson): PlotFigure {
       name: `chosen threshold ${json.min_score}`,
       x: [d.recall],
       y: [d.precision],
-      marker: { symbol: "star", size: 16, color: OKABE_ITO.vermillion, line: { color: "#fff", width: 1 } },
-      hovertemplate: `chosen threshold ${json.min_score}<br>recall %{x:.3f}, precision %{y:.3f}<extra></extra>`,
+      marker: {
+        symbol: "star",
+        size: 16,
+        color: OKABE_ITO.vermillion,
+        line: { color: "#fff", width: 1 },
+      },
+      hovertemplate:
+        `chosen threshold ${json.min_score}<br>recall %{x:.3f}, precision %{y:.3f}<extra></extra>`,
     });
   }
   const b = json.best_f1;
@@ -99,8 +105,16 @@ export function precisionRecallFigure(json: ComparisonJson): PlotFigure {
     layout: {
       ...BASE_LAYOUT,
       height: 420,
-      xaxis: { title: { text: "recall (share of reference figures found)" }, range: [-0.02, 1.02], zeroline: false },
-      yaxis: { title: { text: "precision (share of candidates that are paired)" }, range: [-0.02, 1.02], zeroline: false },
+      xaxis: {
+        title: { text: "recall (share of reference figures found)" },
+        range: [-0.02, 1.02],
+        zeroline: false,
+      },
+      yaxis: {
+        title: { text: "precision (share of candidates that are paired)" },
+        range: [-0.02, 1.02],
+        zeroline: false,
+      },
     },
     caption: `Precision against recall as the score threshold goes from 0.00 to 1.00 (matching ` +
       `${json.matching}, radius ${json.radius_um} µm). Average precision ` +
@@ -154,13 +168,20 @@ export function thresholdFigure(json: ComparisonJson): PlotFigure {
   const ref = json.hotspot.reference;
   if (ref) {
     shapes.push(hline(ref.count, COMPARE_STYLE.reference.color, "solid"));
-    annotations.push(label(ref.count, `reference hotspot ${ref.count}`, COMPARE_STYLE.reference.color, 1));
+    annotations.push(
+      label(ref.count, `reference hotspot ${ref.count}`, COMPARE_STYLE.reference.color, 1),
+    );
   }
   const g = json.grade;
   if (g && g.min_count_for_window !== undefined) {
     shapes.push(hline(g.min_count_for_window, OKABE_ITO.black, "dash"));
     annotations.push(
-      label(g.min_count_for_window, `cut-off ${g.min_count_for_window} (${plotText(g.scheme)})`, OKABE_ITO.black, 0.02),
+      label(
+        g.min_count_for_window,
+        `cut-off ${g.min_count_for_window} (${plotText(g.scheme)})`,
+        OKABE_ITO.black,
+        0.02,
+      ),
     );
     for (const [lo, hi] of g.agreeing_thresholds) {
       shapes.push({
@@ -191,7 +212,9 @@ export function thresholdFigure(json: ComparisonJson): PlotFigure {
     ? g.agreeing_thresholds.length === 0
       ? `The candidate's class never equals the reference's (${g.reference_class ?? "none"}).`
       : `Shaded: thresholds where the candidate's class equals the reference's (${g.reference_class}): ${
-        g.agreeing_thresholds.map(([a, b]) => a === b ? a.toFixed(2) : `${a.toFixed(2)}–${b.toFixed(2)}`)
+        g.agreeing_thresholds.map(([a, b]) =>
+          a === b ? a.toFixed(2) : `${a.toFixed(2)}–${b.toFixed(2)}`
+        )
           .join(", ")
       }.`
     : "No scheme was given, so no cut-off or class is shown.";
@@ -201,19 +224,40 @@ export function thresholdFigure(json: ComparisonJson): PlotFigure {
       ...BASE_LAYOUT,
       height: 420,
       margin: { l: 64, r: 64, t: 36, b: 56 },
-      xaxis: { title: { text: "score threshold (candidates with score ≥ threshold)" }, range: [-0.01, 1.01] },
+      xaxis: {
+        title: { text: "score threshold (candidates with score ≥ threshold)" },
+        range: [-0.01, 1.01],
+      },
       yaxis: { title: { text: "figures in the hotspot window" }, rangemode: "tozero" },
-      yaxis2: { title: { text: "F1" }, overlaying: "y", side: "right", range: [0, 1.02], dtick: 0.2, tickformat: ".1f", showgrid: false },
+      yaxis2: {
+        title: { text: "F1" },
+        overlaying: "y",
+        side: "right",
+        range: [0, 1.02],
+        dtick: 0.2,
+        tickformat: ".1f",
+        showgrid: false,
+      },
       shapes,
       annotations,
     },
-    caption: `Exact hotspot count of the candidates at each threshold (same window and grid as the ` +
+    caption:
+      `Exact hotspot count of the candidates at each threshold (same window and grid as the ` +
       `reference). Dotted vertical line: the chosen threshold ${json.min_score}. ${agreeWords}`,
   };
 }
 
 function hline(y: number, color: string, dash: string): Record<string, unknown> {
-  return { type: "line", xref: "paper", yref: "y", x0: 0, x1: 1, y0: y, y1: y, line: { color, width: 1.5, dash } };
+  return {
+    type: "line",
+    xref: "paper",
+    yref: "y",
+    x0: 0,
+    x1: 1,
+    y0: y,
+    y1: y,
+    line: { color, width: 1.5, dash },
+  };
 }
 
 function label(y: number, text: string, color: string, x: number): Record<string, unknown> {
@@ -255,12 +299,19 @@ export function comparisonMapFigure(
   const mpp = prepared.slide;
   const hs = [result.referenceHotspot, result.candidateHotspot].filter((h) => h !== null);
   const ringsOf = hs.map((h) => windowRingUm(window, h!.centerUm));
-  const size = window.shape === "rect" ? Math.max(window.widthUm, window.heightUm) : window.diameterUm;
+  const size = window.shape === "rect"
+    ? Math.max(window.widthUm, window.heightUm)
+    : window.diameterUm;
   const margin = options.marginUm ?? size / 4;
   let box: [number, number, number, number];
   if (ringsOf.length > 0) {
     const xs = ringsOf.flat().map((p) => p[0]), ys = ringsOf.flat().map((p) => p[1]);
-    box = [Math.min(...xs) - margin, Math.min(...ys) - margin, Math.max(...xs) + margin, Math.max(...ys) + margin];
+    box = [
+      Math.min(...xs) - margin,
+      Math.min(...ys) - margin,
+      Math.max(...xs) + margin,
+      Math.max(...ys) + margin,
+    ];
   } else {
     const b = bboxOf(prepared.validPx);
     box = [b[0] * mpp.mppX, b[1] * mpp.mppY, b[2] * mpp.mppX, b[3] * mpp.mppY];
@@ -291,7 +342,10 @@ export function comparisonMapFigure(
     line: { color: "#2b2b2b", width: 1.2 },
     hoverinfo: "skip",
   });
-  const marks = { tp: [[], []], fp: [[], []], fn: [[], []] } as Record<string, [number[], number[]]>;
+  const marks = { tp: [[], []], fp: [[], []], fn: [[], []] } as Record<
+    string,
+    [number[], number[]]
+  >;
   const cand = result.candidates;
   for (let c = 0; c < cand.xUm.length; c++) {
     if (cand.score[c] < matching.minScore) continue;
@@ -311,16 +365,24 @@ export function comparisonMapFigure(
   for (const key of ["tp", "fp", "fn"] as const) {
     const st = COMPARE_STYLE[key];
     data.push({
-      type: "scattergl",
+      type: "scatter",
       mode: "markers",
       name: `${st.name}: ${marks[key][0].length} in view`,
       x: marks[key][0],
       y: marks[key][1],
-      marker: { symbol: st.symbol, size: key === "fn" ? 8 : 6, color: st.color, line: { color: st.color, width: 1.5 } },
+      marker: {
+        symbol: st.symbol,
+        size: key === "fn" ? 8 : 6,
+        color: st.color,
+        line: { color: st.color, width: 1.5 },
+      },
       hovertemplate: `${st.name}<br>x %{x:.0f} µm, y %{y:.0f} µm<extra></extra>`,
     });
   }
-  const windowTrace = (h: NonNullable<ComparisonResult["referenceHotspot"]>, who: "reference" | "candidate") => {
+  const windowTrace = (
+    h: NonNullable<ComparisonResult["referenceHotspot"]>,
+    who: "reference" | "candidate",
+  ) => {
     const ring = windowRingUm(window, h.centerUm);
     const st = COMPARE_STYLE[who];
     return {
@@ -341,7 +403,12 @@ export function comparisonMapFigure(
     layout: {
       ...BASE_LAYOUT,
       height: 640,
-      xaxis: { title: { text: "x (µm from the slide origin)" }, range: [box[0], box[2]], zeroline: false, constrain: "domain" },
+      xaxis: {
+        title: { text: "x (µm from the slide origin)" },
+        range: [box[0], box[2]],
+        zeroline: false,
+        constrain: "domain",
+      },
       yaxis: {
         title: { text: "y (µm, down)" },
         range: [box[3], box[1]],
@@ -351,7 +418,8 @@ export function comparisonMapFigure(
         constrain: "domain",
       },
     },
-    caption: "Solid window: the reference's hotspot; dashed: the candidate's at the chosen threshold " +
+    caption:
+      "Solid window: the reference's hotspot; dashed: the candidate's at the chosen threshold " +
       `${result.json.min_score}` +
       (j.distance_um !== null ? `, ${j.distance_um.toFixed(0)} µm apart` : "") +
       (j.reference_count_at_candidate !== null
@@ -404,7 +472,13 @@ export function blandAltmanFigure(
   const shapes: Record<string, unknown>[] = [];
   const annotations: Record<string, unknown>[] = [];
   shapes.push(hline(0, "#999999", "solid"));
-  for (const [v, name, dash] of [[ba.bias, "bias", "solid"], [ba.lower, "lower limit", "dash"], [ba.upper, "upper limit", "dash"]] as const) {
+  for (
+    const [v, name, dash] of [[ba.bias, "bias", "solid"], [ba.lower, "lower limit", "dash"], [
+      ba.upper,
+      "upper limit",
+      "dash",
+    ]] as const
+  ) {
     if (v === null) continue;
     shapes.push(hline(v, OKABE_ITO.vermillion, dash));
     annotations.push(label(v, `${name} ${v.toFixed(2)}`, OKABE_ITO.vermillion, 1));
@@ -431,7 +505,9 @@ export function blandAltmanFigure(
     },
     caption: `Bland–Altman plot (Bland & Altman 1986, Lancet) of ${ba.n} case(s): bias ` +
       `${ba.bias === null ? "–" : ba.bias.toFixed(2)} figures, 95% limits of agreement ` +
-      `${ba.lower === null ? "–" : ba.lower.toFixed(2)} to ${ba.upper === null ? "–" : ba.upper.toFixed(2)} ` +
+      `${ba.lower === null ? "–" : ba.lower.toFixed(2)} to ${
+        ba.upper === null ? "–" : ba.upper.toFixed(2)
+      } ` +
       "(bias ± 1.96 × sample SD). Cases without a hotspot in either are left out.",
   };
 }
@@ -452,15 +528,32 @@ export function blandAltmanFigure(
  */
 export function countAgreementFigure(comparisons: readonly ComparisonJson[]): PlotFigure {
   const rows = comparisons.filter((c) => c.hotspot.reference && c.hotspot.candidate);
-  const x = rows.map((c) => c.hotspot.reference!.count), y = rows.map((c) => c.hotspot.candidate!.count);
+  const x = rows.map((c) => c.hotspot.reference!.count),
+    y = rows.map((c) => c.hotspot.candidate!.count);
   const top = Math.max(1, ...x, ...y) * 1.08;
-  const cutoffs = new Set(comparisons.map((c) => c.grade?.min_count_for_window).filter((v) => v !== undefined));
+  const cutoffs = new Set(
+    comparisons.map((c) => c.grade?.min_count_for_window).filter((v) => v !== undefined),
+  );
   const shapes: Record<string, unknown>[] = [];
   if (cutoffs.size === 1) {
     const v = [...cutoffs][0]!;
     shapes.push(
-      { type: "line", x0: v, x1: v, y0: 0, y1: top, line: { color: OKABE_ITO.black, dash: "dash", width: 1 } },
-      { type: "line", x0: 0, x1: top, y0: v, y1: v, line: { color: OKABE_ITO.black, dash: "dash", width: 1 } },
+      {
+        type: "line",
+        x0: v,
+        x1: v,
+        y0: 0,
+        y1: top,
+        line: { color: OKABE_ITO.black, dash: "dash", width: 1 },
+      },
+      {
+        type: "line",
+        x0: 0,
+        x1: top,
+        y0: v,
+        y1: v,
+        line: { color: OKABE_ITO.black, dash: "dash", width: 1 },
+      },
     );
   }
   return {
@@ -486,8 +579,14 @@ export function countAgreementFigure(comparisons: readonly ComparisonJson[]): Pl
       ...BASE_LAYOUT,
       height: 420,
       showlegend: false,
-      xaxis: { title: { text: "reference hotspot count" }, range: [0, top] },
-      yaxis: { title: { text: "candidate hotspot count" }, range: [0, top], scaleanchor: "x", scaleratio: 1 },
+      xaxis: { title: { text: "reference hotspot count" }, range: [0, top], constrain: "domain" },
+      yaxis: {
+        title: { text: "candidate hotspot count" },
+        range: [0, top],
+        scaleanchor: "x",
+        scaleratio: 1,
+        constrain: "domain",
+      },
       shapes,
     },
     caption: "Each case's hotspot count from the candidate figures against the reference's. " +

@@ -132,7 +132,9 @@ function checkOutDir(outDir: string): void {
 
 function safeFolder(id: string): void {
   if (id === "" || id === "." || id === ".." || /[\/\\\0]/.test(id) || id.startsWith(".")) {
-    throw new Error(`Cannot write the comparison of case "${id}": the case id is not a safe folder name`);
+    throw new Error(
+      `Cannot write the comparison of case "${id}": the case id is not a safe folder name`,
+    );
   }
 }
 
@@ -192,7 +194,9 @@ export function writeComparisonCase(
   } catch (e) {
     rmSync(stage, { recursive: true, force: true });
     if (!existsSync(finalDir) && existsSync(old)) renameSync(old, finalDir);
-    throw new Error(`Cannot write the comparison of "${id}" in "${outDir}": ${(e as Error).message}`);
+    throw new Error(
+      `Cannot write the comparison of "${id}" in "${outDir}": ${(e as Error).message}`,
+    );
   }
   for (const [name] of files) written.push(join(finalDir, name));
   return written;

@@ -47,12 +47,16 @@ export interface BlandAltman {
  */
 export function blandAltman(a: readonly number[], b: readonly number[]): BlandAltman {
   if (a.length !== b.length) {
-    throw new RangeError(`Paired measurements must have equal lengths: got ${a.length} and ${b.length}`);
+    throw new RangeError(
+      `Paired measurements must have equal lengths: got ${a.length} and ${b.length}`,
+    );
   }
   let mean = 0, m2 = 0;
   for (let i = 0; i < a.length; i++) {
     if (!Number.isFinite(a[i]) || !Number.isFinite(b[i])) {
-      throw new RangeError(`Paired measurements must be finite numbers: pair ${i} is ${a[i]}, ${b[i]}`);
+      throw new RangeError(
+        `Paired measurements must be finite numbers: pair ${i} is ${a[i]}, ${b[i]}`,
+      );
     }
     const d = b[i] - a[i];
     const delta = d - mean;

@@ -30,7 +30,13 @@ Deno.test("matchFigures() optimal agrees with enumerating every matching on 400 
   // Outside check: exhaustive enumeration (test/compare/_brute.ts) of every
   // one-to-one matching, most pairs first, then least total distance.
   for (let seed = 1; seed <= 400; seed++) {
-    const { ref, cand } = randomCase(seed, 1 + (seed % 6), 1 + ((seed * 7) % 7), 30, seed % 2 === 0);
+    const { ref, cand } = randomCase(
+      seed,
+      1 + (seed % 6),
+      1 + ((seed * 7) % 7),
+      30,
+      seed % 2 === 0,
+    );
     const m = matchFigures(asUm(ref), { ...asUm(cand), score: Float64Array.from(cand.score) }, {
       radiusUm: 7.5,
     });
@@ -78,7 +84,11 @@ Deno.test("matchFigures() on a hand-worked example with ties", () => {
   //   so c1 takes A; c2 then finds only A (taken): 1 pair, c2 a false positive.
   // optimal: c1–B (5 µm) and c2–A (4 µm): 2 pairs, total 9 µm.
   const ref = { xUm: Float64Array.of(0, 10), yUm: Float64Array.of(0, 0) };
-  const cand = { xUm: Float64Array.of(5, -4), yUm: Float64Array.of(0, 0), score: Float64Array.of(0.9, 0.5) };
+  const cand = {
+    xUm: Float64Array.of(5, -4),
+    yUm: Float64Array.of(0, 0),
+    score: Float64Array.of(0.9, 0.5),
+  };
   const g = matchFigures(ref, cand, { mode: "greedy" });
   assertEquals([g.tp, g.fp, g.fn], [1, 1, 1]);
   assertEquals(Array.from(g.refOfCandidate), [0, -1]);
@@ -91,7 +101,11 @@ Deno.test("matchFigures() on a hand-worked example with ties", () => {
   assertEquals(Array.from(tied.order), [1, 0]);
   assertEquals(tied.tp, 2, "c2 takes A, then c1 takes B");
   // A pair exactly at the radius is within it (closed disc).
-  const edge = matchFigures(ref, { xUm: Float64Array.of(7.5), yUm: Float64Array.of(0), score: Float64Array.of(1) }, {
+  const edge = matchFigures(ref, {
+    xUm: Float64Array.of(7.5),
+    yUm: Float64Array.of(0),
+    score: Float64Array.of(1),
+  }, {
     radiusUm: 7.5,
   });
   assertEquals(edge.tp, 1);
@@ -112,7 +126,9 @@ Deno.test("matchFigures() does not depend on the order of the input figures", ()
       score: Float64Array.from(perm.map((i) => cand.score[i])),
     };
     for (const mode of ["optimal", "greedy"] as const) {
-      const x = matchFigures(asUm(ref), { ...asUm(cand), score: Float64Array.from(cand.score) }, { mode });
+      const x = matchFigures(asUm(ref), { ...asUm(cand), score: Float64Array.from(cand.score) }, {
+        mode,
+      });
       const y = matchFigures(asUm(ref), shuffled, { mode });
       assertEquals(x.tp, y.tp);
       assertAlmostEquals(x.totalDistanceUm, y.totalDistanceUm, 1e-9);
