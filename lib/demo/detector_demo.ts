@@ -138,7 +138,7 @@ const PAIRS: {
   {
     caseId: "QVT-24-003",
     file: "QVT-24-003.detector.csv",
-    shows: "A borderline case: a fair detector, and the class changes with the threshold.",
+    shows: "A borderline case: a fair detector whose class leaves the reference's above a threshold.",
     options: { sensitivity: 0.8 },
   },
   {
@@ -150,8 +150,8 @@ const PAIRS: {
   {
     caseId: "QVT-24-006",
     file: "QVT-24-006.detector-missed-focus.csv",
-    shows: "A detector that misses the strongest focus entirely: good F1 elsewhere, but the " +
-      "hotspot moves and the class changes.",
+    shows: "A detector that misses the strongest focus entirely: the hotspot moves to a " +
+      "weaker focus and its count drops, though F1 stays fair.",
     options: { sensitivity: 0.9 },
     missFocus: true,
   },

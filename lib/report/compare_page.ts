@@ -349,7 +349,7 @@ ${cautions()}
 ${classTable}
 <p class="caption">Rows: the reference's class; columns: the candidate's at each case's threshold. ` +
     `Cohen's kappa ${fmt(summary.kappa, 3)} over ${summary.graded_cases ?? 0} graded case(s) ` +
-    "(undefined, shown –, when both sides use a single class).</p>
+    `(undefined, shown –, when both sides use a single class).</p>
 </section>
 <section><h2>Cases</h2>
 <div class="table-wrap"><table class="cases"><thead><tr><th>case</th><th>TP</th><th>FP</th><th>FN</th><th>F1</th>` +

@@ -90,6 +90,7 @@ Deno.test("notebooks are stored without outputs, on the hotfield kernel (nbforma
     "01-explore-a-case.ipynb",
     "02-cohort-report.ipynb",
     "03-check-my-field.ipynb",
+    "04-is-my-detector-good-enough.ipynb",
   ]);
   for (const name of files) {
     const nb = JSON.parse(readFileSync(join(NOTEBOOKS, name), "utf8")) as Notebook;
@@ -119,6 +120,11 @@ const EXPECT: Record<string, RegExp[]> = {
     /^grade: 8 in 10 fields \(2\.3758 mm²\) is above the cut-off ≥ 7, tier high/m,
     /^your field: \d+ figures? in 10 fields/m,
     /^trainee-1: \d+ fields in \d+ cases/m,
+  ],
+  "04-is-my-detector-good-enough.ipynb": [
+    /^QVT-24-003: F1 [\d.]+ at threshold 0\.5/m,
+    /^QVT-24-006: reference hotspot \d+, detector hotspot \d+/m,
+    /^cohort of 4 pairs: pooled F1 [\d.]+/m,
   ],
 };
 
