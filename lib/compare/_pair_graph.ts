@@ -99,15 +99,17 @@ export function buildPairGraph(
   };
 
   const r2 = radiusUm * radiusUm;
-  const edgesRef: number[] = [];
-  const edgesDist: number[] = [];
+  let cap = Math.max(16, nc);
+  let edgeRef = new Int32Array(cap);
+  let edgeDist = new Float64Array(cap);
+  let m = 0;
   const { xUm: cx, yUm: cy } = candidates;
-  const local: number[] = [];
+  const localRef: number[] = [], localD: number[] = [], idx: number[] = [];
   for (let c = 0; c < nc; c++) {
     const x = cx[c], y = cy[c];
     const row = Math.floor((y - minY) / cell);
     const col = Math.floor((x - minX) / cell) + 1;
-    local.length = 0;
+    localRef.length = localD.length = 0;
     if (col >= -1 && col <= cols + 1) {
       for (let dr = -1; dr <= 1; dr++) {
         const base = (row + dr) * cols;
@@ -116,20 +118,36 @@ export function buildPairGraph(
         for (let k = lowerBound(lo); k < nr && sortedKeys[k] <= hi; k++) {
           const i = byCell[k];
           const dx = rx[i] - x, dy = ry[i] - y;
-          if (dx * dx + dy * dy <= r2) local.push(i);
+          const d2 = dx * dx + dy * dy;
+          if (d2 <= r2) {
+            localRef.push(i);
+            localD.push(Math.sqrt(d2));
+          }
         }
       }
     }
-    const d = (i: number) => {
-      const dx = rx[i] - x, dy = ry[i] - y;
-      return Math.sqrt(dx * dx + dy * dy);
-    };
-    local.sort((a, b) => d(a) - d(b) || refRank[a] - refRank[b]);
-    for (const i of local) {
-      edgesRef.push(i);
-      edgesDist.push(d(i));
+    const L = localRef.length;
+    if (m + L > cap) {
+      cap = Math.max(2 * cap, m + L);
+      const nr2 = new Int32Array(cap), nd2 = new Float64Array(cap);
+      nr2.set(edgeRef.subarray(0, m));
+      nd2.set(edgeDist.subarray(0, m));
+      edgeRef = nr2;
+      edgeDist = nd2;
     }
-    start[c + 1] = edgesRef.length;
+    if (L === 1) {
+      edgeRef[m] = localRef[0];
+      edgeDist[m++] = localD[0];
+    } else if (L > 1) {
+      idx.length = 0;
+      for (let t = 0; t < L; t++) idx.push(t);
+      idx.sort((a, b) => localD[a] - localD[b] || refRank[localRef[a]] - refRank[localRef[b]]);
+      for (const t of idx) {
+        edgeRef[m] = localRef[t];
+        edgeDist[m++] = localD[t];
+      }
+    }
+    start[c + 1] = m;
   }
-  return { start, ref: Int32Array.from(edgesRef), distUm: Float64Array.from(edgesDist) };
+  return { start, ref: edgeRef.slice(0, m), distUm: edgeDist.slice(0, m) };
 }

@@ -138,7 +138,8 @@ const PAIRS: {
   {
     caseId: "QVT-24-003",
     file: "QVT-24-003.detector.csv",
-    shows: "A borderline case: a fair detector whose class leaves the reference's above a threshold.",
+    shows:
+      "A borderline case: a fair detector whose class leaves the reference's above a threshold.",
     options: { sensitivity: 0.8 },
   },
   {
