@@ -460,7 +460,7 @@ async function compareRows(
   caseData: import("../lib/types.ts").CaseData,
   reps: number,
 ): Promise<void> {
-  const compare = await optional(() => import("../lib/compare/mod.ts"));
+  const compare = await optional(() => import("../lib/mod.ts"));
   if (isMissing(compare)) {
     missing("compare: 101 thresholds with hotspots", "< 10 s", compare.missing);
     return;
@@ -510,7 +510,11 @@ async function compareRows(
   for (const mode of ["optimal", "greedy"] as const) {
     const c = best(
       mode === "optimal" ? reps : 1,
-      () => compare.compareCase(reference, { figures: f }, { matching: mode, scheme: "canine-mct-2tier" }),
+      () =>
+        compare.compareCase(reference, { figures: f }, {
+          matching: mode,
+          scheme: "canine-mct-2tier",
+        }),
     );
     const j = c.result.json;
     const distinct = new Set(j.curve.map((p) => p.candidate)).size;

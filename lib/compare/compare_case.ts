@@ -10,11 +10,8 @@ import type { CountMap, Placement, PreparedCase, WindowShape } from "../count/en
 import { prepareCase } from "../count/prepare_case.ts";
 import { tallyFigures } from "../count/tally_figures.ts";
 import { makeWindow } from "../count/make_window.ts";
-import {
-  computeCountMap,
-  DEFAULT_MIN_COVERAGE,
-  DEFAULT_STRIDE_UM,
-} from "../count/compute_count_map.ts";
+import { computeCountMap } from "../count/compute_count_map.ts";
+import { DEFAULT_MIN_COVERAGE, DEFAULT_STRIDE_UM } from "../defaults.ts";
 import { findHotspot } from "../count/find_hotspot.ts";
 import { stampWindowCounts } from "../count/stamp_window_counts.ts";
 import { summarizeDistribution } from "../count/summarize_distribution.ts";
@@ -46,6 +43,7 @@ export interface CompareOptions {
   /** Matching radius, µm, in (0, 50]. @default 7.5 */
   radiusUm?: number;
   /** @default "optimal" */
+  /** `optimal` or `greedy`. @default "optimal" */
   matching?: MatchMode;
   /** The operating threshold of the candidates (headline numbers). @default 0 */
   minScore?: number;
@@ -56,12 +54,16 @@ export interface CompareOptions {
   /** Window area, mm². @default 2.37 */
   areaMm2?: number;
   /** @default "rect" */
+  /** Window shape. @default "rect" */
   shape?: "rect" | "circle";
   /** @default [4, 3] */
+  /** Rectangle aspect W:H. @default [4, 3] */
   aspect?: [number, number];
   /** @default 25 */
+  /** Grid stride, µm. @default 25 */
   strideUm?: number;
   /** @default 0.95 */
+  /** Least fraction of a window inside the valid region. @default 0.95 */
   minCoverage?: number;
   /** Grid size limit (cells). @default 25_000_000 */
   maxGridCells?: number;
@@ -93,15 +95,21 @@ interface LevelResult {
 
 /** What the pages draw besides `comparison.json`. */
 export interface ComparisonResult {
+  /** `comparison.json`. */
   json: ComparisonJson;
+  /** The reference case prepared for counting (valid region, figures in µm). */
   prepared: PreparedCase;
+  /** The counting window. */
   window: WindowShape;
   /** Reference figures taking part, µm. */
   reference: { xUm: Float64Array; yUm: Float64Array };
   /** Candidates taking part (all scores), µm, with their scores. */
   candidates: ScoredPointsUm;
+  /** The matching (pairs at the operating threshold, true positives by rank). */
   matching: FigureMatching;
+  /** The reference's exact hotspot. */
   referenceHotspot: Placement | null;
+  /** The candidate's exact hotspot at the operating threshold. */
   candidateHotspot: Placement | null;
 }
 
@@ -131,6 +139,11 @@ const CLASS_DEFINITION = "Classes of the hotspot against the scheme's primary cu
  * **Hotspots.** Each is the exact hotspot of `findHotspot` (same window,
  * stride and minimum coverage as `hotfield report`), on one coverage map
  * shared by every threshold; only the counts are recomputed.
+ *
+ * **Settings.** A reference case file's own settings (scheme, counted
+ * labels, window area and shape, stride, minimum coverage) win over
+ * `options`, as in `hotfield report`; a reference with count problems
+ * (e.g. coordinates in the wrong unit) is not graded.
  *
  * **Average precision**: see {@linkcode averagePrecision}; the operating
  * points are every distinct score, with true positives of the chosen
@@ -175,18 +188,30 @@ export function compareCase(
   if (!(minScore >= 0 && minScore <= 1)) {
     throw new RangeError(`Minimum score must lie in [0, 1]: got ${minScore}`);
   }
-  const scheme: GradingScheme | null = options.scheme ? getScheme(options.scheme) : null;
-  const countLabels = options.countLabels && options.countLabels.length > 0
-    ? [...options.countLabels]
-    : ["mitotic figure"];
+  // The reference case file's own settings win, as in hotfield report (its
+  // minimum score is the reference's, not the candidates' threshold).
+  const own = reference.settings ?? {};
+  const schemeId = own.scheme ?? options.scheme;
+  const countProblems = reference.countProblems ?? [];
+  const scheme: GradingScheme | null = schemeId && countProblems.length === 0
+    ? getScheme(schemeId)
+    : null;
+  const labels = own.countLabels ?? options.countLabels;
+  const countLabels = labels && labels.length > 0 ? [...labels] : ["mitotic figure"];
   const window = makeWindow({
-    areaMm2: options.areaMm2,
-    shape: options.shape,
+    areaMm2: own.areaMm2 ?? options.areaMm2,
+    shape: own.shape ?? options.shape,
     aspect: options.aspect,
   });
-  const strideUm = options.strideUm ?? DEFAULT_STRIDE_UM;
-  const minCoverage = options.minCoverage ?? DEFAULT_MIN_COVERAGE;
+  const strideUm = own.strideUm ?? options.strideUm ?? DEFAULT_STRIDE_UM;
+  const minCoverage = own.minCoverage ?? options.minCoverage ?? DEFAULT_MIN_COVERAGE;
   const warnings: string[] = [];
+  if (schemeId && countProblems.length > 0) {
+    warnings.push(
+      `Not graded against "${schemeId}": the reference has problems that make its count meaningless: ` +
+        countProblems.join("; "),
+    );
+  }
 
   // 1. The reference: valid region and counted figures (no score threshold).
   const prepared = prepareCase(reference, { minScore: 0, countLabels });

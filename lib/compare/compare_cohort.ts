@@ -151,10 +151,15 @@ export async function referenceInput(path: string): Promise<CaseInput> {
 
 /** One failed pair of a cohort. */
 export interface ComparisonFailure {
+  /** Case id of the pair (or its manifest line). */
   id: string;
+  /** Data line in the manifest. */
   line: number;
+  /** Reference path. */
   reference: string;
+  /** Candidate path. */
   candidate: string;
+  /** The error message. */
   error: string;
 }
 

@@ -24,8 +24,11 @@ export interface DetectionJson {
   reference: number;
   /** Candidate figures taking part (counted label, inside the valid region, score ≥ threshold). */
   candidate: number;
+  /** True positives: paired candidates. */
   tp: number;
+  /** False positives: unpaired candidates. */
   fp: number;
+  /** False negatives: unpaired reference figures. */
   fn: number;
   /** tp / (tp + fp); null when there are no candidates. */
   precision: number | null;
@@ -39,11 +42,17 @@ export interface DetectionJson {
 export interface CurvePointJson {
   /** Candidates with score ≥ threshold take part (a candidate without a score always does). */
   threshold: number;
+  /** True positives at this threshold. */
   tp: number;
+  /** False positives at this threshold. */
   fp: number;
+  /** False negatives at this threshold. */
   fn: number;
+  /** tp / (tp + fp); null when no candidate passes. */
   precision: number | null;
+  /** tp / (tp + fn); null without reference figures. */
   recall: number | null;
+  /** 2·tp / (2·tp + fp + fn); null only when both sets are empty. */
   f1: number | null;
   /** Exact hotspot count of the candidates with score ≥ threshold; null when no window is admissible. */
   hotspot_count: number | null;
@@ -71,10 +80,13 @@ export interface ComparisonPlacementJson {
 
 /** The grade block (with a scheme). */
 export interface GradeJson {
+  /** The scheme id. */
   scheme: string;
   /** The scheme's primary cut-off, per its area basis, as the source states it. */
   cutoff: number;
+  /** The reference hotspot's class (below, field-dependent, above); null without a hotspot. */
   reference_class: string | null;
+  /** The candidate's class at the operating threshold; null without a hotspot. */
   candidate_class: string | null;
   /** Closed threshold intervals [lo, hi] on the 0.01 grid where the candidate's class equals the reference's. */
   agreeing_thresholds: [number, number][];
@@ -84,6 +96,7 @@ export interface GradeJson {
   min_count_for_window?: number;
   /** Beside the contract: tiers of the two hotspots. */
   reference_tier?: string | null;
+  /** Beside the contract. */
   candidate_tier?: string | null;
   /** Beside the contract: what the classes mean. */
   definition?: string;
@@ -91,18 +104,25 @@ export interface GradeJson {
 
 /** `comparison.json`. */
 export interface ComparisonJson {
+  /** Always `hotfield.comparison/1`. */
   schema: typeof COMPARISON_SCHEMA;
+  /** Case id (the folder name of the outputs). */
   case: string;
+  /** Matching radius, µm. */
   radius_um: number;
+  /** `optimal` or `greedy`. */
   matching: MatchMode;
   /** The operating threshold of `detection`, `hotspot.candidate` and `grade.candidate_class`. */
   min_score: number;
+  /** Counts and scores at the operating threshold. */
   detection: DetectionJson;
+  /** The 101 thresholds 0.00 … 1.00 (one point without scores). */
   curve: CurvePointJson[];
   /** All-point interpolated AP (PASCAL VOC, 2010 on) over every distinct score; null without scores or references. */
   average_precision: number | null;
   /** Best F1 over the curve's thresholds (ties: the lowest threshold). */
   best_f1: { threshold: number | null; f1: number | null };
+  /** Both hotspots and how they relate. */
   hotspot: {
     reference: ComparisonPlacementJson | null;
     candidate: ComparisonPlacementJson | null;
@@ -113,7 +133,9 @@ export interface ComparisonJson {
     /** Beside the contract: candidate figures (at the operating threshold) inside the reference's hotspot window. */
     candidate_count_at_reference?: number | null;
   };
+  /** Classes against the scheme; null without a scheme. */
   grade: GradeJson | null;
+  /** Recoverable problems, in words. */
   warnings: string[];
   /** Beside the contract: which figures take part, in words. */
   scope?: string;
@@ -134,8 +156,11 @@ export interface ComparisonJson {
   };
   /** Beside the contract. */
   mpp?: [number, number];
+  /** Beside the contract: valid area, mm². */
   valid_area_mm2?: number;
+  /** Beside the contract: input files with their sha256. */
   inputs?: { role: string; kind: string; path: string; sha256: string }[];
+  /** Beside the contract: the hotfield version. */
   hotfield_version?: string;
 }
 
@@ -168,9 +193,14 @@ export interface ComparisonSummaryJson {
   kappa: number | null;
   /** Beside the contract. */
   cases?: number;
+  /** Beside the contract: pairs that failed, with the message. */
   failed?: { id: string; reference: string; candidate: string; error: string }[];
+  /** Beside the contract: cases with both classes known. */
   graded_cases?: number;
+  /** Beside the contract: the reference × candidate class table (rows the reference). */
   class_table?: { classes: string[]; counts: number[][] };
+  /** Beside the contract: how each number was computed. */
   methods?: Record<string, string>;
+  /** Beside the contract: the hotfield version. */
   hotfield_version?: string;
 }

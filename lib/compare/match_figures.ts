@@ -47,8 +47,11 @@ export interface MatchFiguresOptions {
 
 /** A matching, at the operating threshold and at every rank. */
 export interface FigureMatching {
+  /** The mode used. */
   mode: MatchMode;
+  /** The radius used, µm. */
   radiusUm: number;
+  /** The operating threshold used. */
   minScore: number;
   /** For each candidate, the reference it is paired with at the operating threshold, or −1. */
   refOfCandidate: Int32Array;
@@ -60,7 +63,9 @@ export interface FigureMatching {
   candidates: number;
   /** True positives (pairs), false positives (unpaired candidates), false negatives (unpaired references). */
   tp: number;
+  /** Candidates at or above the threshold left unpaired. */
   fp: number;
+  /** Reference figures left unpaired. */
   fn: number;
   /** Sum of the pair distances, µm. */
   totalDistanceUm: number;

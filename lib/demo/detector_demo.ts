@@ -41,8 +41,11 @@ export interface SimulateDetectorOptions {
 
 /** One simulated detection, level-0 px, score in [0, 1] (0.001 steps). */
 export interface Detection {
+  /** x, level-0 px. */
   xPx: number;
+  /** y, level-0 px. */
   yPx: number;
+  /** Score in [0, 1]. */
   score: number;
 }
 

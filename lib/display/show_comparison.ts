@@ -14,7 +14,7 @@ import {
   precisionRecallFigure,
   thresholdFigure,
 } from "../report/compare_plots.ts";
-import type { PlotFigure } from "../report/plots.ts";
+import type { PlotFigure } from "../report/plot_style.ts";
 import {
   type Displayable,
   JUPYTER_DISPLAY,

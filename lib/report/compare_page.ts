@@ -19,7 +19,7 @@ import {
   precisionRecallFigure,
   thresholdFigure,
 } from "./compare_plots.ts";
-import type { PlotFigure } from "./plots.ts";
+import type { PlotFigure } from "./plot_style.ts";
 
 /** Where plotly.js comes from and what the page header says. */
 export interface ComparePageContext {

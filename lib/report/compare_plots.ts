@@ -10,17 +10,12 @@
 import type { ComparisonResult } from "../compare/compare_case.ts";
 import type { ComparisonJson, ComparisonSummaryJson } from "../compare/comparison_types.ts";
 import type { MultiPolygonPx } from "../types.ts";
-import { OKABE_ITO, type PlotFigure, plotText } from "./plots.ts";
+import { OKABE_ITO, PLOT_FONT, type PlotFigure } from "./plot_style.ts";
+import { plotText } from "./plot_labels.ts";
 import { windowRingUm } from "./hotspot_geojson.ts";
 
-const FONT = {
-  family: "system-ui, -apple-system, 'Segoe UI', Roboto, 'Helvetica Neue', Arial, sans-serif",
-  size: 13,
-  color: "#1a1a1a",
-};
-
 const BASE_LAYOUT = {
-  font: FONT,
+  font: PLOT_FONT,
   paper_bgcolor: "#ffffff",
   plot_bgcolor: "#ffffff",
   margin: { l: 64, r: 24, t: 36, b: 56 },
