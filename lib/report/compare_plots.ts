@@ -46,6 +46,7 @@ const r1 = (v: number) => Math.round(v * 10) / 10;
  * import { precisionRecallFigure } from "./compare_plots.ts";
  * const fig = precisionRecallFigure({
  *   min_score: 0.5, detection: { precision: 0.8, recall: 0.5 }, best_f1: { threshold: null, f1: null },
+ *   matching: "optimal", radius_um: 7.5, average_precision: null,
  *   curve: [{ threshold: 0, precision: 0.5, recall: 1 }, { threshold: 1, precision: null, recall: 0 }],
  * } as never);
  * if (fig.data.length < 2) throw new Error();
