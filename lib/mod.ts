@@ -332,9 +332,9 @@ export {
   type WriteComparisonOptions,
 } from "./report/write_comparison.ts";
 export { showComparison, showComparisonCohort } from "./display/show_comparison.ts";
-export type { DemoFile } from "./demo/demo_files.ts";
 export {
   type Detection,
+  type DetectorDemoFile,
   detectorDemoFiles,
   simulateDetector,
   type SimulateDetectorOptions,

@@ -99,10 +99,10 @@ type Values = Record<string, string | boolean | string[] | undefined>;
  * ```ts
  * import { compareOptionsFromValues } from "./compare_command.ts";
  * const o = compareOptionsFromValues({ "radius-um": "5", match: "greedy" });
- * if (o.radiusUm !== 5 || o.matching !== "greedy" || o.minScore !== 0) throw new Error();
+ * if (o.radiusUm !== 5 || o.matching !== "greedy" || o.minScore !== 0) throw new Error(JSON.stringify(o));
  * let failed = false;
  * try { compareOptionsFromValues({ "radius-um": "0" }); } catch { failed = true; }
- * if (!failed) throw new Error();
+ * if (!failed) throw new Error("a radius of 0 µm must be refused");
  * ```
  */
 export function compareOptionsFromValues(values: Values): CompareOptions {
@@ -179,7 +179,7 @@ function pageTime(): string {
  * import { run } from "./compare_command.ts";
  * const out: string[] = [];
  * const code = await run(["--help"], { stdout: (s) => out.push(s), stderr: () => {} });
- * if (code !== 0 || !out.join("").startsWith("Usage: hotfield compare")) throw new Error();
+ * if (code !== 0 || !out.join("").startsWith("Usage: hotfield compare")) throw new Error(`exit ${code}`);
  * ```
  */
 export async function run(args: string[], io: CommandIo): Promise<number> {

@@ -174,7 +174,9 @@ const CLASS_DEFINITION = "Classes of the hotspot against the scheme's primary cu
  * });
  * const d = r.json.detection;
  * if (d.tp !== 2 || d.fp !== 1 || d.fn !== 1 || r.json.curve.length !== 101) throw new Error(JSON.stringify(d));
- * if (r.json.hotspot.reference?.count !== 3 || r.json.hotspot.reference_count_at_candidate !== 3) throw new Error();
+ * if (r.json.hotspot.reference?.count !== 3 || r.json.hotspot.reference_count_at_candidate !== 3) {
+ *   throw new Error(`hotspots: ${JSON.stringify(r.json.hotspot)}`);
+ * }
  * ```
  */
 export function compareCase(

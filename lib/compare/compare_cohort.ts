@@ -133,7 +133,7 @@ export function parseComparisonManifest(text: string, path: string): ManifestRow
  * ```ts
  * import { referenceInput } from "hotfield";
  * const input = await referenceInput("missing.geojson");
- * if (input.annotationsPath !== "missing.geojson") throw new Error();
+ * if (input.annotationsPath !== "missing.geojson") throw new Error(`not read as annotations: ${JSON.stringify(input)}`);
  * ```
  */
 export async function referenceInput(path: string): Promise<CaseInput> {
@@ -190,7 +190,7 @@ export interface CompareCohortOptions extends Omit<CompareOptions, "caseId" | "s
  * ```ts
  * import { compareCohort } from "hotfield";
  * const r = await compareCohort([], {}, () => {});
- * if (r.comparisons.length !== 0 || r.failed.length !== 0) throw new Error();
+ * if (r.comparisons.length !== 0 || r.failed.length !== 0) throw new Error("an empty manifest compares nothing");
  * ```
  */
 export async function compareCohort(
@@ -255,15 +255,28 @@ export const CLASS_ORDER: readonly string[] = ["below", "field-dependent", "abov
  * @param failed Failed pairs, listed in the summary.
  * @returns The summary.
  *
- * @example Two cases
+ * @example Pooled counts of one case
  * ```ts
- * import { summarizeComparisons } from "hotfield";
- * const c = (tp: number, fp: number, fn: number, f1: number, ref: number, cand: number) => ({
- *   detection: { tp, fp, fn, f1 }, hotspot: { reference: { count: ref }, candidate: { count: cand } }, grade: null,
+ * import { compareCase, parseAnnotations, parseFiguresCsv, summarizeComparisons } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
  * });
- * const s = summarizeComparisons([c(8, 2, 2, 0.8, 10, 10), c(1, 1, 3, 1 / 3, 4, 2)] as never);
- * // pooled: tp 9, fp 3, fn 5 → F1 18/26; hotspot differences 0 and −2: bias −1
- * if (Math.abs(s.pooled.f1! - 18 / 26) > 1e-6 || s.bland_altman.bias !== -1) throw new Error(JSON.stringify(s));
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * const s = summarizeComparisons([result.json, result.json]);
+ * // tp 2, fp 1, fn 1 per case: pooled 4, 2, 2 and F1 = 8 / 12
+ * if (s.pooled.tp !== 4 || Math.abs(s.pooled.f1! - 8 / 12) > 1e-6) throw new Error(`pooled ${JSON.stringify(s.pooled)}`);
+ * if (s.bland_altman.bias !== 0) throw new Error(`equal counts give bias 0, got ${s.bland_altman.bias}`);
  * ```
  */
 export function summarizeComparisons(

@@ -38,7 +38,9 @@ export interface DetectionScores {
  * if (s.precision !== 0.8 || Math.abs(s.recall! - 2 / 3) > 1e-15 || Math.abs(s.f1! - 16 / 22) > 1e-15) {
  *   throw new Error(JSON.stringify(s));
  * }
- * if (detectionScores(0, 0, 5).precision !== null || detectionScores(0, 0, 5).f1 !== 0) throw new Error();
+ * if (detectionScores(0, 0, 5).precision !== null || detectionScores(0, 0, 5).f1 !== 0) {
+ *   throw new Error("no predictions: precision null, F1 0");
+ * }
  * ```
  */
 export function detectionScores(tp: number, fp: number, fn: number): DetectionScores {

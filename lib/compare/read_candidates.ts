@@ -51,7 +51,7 @@ const WHAT = "candidates";
  * const dir = Deno.makeTempDirSync();
  * Deno.writeTextFileSync(`${dir}/det.csv`, "x,y,score\n10,20,0.9\n30,40,0.2\n");
  * const c = await readCandidates(`${dir}/det.csv`, { slide: { id: "QVT-24-001", mppX: 0.25, mppY: 0.25 } });
- * if (c.figures.xPx.length !== 2 || c.figures.score[1] !== 0.2) throw new Error();
+ * if (c.figures.xPx.length !== 2 || c.figures.score[1] !== 0.2) throw new Error(`read ${c.figures.xPx.length} points`);
  * Deno.removeSync(dir, { recursive: true });
  * ```
  */

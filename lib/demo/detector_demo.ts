@@ -21,7 +21,7 @@ import { writeFileAtomic } from "../io/write_atomic.ts";
 import { normal, type Random, seededRandom } from "../random.ts";
 import type { CaseData, FigureSet } from "../types.ts";
 import { DEMO_SEED, generateDemoCohort } from "./demo_cohort.ts";
-import { demoCohortFiles, type DemoFile } from "./demo_files.ts";
+import { demoCohortFiles } from "./demo_files.ts";
 
 /** Options of {@linkcode simulateDetector}. */
 export interface SimulateDetectorOptions {
@@ -73,7 +73,7 @@ export interface Detection {
  * };
  * const a = simulateDetector(figures, [0.25, 0.25], { seed: 3 });
  * const b = simulateDetector(figures, [0.25, 0.25], { seed: 3 });
- * if (JSON.stringify(a) !== JSON.stringify(b)) throw new Error();
+ * if (JSON.stringify(a) !== JSON.stringify(b)) throw new Error("equal seeds gave different detections");
  * ```
  */
 export function simulateDetector(
@@ -122,6 +122,14 @@ export function simulateDetector(
     );
   }
   return out;
+}
+
+/** One file of `data/demo/compare/`. */
+export interface DetectorDemoFile {
+  /** Path relative to `data/demo/compare/`. */
+  path: string;
+  /** The file's bytes. */
+  bytes: Uint8Array;
 }
 
 /** The demo pairs: reference case, detector file, what it shows, simulation options. */
@@ -181,13 +189,13 @@ function csvText(rows: Detection[]): string {
  * ```ts
  * import { detectorDemoFiles } from "hotfield";
  * const files = detectorDemoFiles();
- * if (!files.some((f) => f.path === "manifest.csv")) throw new Error();
+ * if (!files.some((f) => f.path === "manifest.csv")) throw new Error("no manifest.csv");
  * ```
  */
-export function detectorDemoFiles(seed: number = DEMO_SEED): DemoFile[] {
+export function detectorDemoFiles(seed: number = DEMO_SEED): DetectorDemoFile[] {
   const enc = new TextEncoder();
   const cohortFiles = demoCohortFiles(generateDemoCohort(seed), seed);
-  const files: DemoFile[] = [];
+  const files: DetectorDemoFile[] = [];
   const manifest = ["reference,candidate,id,scheme"];
   PAIRS.forEach((pair, i) => {
     const name = `${pair.caseId}.geojson`;
@@ -270,7 +278,7 @@ guidelines; hotfield supports, never replaces, a pathologist's grade.
  * import { writeDetectorDemoData } from "hotfield";
  * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
  *   const dir = Deno.makeTempDirSync();
- *   if (writeDetectorDemoData(dir).length !== 6) throw new Error();
+ *   if (writeDetectorDemoData(dir).length !== 6) throw new Error("expected 6 files");
  *   Deno.removeSync(dir, { recursive: true });
  * }
  * ```

@@ -36,12 +36,26 @@ function shown(figure: () => PlotFigure, options: ShowPlotOptions): Displayable 
  * @param options plotly.js inlining.
  * @returns A displayable object.
  *
- * @example
+ * @example The threshold plot as a plotly mime bundle
  * ```ts
- * import { showComparison } from "hotfield";
- * const s = showComparison({ json: { min_score: 0, hotspot: { reference: null }, grade: null, curve: [] } } as never,
- *   "threshold", { inlinePlotly: "never" });
- * if (!s) throw new Error();
+ * import { compareCase, parseAnnotations, parseFiguresCsv, JUPYTER_DISPLAY, showComparison } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * const bundle = showComparison(result, "threshold", { inlinePlotly: "never" })[JUPYTER_DISPLAY]();
+ * if (!("application/vnd.plotly.v1+json" in bundle)) throw new Error("no plotly JSON in the bundle");
  * ```
  */
 export function showComparison(
@@ -64,11 +78,28 @@ export function showComparison(
  * Shows a cohort's Bland–Altman plot (`"bland-altman"`) or count agreement
  * scatter (`"agreement"`).
  *
- * @example
+ * @example A Bland–Altman plot of one case
  * ```ts
- * import { showComparisonCohort } from "hotfield";
- * const s = showComparisonCohort([], { bland_altman: { n: 0, bias: null, lower: null, upper: null } } as never);
- * if (!s) throw new Error();
+ * import { compareCase, parseAnnotations, parseFiguresCsv, JUPYTER_DISPLAY, showComparisonCohort, summarizeComparisons } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * const shown = showComparisonCohort([result.json], summarizeComparisons([result.json]), "bland-altman", {
+ *   inlinePlotly: "never",
+ * });
+ * if (!("application/vnd.plotly.v1+json" in shown[JUPYTER_DISPLAY]())) throw new Error("no plotly JSON in the bundle");
  * ```
  */
 export function showComparisonCohort(

@@ -99,10 +99,28 @@ function warningsBlock(warnings: readonly string[]): string {
  * @param context plotly.js source, generation time, version.
  * @returns A complete HTML document.
  *
- * @example
+ * @example A complete page with three plots
  * ```ts
- * import { renderComparisonHtml } from "./compare_page.ts";
- * if (typeof renderComparisonHtml !== "function") throw new Error();
+ * import { compareCase, parseAnnotations, parseFiguresCsv, renderComparisonHtml } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * const html = renderComparisonHtml(result, { plotlySrc: "../assets/plotly.min.js", generatedAt: null, version: "0.1.0" });
+ * for (const id of ["plot-pr", "plot-threshold", "plot-map"]) {
+ *   if (!html.includes(`id="${id}"`)) throw new Error(`the page lacks the plot ${id}`);
+ * }
  * ```
  */
 export function renderComparisonHtml(
@@ -265,7 +283,7 @@ ${
  * }, [{ id: "<b>", line: 2, reference: "r", candidate: "c", error: "x" }], {
  *   plotlySrc: "assets/plotly.min.js", generatedAt: null, version: "0",
  * });
- * if (html.includes("<b>") || !html.includes("&lt;b&gt;")) throw new Error();
+ * if (html.includes("<b>") || !html.includes("&lt;b&gt;")) throw new Error("a pair name must show as text");
  * ```
  */
 export function renderComparisonCohortHtml(

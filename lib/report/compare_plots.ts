@@ -41,15 +41,26 @@ const r1 = (v: number) => Math.round(v * 10) / 10;
  * @param json The comparison.
  * @returns The figure.
  *
- * @example
+ * @example The curve of a small comparison
  * ```ts
- * import { precisionRecallFigure } from "./compare_plots.ts";
- * const fig = precisionRecallFigure({
- *   min_score: 0.5, detection: { precision: 0.8, recall: 0.5 }, best_f1: { threshold: null, f1: null },
- *   matching: "optimal", radius_um: 7.5, average_precision: null,
- *   curve: [{ threshold: 0, precision: 0.5, recall: 1 }, { threshold: 1, precision: null, recall: 0 }],
- * } as never);
- * if (fig.data.length < 2) throw new Error();
+ * import { compareCase, parseAnnotations, parseFiguresCsv, precisionRecallFigure } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * const fig = precisionRecallFigure(result.json);
+ * if (fig.data.length < 2) throw new Error(`expected the curve and the chosen threshold, got ${fig.data.length} traces`);
  * ```
  */
 export function precisionRecallFigure(json: ComparisonJson): PlotFigure {
@@ -128,14 +139,27 @@ export function precisionRecallFigure(json: ComparisonJson): PlotFigure {
  * @param json The comparison.
  * @returns The figure.
  *
- * @example
+ * @example Hotspot count against threshold, with the cut-off
  * ```ts
- * import { thresholdFigure } from "./compare_plots.ts";
- * const fig = thresholdFigure({
- *   min_score: 0.5, hotspot: { reference: { count: 9 } }, grade: null,
- *   curve: [{ threshold: 0, hotspot_count: 12, f1: 0.5 }, { threshold: 1, hotspot_count: 0, f1: 0 }],
- * } as never);
- * if (fig.data.length < 2) throw new Error();
+ * import { compareCase, parseAnnotations, parseFiguresCsv, thresholdFigure } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * const fig = thresholdFigure(result.json);
+ * const shapes = fig.layout.shapes as unknown[];
+ * if (shapes.length < 3) throw new Error(`expected reference, cut-off and threshold lines, got ${shapes.length}`);
  * ```
  */
 export function thresholdFigure(json: ComparisonJson): PlotFigure {
@@ -281,10 +305,28 @@ function label(y: number, text: string, color: string, x: number): Record<string
  * @param options `marginUm` around the two windows (default a quarter window).
  * @returns The figure.
  *
- * @example
+ * @example The map holds both hotspot windows
  * ```ts
- * import { comparisonMapFigure } from "./compare_plots.ts";
- * if (typeof comparisonMapFigure !== "function") throw new Error();
+ * import { compareCase, parseAnnotations, parseFiguresCsv, comparisonMapFigure } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * const names = comparisonMapFigure(result).data.map((t) => String(t.name));
+ * if (!names.some((n) => n.startsWith("reference hotspot")) || !names.some((n) => n.startsWith("candidate hotspot"))) {
+ *   throw new Error(`hotspot windows missing from the legend: ${names.join(", ")}`);
+ * }
  * ```
  */
 export function comparisonMapFigure(
@@ -449,12 +491,26 @@ function bboxOf(mp: MultiPolygonPx): [number, number, number, number] {
  * @param summary The cohort summary.
  * @returns The figure.
  *
- * @example
+ * @example One case in a Bland–Altman plot
  * ```ts
- * import { blandAltmanFigure } from "./compare_plots.ts";
- * const fig = blandAltmanFigure([{ case: "A", hotspot: { reference: { count: 4 }, candidate: { count: 6 } } }] as never,
- *   { bland_altman: { n: 1, bias: 2, lower: null, upper: null } } as never);
- * if (fig.data.length !== 1) throw new Error();
+ * import { compareCase, parseAnnotations, parseFiguresCsv, blandAltmanFigure, summarizeComparisons } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * const fig = blandAltmanFigure([result.json], summarizeComparisons([result.json]));
+ * if (fig.data.length !== 1) throw new Error(`expected one trace of cases, got ${fig.data.length}`);
  * ```
  */
 export function blandAltmanFigure(
@@ -515,11 +571,26 @@ export function blandAltmanFigure(
  * @param comparisons The cases.
  * @returns The figure.
  *
- * @example
+ * @example Candidate against reference counts
  * ```ts
- * import { countAgreementFigure } from "./compare_plots.ts";
- * const fig = countAgreementFigure([{ case: "A", grade: null, hotspot: { reference: { count: 4 }, candidate: { count: 6 } } }] as never);
- * if (fig.data.length !== 2) throw new Error();
+ * import { compareCase, parseAnnotations, parseFiguresCsv, countAgreementFigure } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * const fig = countAgreementFigure([result.json]);
+ * if (fig.data.length !== 2) throw new Error(`expected the equality line and the cases, got ${fig.data.length}`);
  * ```
  */
 export function countAgreementFigure(comparisons: readonly ComparisonJson[]): PlotFigure {

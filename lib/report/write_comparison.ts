@@ -151,10 +151,25 @@ function safeFolder(id: string): void {
  *
  * @example Refusing a file as output folder
  * ```ts
- * import { writeComparisonCase } from "./write_comparison.ts";
+ * import { compareCase, parseAnnotations, parseFiguresCsv, writeComparisonCase } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
  * let message = "";
- * try { writeComparisonCase({ json: { case: "x" } } as never, Deno.execPath()); } catch (e) { message = (e as Error).message; }
- * if (!message.includes("it is a file, not a folder")) throw new Error(message);
+ * try { writeComparisonCase(result, Deno.execPath()); } catch (e) { message = (e as Error).message; }
+ * if (!message.includes("it is a file, not a folder")) throw new Error(`unexpected message: ${message}`);
  * ```
  */
 export function writeComparisonCase(
@@ -219,10 +234,32 @@ function writeAsset(outDir: string, options: WriteComparisonOptions): string {
  * @param options Standalone page, generation time.
  * @returns The paths written.
  *
- * @example
+ * @example Writing a cohort of one (standalone pages need no asset)
  * ```ts
- * import { writeComparisonCohort } from "./write_comparison.ts";
- * if (typeof writeComparisonCohort !== "function") throw new Error();
+ * import { compareCase, parseAnnotations, parseFiguresCsv, summarizeComparisons, writeComparisonCohort } from "hotfield";
+ * const geojson = JSON.stringify({
+ *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
+ *   features: [
+ *     { type: "Feature", properties: { role: "tissue" }, geometry: { type: "Polygon",
+ *       coordinates: [[[0, 0], [8000, 0], [8000, 8000], [0, 8000], [0, 0]]] } },
+ *     { type: "Feature", properties: { role: "figure" }, geometry: { type: "MultiPoint",
+ *       coordinates: [[4000, 4000], [4100, 4000], [4200, 4000]] } },
+ *   ],
+ * });
+ * const parsed = parseAnnotations(geojson, { fileName: "QVT-24-900.geojson" });
+ * const csv = "x,y,score\n4002,4000,0.9\n4100,4004,0.8\n6000,6000,0.3\n";
+ * const { figures } = parseFiguresCsv(csv, { fileName: "detector.csv", mppX: 0.5, mppY: 0.5 });
+ * const result = compareCase({ caseId: "QVT-24-900", ...parsed, sources: [] }, { figures }, {
+ *   strideUm: 100, scheme: "canine-mct-2tier",
+ * });
+ * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
+ *   const dir = Deno.makeTempDirSync();
+ *   const written = writeComparisonCohort([result.json], summarizeComparisons([result.json]), [], dir, {
+ *     plotlyJs: "void 0;", standalone: true,
+ *   });
+ *   if (written.length !== 3) throw new Error(`expected csv, summary and page, got ${written.join(", ")}`);
+ *   Deno.removeSync(dir, { recursive: true });
+ * }
  * ```
  */
 export function writeComparisonCohort(
