@@ -47,6 +47,10 @@ const COMMANDS: Record<string, { summary: string; load: () => Promise<CommandMod
     summary: "grade a count made at the microscope against a scheme's cut-off",
     load: () => import("./cli/grade_command.ts"),
   },
+  compare: {
+    summary: "a detector's figures against a reference: pairs, F1, hotspots and grade",
+    load: () => import("./cli/compare_command.ts"),
+  },
   schemes: {
     summary: "list the grading schemes hotfield knows",
     load: () => import("./cli/schemes_command.ts"),

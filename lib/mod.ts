@@ -338,3 +338,81 @@ export {
   slideDemoFiguresCsv,
   writeSlideDemoCase,
 } from "./demo/slide_demo.ts";
+
+// Comparing a detector with a reference, down to the grade (lib/compare/ and its
+// outputs, plots and notebook helpers; issue "Comparing a detector with a reference").
+export {
+  COMPARISON_SCHEMA,
+  COMPARISON_SUMMARY_SCHEMA,
+  type ComparisonJson,
+  type ComparisonPlacementJson,
+  type ComparisonSummaryJson,
+  type CurvePointJson,
+  type DetectionJson,
+  type GradeJson,
+} from "./compare/comparison_types.ts";
+export {
+  DEFAULT_MATCH_RADIUS_UM,
+  type FigureMatching,
+  matchFigures,
+  type MatchFiguresOptions,
+  type MatchMode,
+  MAX_MATCH_RADIUS_UM,
+  type PointsUm,
+  type ScoredPointsUm,
+} from "./compare/match_figures.ts";
+export {
+  averagePrecision,
+  type DetectionScores,
+  detectionScores,
+  type RankedPoint,
+} from "./compare/detection_scores.ts";
+export {
+  type CandidateSet,
+  compareCase,
+  type CompareOptions,
+  type ComparisonResult,
+  CURVE_THRESHOLDS,
+} from "./compare/compare_case.ts";
+export { readCandidates, type ReadCandidatesOptions } from "./compare/read_candidates.ts";
+export {
+  CLASS_ORDER,
+  compareCohort,
+  type CompareCohortOptions,
+  type ComparisonFailure,
+  type ManifestRow,
+  parseComparisonManifest,
+  referenceInput,
+  summarizeComparisons,
+} from "./compare/compare_cohort.ts";
+export { type BlandAltman, blandAltman } from "./stats/bland_altman.ts";
+export {
+  blandAltmanFigure,
+  COMPARE_STYLE,
+  comparisonMapFigure,
+  countAgreementFigure,
+  precisionRecallFigure,
+  thresholdFigure,
+} from "./report/compare_plots.ts";
+export {
+  COMPARE_CAUTIONS,
+  type ComparePageContext,
+  renderComparisonCohortHtml,
+  renderComparisonHtml,
+} from "./report/compare_page.ts";
+export {
+  COMPARISON_COLUMNS,
+  comparisonCsv,
+  writeComparisonCase,
+  writeComparisonCohort,
+  type WriteComparisonOptions,
+} from "./report/write_comparison.ts";
+export { showComparison, showComparisonCohort } from "./display/show_comparison.ts";
+export {
+  type Detection,
+  type DetectorDemoFile,
+  detectorDemoFiles,
+  simulateDetector,
+  type SimulateDetectorOptions,
+  writeDetectorDemoData,
+} from "./demo/detector_demo.ts";

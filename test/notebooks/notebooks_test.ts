@@ -90,6 +90,7 @@ Deno.test("notebooks are stored without outputs, on the hotfield kernel (nbforma
     "01-explore-a-case.ipynb",
     "02-cohort-report.ipynb",
     "03-check-my-field.ipynb",
+    "04-is-my-detector-good-enough.ipynb",
     "05-tissue-from-a-slide.ipynb",
   ]);
   for (const name of files) {
@@ -121,6 +122,10 @@ const EXPECT: Record<string, RegExp[]> = {
     /^your field: \d+ figures? in 10 fields/m,
     /^trainee-1: \d+ fields in \d+ cases/m,
   ],
+  "04-is-my-detector-good-enough.ipynb": [
+    /^QVT-24-003: F1 [\d.]+ at threshold 0\.5/m,
+    /^QVT-24-006: reference hotspot \d+, detector hotspot \d+/m,
+    /^cohort of 4 pairs: pooled F1 [\d.]+/m,
   "05-tissue-from-a-slide.ipynb": [
     /^slide QVT-24-009: 4000 × 3000 px at 2 µm\/px \(from tiff\.XResolution/m,
     /^tissue: [\d.]+ mm² in 2 pieces/m,
