@@ -126,6 +126,7 @@ const EXPECT: Record<string, RegExp[]> = {
     /^QVT-24-003: F1 [\d.]+ at threshold 0\.5/m,
     /^QVT-24-006: reference hotspot \d+, detector hotspot \d+/m,
     /^cohort of 4 pairs: pooled F1 [\d.]+/m,
+  ],
   "05-tissue-from-a-slide.ipynb": [
     /^slide QVT-24-009: 4000 × 3000 px at 2 µm\/px \(from tiff\.XResolution/m,
     /^tissue: [\d.]+ mm² in 2 pieces/m,
