@@ -279,7 +279,7 @@ Deno.test(
       r3.err,
       `hotfield batch: Cannot read manifest "${manifest}": row 1, column 1: unknown column ` +
         '"annotation"; did you mean "annotations"? Known columns: annotations, case_file, id, ' +
-        "figures, figures_units, tissue_mask, mask_mpp, mpp, scheme, min_score\n" +
+        "figures, figures_units, tissue_mask, mask_mpp, mpp, scheme, min_score, slide\n" +
         `Cannot read manifest "${manifest}": row 1: the header needs a column "annotations" or ` +
         '"case_file": found "annotation", "id"\n' +
         `Cannot read manifest "${manifest}": row 2, column "id": case id "../up" would lead ` +
