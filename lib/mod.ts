@@ -58,17 +58,8 @@ export type {
   TissueSource,
   Vec2,
 } from "./types.ts";
-export {
-  type Mpp,
-  px2ToMm2,
-  pxToUm,
-  regionPxToUm,
-  ringPxToUm,
-  ringUmToPx,
-  umToPx,
-} from "./units.ts";
-export { roundTo } from "./numbers.ts";
-export { GridSizeError } from "./errors.ts";
+export { type Mpp, px2ToMm2, pxToUm, umToPx } from "./units.ts";
+
 export { HOTFIELD_VERSION } from "./version.ts";
 export {
   DEFAULT_ASPECT,
@@ -100,8 +91,6 @@ export { type Agreement, binaryKappa, cohenKappa } from "./stats/kappa.ts";
 
 // Reading a case.
 export {
-  ANNOTATION_ROLES,
-  type AnnotationRole,
   parseAnnotations,
   type ParseAnnotationsOptions,
   type ParsedAnnotations,
@@ -160,11 +149,7 @@ export {
   type FieldOfViewOptions,
   fieldsForArea,
 } from "./standards/field_of_view.ts";
-export {
-  type NottinghamCutoffs,
-  nottinghamCutoffs,
-  nottinghamScore,
-} from "./standards/nottingham.ts";
+export { nottinghamScore } from "./standards/nottingham.ts";
 export {
   type CaseClassification,
   classifyCounts,
@@ -218,8 +203,8 @@ export { REPORT_CAUTIONS } from "./report/report_html.ts";
 export { CASE_COLUMNS, caseRow } from "./report/report_csv.ts";
 export { cohortFigure } from "./report/cohort_figure.ts";
 export { countMapFigure, type CountMapFigureOptions } from "./report/count_map_figure.ts";
-export { admissibleHistogram, distributionFigure } from "./report/distribution_figure.ts";
-export { cutoffLabel } from "./report/plot_labels.ts";
+export { distributionFigure } from "./report/distribution_figure.ts";
+
 export type { PlotFigure } from "./report/plot_style.ts";
 
 // Batch runs and cohort folders (nightly runs, manifests, shards, run history).
@@ -231,16 +216,11 @@ export {
 } from "./report/write_cohort.ts";
 export type { BatchCase, CaseOutcome, CaseSummary } from "./batch/batch_types.ts";
 export { type BatchResult, runBatch, type RunBatchOptions } from "./batch/run_batch.ts";
-export { MANIFEST_COLUMNS, readManifest } from "./batch/read_manifest.ts";
+export { readManifest } from "./batch/read_manifest.ts";
 export { folderCases } from "./batch/case_sources.ts";
-export {
-  type EffectiveSettings,
-  effectiveSettings,
-  type SettingsOutput,
-  settingsSha256,
-} from "./batch/settings.ts";
-export { parseShard, selectShard, type Shard } from "./batch/shard.ts";
-export { RUN_HISTORY_FILE, RunHistory, type RunInfo } from "./batch/run_history.ts";
+
+export { type Shard } from "./batch/shard.ts";
+export { type RunInfo } from "./batch/run_history.ts";
 
 // Notebooks.
 export {
@@ -263,12 +243,7 @@ export { demoSchemes } from "./demo/demo_recipes.ts";
 // Reader audit and grading a count made at the microscope (readers area).
 export type { FieldKind } from "./types.ts";
 export { wilsonInterval } from "./stats/wilson.ts";
-export {
-  type CountGrade,
-  GRADE_CAUTION,
-  gradeCount,
-  type GradeCountOptions,
-} from "./standards/grade_count.ts";
+export { type CountGrade, gradeCount, type GradeCountOptions } from "./standards/grade_count.ts";
 export type { ReportFieldGrade } from "./pipeline/report_types.ts";
 export {
   type AuditField,
@@ -277,13 +252,8 @@ export {
   type ReaderAuditRow,
   type ReaderFieldEntry,
 } from "./cohort/reader_audit.ts";
-export { READER_COLUMNS, readerRow, readersCsv } from "./report/readers_csv.ts";
-export {
-  READER_DEFINITIONS,
-  type ReadersHtmlContext,
-  renderReadersPage,
-} from "./report/readers_page.ts";
-export { readerPercentileFigure, readerTimeFigure } from "./report/reader_plots.ts";
+export { readersCsv } from "./report/readers_csv.ts";
+
 export { showReaderFields } from "./display/show_readers.ts";
 
 // Slide files and tissue detection (slide area): OpenSlide reading, PNG/JPEG
@@ -291,19 +261,12 @@ export { showReaderFields } from "./display/show_readers.ts";
 // and the generated slides of tests and demo.
 export {
   isOpenSlideAvailable,
-  mppFromProperties,
   openSlide,
   type SlideFile,
   type SlideLevel,
   type SlideMpp,
 } from "./slide/open_slide.ts";
-export { type Overview, readOverview, type ReadOverviewOptions } from "./slide/read_overview.ts";
-export {
-  decodeRgbImage,
-  type DecodeRgbImageOptions,
-  type ImageFormat,
-  sniffImageFormat,
-} from "./slide/decode_image.ts";
+
 export { otsuThreshold } from "./tissue/otsu_threshold.ts";
 export type { Mask } from "./tissue/read_mask.ts";
 export {
@@ -318,26 +281,18 @@ export {
   readSlideImage,
   type ReadSlideImageOptions,
   type SlideFileFacts,
-  slideFileKind,
-  slideIdFromPath,
   type SlideImage,
   tissueFeatureCollection,
 } from "./annotations/read_slide_file.ts";
-export { sha256File } from "./io/hash_file.ts";
-export { showTissue, tissueFigure } from "./display/show_tissue.ts";
+
+export { showTissue } from "./display/show_tissue.ts";
 export {
-  generateSyntheticSlide,
   type SyntheticLevel,
   type SyntheticSlide,
   type SyntheticSlideOptions,
   writeSyntheticSlide,
 } from "./demo/synthetic_slide.ts";
-export {
-  SLIDE_DEMO_ID,
-  type SlideDemoCase,
-  slideDemoFiguresCsv,
-  writeSlideDemoCase,
-} from "./demo/slide_demo.ts";
+export { type SlideDemoCase, writeSlideDemoCase } from "./demo/slide_demo.ts";
 
 // Comparing a detector with a reference, down to the grade (lib/compare/ and its
 // outputs, plots and notebook helpers; issue "Comparing a detector with a reference").
@@ -357,7 +312,6 @@ export {
   matchFigures,
   type MatchFiguresOptions,
   type MatchMode,
-  MAX_MATCH_RADIUS_UM,
   type PointsUm,
   type ScoredPointsUm,
 } from "./compare/match_figures.ts";
@@ -372,47 +326,21 @@ export {
   compareCase,
   type CompareOptions,
   type ComparisonResult,
-  CURVE_THRESHOLDS,
 } from "./compare/compare_case.ts";
 export { readCandidates, type ReadCandidatesOptions } from "./compare/read_candidates.ts";
 export {
-  CLASS_ORDER,
   compareCohort,
   type CompareCohortOptions,
   type ComparisonFailure,
   type ManifestRow,
   parseComparisonManifest,
-  referenceInput,
   summarizeComparisons,
 } from "./compare/compare_cohort.ts";
 export { type BlandAltman, blandAltman } from "./stats/bland_altman.ts";
+
 export {
-  blandAltmanFigure,
-  COMPARE_STYLE,
-  comparisonMapFigure,
-  countAgreementFigure,
-  precisionRecallFigure,
-  thresholdFigure,
-} from "./report/compare_plots.ts";
-export {
-  COMPARE_CAUTIONS,
-  type ComparePageContext,
-  renderComparisonCohortHtml,
-  renderComparisonHtml,
-} from "./report/compare_page.ts";
-export {
-  COMPARISON_COLUMNS,
-  comparisonCsv,
   writeComparisonCase,
   writeComparisonCohort,
   type WriteComparisonOptions,
 } from "./report/write_comparison.ts";
 export { showComparison, showComparisonCohort } from "./display/show_comparison.ts";
-export {
-  type Detection,
-  type DetectorDemoFile,
-  detectorDemoFiles,
-  simulateDetector,
-  type SimulateDetectorOptions,
-  writeDetectorDemoData,
-} from "./demo/detector_demo.ts";

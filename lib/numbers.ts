@@ -17,7 +17,7 @@
  *
  * @example Three decimals, and no negative zero
  * ```ts
- * import { roundTo } from "hotfield";
+ * import { roundTo } from "./numbers.ts";
  * const r = roundTo(1737.12651, 3);
  * if (r !== 1737.127) throw new Error(`roundTo gave ${r}`);
  * if (!Object.is(roundTo(-0.0004, 3), 0)) throw new Error("roundTo kept a negative zero");

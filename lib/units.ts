@@ -73,7 +73,7 @@ export function umToPx(pointUm: Vec2, mpp: Mpp): Vec2 {
  *
  * @example Unequal mpp
  * ```ts
- * import { ringPxToUm } from "hotfield";
+ * import { ringPxToUm } from "./units.ts";
  * const ring = ringPxToUm([[0, 0], [100, 0], [100, 100], [0, 0]], { mppX: 0.25, mppY: 0.5 });
  * if (ring[2].join() !== "25,50") throw new Error(`corner at ${ring[2]}`);
  * ```
@@ -92,7 +92,7 @@ export function ringPxToUm(ringPx: Ring, mpp: Mpp): Ring {
  *
  * @example Back to pixels
  * ```ts
- * import { ringUmToPx } from "hotfield";
+ * import { ringUmToPx } from "./units.ts";
  * const ring = ringUmToPx([[0, 0], [25, 0], [25, 50], [0, 0]], { mppX: 0.25, mppY: 0.5 });
  * if (ring[2].join() !== "100,100") throw new Error(`corner at ${ring[2]}`);
  * ```
@@ -113,7 +113,7 @@ export function ringUmToPx(ringUm: Ring, mpp: Mpp): Ring {
  *
  * @example A 400 × 400 px square at 0.25 × 0.5 µm/px
  * ```ts
- * import { regionPxToUm } from "hotfield";
+ * import { regionPxToUm } from "./units.ts";
  * const square: [number, number][] = [[0, 0], [400, 0], [400, 400], [0, 400], [0, 0]];
  * const [[ring]] = regionPxToUm([[square]], { mppX: 0.25, mppY: 0.5 });
  * if (ring[2].join() !== "100,200") throw new Error(`corner at ${ring[2]}`);

@@ -86,7 +86,7 @@ const pair = (v: number | [number, number]): [number, number] =>
  *
  * @example The stem of a slide path
  * ```ts
- * import { slideIdFromPath } from "hotfield";
+ * import { slideIdFromPath } from "./read_slide_file.ts";
  * if (slideIdFromPath("/slides/QVT-24-009.tiff") !== "QVT-24-009") throw new Error();
  * ```
  */
@@ -106,7 +106,7 @@ export function slideIdFromPath(path: string): string {
  *
  * @example A PNG is a thumbnail, anything else a slide (needs write permission)
  * ```ts
- * import { slideFileKind } from "hotfield";
+ * import { slideFileKind } from "./read_slide_file.ts";
  * import { encode } from "fast-png";
  * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
  *   const png = Deno.makeTempFileSync({ suffix: ".png" });
@@ -397,7 +397,8 @@ async function readThumbnail(path: string, options: ReadSlideImageOptions): Prom
  *
  * @example Glass only: no tissue, and a warning
  * ```ts
- * import { detectSlideTissue, type SlideImage } from "hotfield";
+ * import { detectSlideTissue } from "hotfield";
+ * import type { SlideImage } from "./read_slide_file.ts";
  * const image = { width: 50, height: 40, data: new Uint8Array(50 * 40 * 3).fill(236) };
  * const s = { path: "QVT-24-002.png", image, imageMppX: 16, imageMppY: 16, scaleX: 32,
  *   scaleY: 32 } as SlideImage;
@@ -433,7 +434,9 @@ export function detectSlideTissue(
  *
  * @example One square piece becomes a Polygon feature
  * ```ts
- * import { type SlideImage, tissueFeatureCollection, type TissueDetection } from "hotfield";
+ * import { tissueFeatureCollection } from "hotfield";
+ * import type { SlideImage } from "./read_slide_file.ts";
+ * import type { TissueDetection } from "../tissue/detect_tissue.ts";
  * const sq: [number, number][] = [[0, 0], [10, 0], [10, 10], [0, 10], [0, 0]];
  * const fc = tissueFeatureCollection(
  *   { path: "QVT-24-003.tiff", kind: "slide", format: "generic-tiff", level: 1, mppFrom: "",

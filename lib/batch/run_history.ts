@@ -82,7 +82,7 @@ export function isoSeconds(date: Date = new Date()): string {
  *
  * @example Recording a run with one case
  * ```ts
- * import { RunHistory } from "hotfield";
+ * import { RunHistory } from "./run_history.ts";
  * const dir = Deno.makeTempDirSync();
  * const h = RunHistory.open(`${dir}/runs.sqlite`, { source: "m.csv", shard: null, workers: 1, forced: false });
  * h.record({ index: 0, status: "ok", caseId: "QVT-24-001", seconds: 1.5, message: null, summary: null }, "a.geojson");

@@ -104,7 +104,7 @@ export interface SettingsOutput {
  *
  * @example Defaults
  * ```ts
- * import { effectiveSettings } from "hotfield";
+ * import { effectiveSettings } from "./settings.ts";
  * const s = effectiveSettings({ shape: "circle" }, { formats: ["json"], standalone: false });
  * if (s.areaMm2 !== 2.37 || s.aspect !== undefined || s.scheme !== null) throw new Error(`defaults filled in, no aspect for a circle: ${JSON.stringify(s)}`);
  * ```
@@ -182,7 +182,7 @@ function sortKeys(value: unknown): unknown {
  *
  * @example Giving a default explicitly changes nothing
  * ```ts
- * import { settingsSha256 } from "hotfield";
+ * import { settingsSha256 } from "./settings.ts";
  * const out = { formats: ["json", "html"] as const, standalone: false };
  * const a = settingsSha256({}, { ...out, formats: [...out.formats] });
  * const b = settingsSha256({ strideUm: 25 }, { ...out, formats: ["html", "json"] });

@@ -31,7 +31,7 @@ export interface Shard {
  *
  * @example Good and bad shards
  * ```ts
- * import { parseShard } from "hotfield";
+ * import { parseShard } from "./shard.ts";
  * if (parseShard("2/3").k !== 2) throw new Error("2/3 is the second of three shares");
  * for (const bad of ["0/3", "4/3", "a/b"]) {
  *   let failed = false;
@@ -66,7 +66,7 @@ export function parseShard(text: string): Shard {
  *
  * @example Three shards take every case once
  * ```ts
- * import { selectShard } from "hotfield";
+ * import { selectShard } from "./shard.ts";
  * const cases = ["c", "a", "b", "d"].map((key, index) =>
  *   ({ index, shardKey: key, label: key, input: null, options: {} }));
  * const shares = [1, 2, 3].map((k) => selectShard(cases, { k, n: 3 }).map((c) => c.shardKey));

@@ -180,7 +180,8 @@ export interface AuditReport {
  *
  * @example Two fields of one reader, one in the upper quarter
  * ```ts
- * import { type AuditReport, readerAudit } from "hotfield";
+ * import { readerAudit } from "hotfield";
+ * import type { AuditReport } from "./reader_audit.ts";
  * const report = (id: string, count: number, date?: string): AuditReport => ({
  *   case: id, window: { area_mm2: 2.37 }, hotspot: { count: 9 },
  *   distribution: { positions: 100, median: 2, q3: 4 },

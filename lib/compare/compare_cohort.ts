@@ -131,7 +131,7 @@ export function parseComparisonManifest(text: string, path: string): ManifestRow
  *
  * @example
  * ```ts
- * import { referenceInput } from "hotfield";
+ * import { referenceInput } from "./compare_cohort.ts";
  * const input = await referenceInput("missing.geojson");
  * if (input.annotationsPath !== "missing.geojson") throw new Error(`not read as annotations: ${JSON.stringify(input)}`);
  * ```

@@ -36,7 +36,8 @@ export interface PrepareCaseOptions {
  *
  * @example One counted figure in a 1 × 1 mm tissue square at 0.5 µm/px
  * ```ts
- * import { type CaseData, type PolygonPx, prepareCase } from "hotfield";
+ * import { prepareCase } from "hotfield";
+ * import type { CaseData, PolygonPx } from "../types.ts";
  * const square: PolygonPx = [[[0, 0], [2000, 0], [2000, 2000], [0, 2000], [0, 0]]];
  * const caseData: CaseData = {
  *   caseId: "QVT-24-001", slide: { id: "QVT-24-001", mppX: 0.5, mppY: 0.5 },

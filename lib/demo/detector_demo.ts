@@ -65,7 +65,7 @@ export interface Detection {
  *
  * @example Equal seeds give equal detections
  * ```ts
- * import { simulateDetector } from "hotfield";
+ * import { simulateDetector } from "./detector_demo.ts";
  * const figures = {
  *   xPx: Float64Array.of(100, 200, 300), yPx: Float64Array.of(100, 100, 100),
  *   labelIndex: Uint32Array.of(0, 0, 1), labels: ["mitotic figure", "apoptotic body"],
@@ -187,7 +187,7 @@ function csvText(rows: Detection[]): string {
  *
  * @example
  * ```ts
- * import { detectorDemoFiles } from "hotfield";
+ * import { detectorDemoFiles } from "./detector_demo.ts";
  * const files = detectorDemoFiles();
  * if (!files.some((f) => f.path === "manifest.csv")) throw new Error("no manifest.csv");
  * ```
@@ -275,7 +275,7 @@ guidelines; hotfield supports, never replaces, a pathologist's grade.
  *
  * @example Writing into a temporary folder (needs write permission)
  * ```ts
- * import { writeDetectorDemoData } from "hotfield";
+ * import { writeDetectorDemoData } from "./detector_demo.ts";
  * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
  *   const dir = Deno.makeTempDirSync();
  *   if (writeDetectorDemoData(dir).length !== 6) throw new Error("expected 6 files");

@@ -81,8 +81,8 @@ export function writeSlideDemoCase(dir: string, seed: number = DEMO_SEED): Slide
  *
  * @example The CSV header
  * ```ts
- * import { generateSyntheticSlide } from "hotfield";
- * import { slideDemoFiguresCsv } from "hotfield";
+ * import { generateSyntheticSlide } from "./synthetic_slide.ts";
+ * import { slideDemoFiguresCsv } from "./slide_demo.ts";
  * const s = generateSyntheticSlide(3, { widthPx: 800, heightPx: 600, mpp: 10 });
  * const csv = slideDemoFiguresCsv(s, 3);
  * if (!csv.startsWith("x,y,label,score\n")) throw new Error(csv.slice(0, 40));

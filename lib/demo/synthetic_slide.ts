@@ -99,7 +99,7 @@ const LN10 = Math.LN10;
  *
  * @example A small slide
  * ```ts
- * import { generateSyntheticSlide } from "hotfield";
+ * import { generateSyntheticSlide } from "./synthetic_slide.ts";
  * const s = generateSyntheticSlide(1, { widthPx: 800, heightPx: 600, mpp: 8 });
  * if (s.levels.length !== 2 || s.bytes[0] !== 0x49 || s.tissue.length !== 2) throw new Error();
  * ```

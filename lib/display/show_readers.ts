@@ -25,7 +25,8 @@ import {
  *
  * @example A reader with one dated field
  * ```ts
- * import { type AuditReport, JUPYTER_DISPLAY, readerAudit } from "hotfield";
+ * import { JUPYTER_DISPLAY, readerAudit } from "hotfield";
+ * import type { AuditReport } from "../cohort/reader_audit.ts";
  * import { showReaderFields } from "./show_readers.ts";
  * const report = (id: string, count: number, date?: string): AuditReport => ({
  *   case: id, window: { area_mm2: 2.37 }, hotspot: { count: 9 },

@@ -28,7 +28,9 @@ import {
  *
  * @example One square piece over a 4 × 3 image
  * ```ts
- * import { type SlideImage, tissueFigure, type TissueDetection } from "hotfield";
+ * import type { SlideImage } from "../annotations/read_slide_file.ts";
+ * import { tissueFigure } from "./show_tissue.ts";
+ * import type { TissueDetection } from "../tissue/detect_tissue.ts";
  * const image = { path: "QVT-24-009.tiff", scaleX: 100, scaleY: 100,
  *   slide: { id: "QVT-24-009", mppX: 2, mppY: 2, widthPx: 400, heightPx: 300 },
  *   image: { width: 4, height: 3, data: new Uint8Array(36).fill(236) } } as SlideImage;
@@ -106,7 +108,9 @@ export function tissueFigure(image: SlideImage, detection: TissueDetection): Plo
  *
  * @example A bundle with an HTML fallback
  * ```ts
- * import { JUPYTER_DISPLAY, showTissue, type SlideImage, type TissueDetection } from "hotfield";
+ * import { JUPYTER_DISPLAY, showTissue } from "hotfield";
+ * import type { SlideImage } from "../annotations/read_slide_file.ts";
+ * import type { TissueDetection } from "../tissue/detect_tissue.ts";
  * const image = { path: "x.png", scaleX: 1, scaleY: 1,
  *   slide: { id: "QVT-24-009", mppX: 8, mppY: 8, widthPx: 2, heightPx: 2 },
  *   image: { width: 2, height: 2, data: new Uint8Array(12).fill(236) } } as SlideImage;

@@ -17,7 +17,7 @@ import { closeSync, openSync, readSync } from "node:fs";
  *
  * @example The hash of an empty file
  * ```ts
- * import { sha256File } from "hotfield";
+ * import { sha256File } from "./hash_file.ts";
  * if ((await Deno.permissions.query({ name: "write" })).state === "granted") {
  *   const path = Deno.makeTempFileSync();
  *   const h = sha256File(path);

@@ -142,7 +142,8 @@ export interface CaseResultParts {
  *
  * @example
  * ```ts
- * import { type CaseData, findBestFieldSet, type PolygonPx } from "hotfield";
+ * import { findBestFieldSet } from "hotfield";
+ * import type { CaseData, PolygonPx } from "../types.ts";
  * import { bestFieldSetOptions, finishCaseResult, startCaseResult } from "./build_case_result.ts";
  * const square: PolygonPx = [[[0, 0], [6000, 0], [6000, 6000], [0, 6000], [0, 0]]];
  * const caseData: CaseData = {
@@ -229,7 +230,7 @@ export function startCaseResult(
  *
  * @example
  * ```ts
- * import { type CaseData, type PolygonPx } from "hotfield";
+ * import type { CaseData, PolygonPx } from "../types.ts";
  * import { prepareCaseFor } from "./build_case_result.ts";
  * const square: PolygonPx = [[[0, 0], [2000, 0], [2000, 2000], [0, 2000], [0, 0]]];
  * const caseData: CaseData = {
@@ -330,7 +331,7 @@ export function bestFieldSetOptions(
  *
  * @example
  * ```ts
- * import { type CaseData, type PolygonPx } from "hotfield";
+ * import type { CaseData, PolygonPx } from "../types.ts";
  * import { finishCaseResult, startCaseResult } from "./build_case_result.ts";
  * const square: PolygonPx = [[[0, 0], [6000, 0], [6000, 6000], [0, 6000], [0, 0]]];
  * const caseData: CaseData = {

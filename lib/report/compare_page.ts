@@ -101,7 +101,8 @@ function warningsBlock(warnings: readonly string[]): string {
  *
  * @example A complete page with three plots
  * ```ts
- * import { compareCase, parseAnnotations, parseFiguresCsv, renderComparisonHtml } from "hotfield";
+ * import { compareCase, parseAnnotations, parseFiguresCsv } from "hotfield";
+ * import { renderComparisonHtml } from "./compare_page.ts";
  * const geojson = JSON.stringify({
  *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
  *   features: [

@@ -43,7 +43,8 @@ const r1 = (v: number) => Math.round(v * 10) / 10;
  *
  * @example The curve of a small comparison
  * ```ts
- * import { compareCase, parseAnnotations, parseFiguresCsv, precisionRecallFigure } from "hotfield";
+ * import { compareCase, parseAnnotations, parseFiguresCsv } from "hotfield";
+ * import { precisionRecallFigure } from "./compare_plots.ts";
  * const geojson = JSON.stringify({
  *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
  *   features: [
@@ -141,7 +142,8 @@ export function precisionRecallFigure(json: ComparisonJson): PlotFigure {
  *
  * @example Hotspot count against threshold, with the cut-off
  * ```ts
- * import { compareCase, parseAnnotations, parseFiguresCsv, thresholdFigure } from "hotfield";
+ * import { compareCase, parseAnnotations, parseFiguresCsv } from "hotfield";
+ * import { thresholdFigure } from "./compare_plots.ts";
  * const geojson = JSON.stringify({
  *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
  *   features: [
@@ -307,7 +309,8 @@ function label(y: number, text: string, color: string, x: number): Record<string
  *
  * @example The map holds both hotspot windows
  * ```ts
- * import { compareCase, parseAnnotations, parseFiguresCsv, comparisonMapFigure } from "hotfield";
+ * import { compareCase, parseAnnotations, parseFiguresCsv } from "hotfield";
+ * import { comparisonMapFigure } from "./compare_plots.ts";
  * const geojson = JSON.stringify({
  *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
  *   features: [
@@ -493,7 +496,8 @@ function bboxOf(mp: MultiPolygonPx): [number, number, number, number] {
  *
  * @example One case in a Bland–Altman plot
  * ```ts
- * import { compareCase, parseAnnotations, parseFiguresCsv, blandAltmanFigure, summarizeComparisons } from "hotfield";
+ * import { compareCase, parseAnnotations, parseFiguresCsv, summarizeComparisons } from "hotfield";
+ * import { blandAltmanFigure } from "./compare_plots.ts";
  * const geojson = JSON.stringify({
  *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
  *   features: [
@@ -573,7 +577,8 @@ export function blandAltmanFigure(
  *
  * @example Candidate against reference counts
  * ```ts
- * import { compareCase, parseAnnotations, parseFiguresCsv, countAgreementFigure } from "hotfield";
+ * import { compareCase, parseAnnotations, parseFiguresCsv } from "hotfield";
+ * import { countAgreementFigure } from "./compare_plots.ts";
  * const geojson = JSON.stringify({
  *   type: "FeatureCollection", slide: { id: "QVT-24-900", mpp: 0.5 },
  *   features: [

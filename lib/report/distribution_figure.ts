@@ -14,7 +14,7 @@ import { MARK_STYLE, OKABE_ITO, PLOT_FONT, type PlotFigure, readerStyles } from 
  *
  * @example
  * ```ts
- * import { admissibleHistogram } from "hotfield";
+ * import { admissibleHistogram } from "./distribution_figure.ts";
  * // Counts 0, 2, 2 at admissible positions; the 5 is at an inadmissible one.
  * const h = admissibleHistogram({
  *   map: { counts: new Int32Array([0, 2, 2, 5]), admissible: new Uint8Array([1, 1, 1, 0]) },
@@ -46,7 +46,8 @@ export function admissibleHistogram(
  *
  * @example Bars count positions per count
  * ```ts
- * import { admissibleHistogram, buildCaseResult, distributionFigure, parseAnnotations } from "hotfield";
+ * import { buildCaseResult, distributionFigure, parseAnnotations } from "hotfield";
+ * import { admissibleHistogram } from "./distribution_figure.ts";
  * // A 4 × 3 mm tissue piece at 1 µm/px with three figures.
  * const parsed = parseAnnotations(JSON.stringify({
  *   type: "FeatureCollection", slide: { id: "QVT-24-001", mpp: 1 },

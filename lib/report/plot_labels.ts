@@ -72,7 +72,8 @@ export function cutoffCount(c: ReportClassification | null | undefined): number 
  *
  * @example
  * ```ts
- * import { classifyCounts, cutoffLabel, getScheme } from "hotfield";
+ * import { classifyCounts, getScheme } from "hotfield";
+ * import { cutoffLabel } from "./plot_labels.ts";
  * const { classification } = classifyCounts({
  *   hotspotCount: 3, q1: 0, windowAreaMm2: 2.37, counts: [0, 3], admissible: [1, 1],
  * }, getScheme("canine-mct-2tier"));

@@ -83,7 +83,8 @@ function guideLabels(): Record<string, unknown>[] {
  *
  * @example Two fields in two cases
  * ```ts
- * import { type AuditReport, readerAudit } from "hotfield";
+ * import { readerAudit } from "hotfield";
+ * import type { AuditReport } from "../cohort/reader_audit.ts";
  * import { readerPercentileFigure } from "./reader_plots.ts";
  * const report = (id: string, count: number, date?: string): AuditReport => ({
  *   case: id, window: { area_mm2: 2.37 }, hotspot: { count: 9 },
@@ -193,7 +194,8 @@ function dateRange(xs: string[]): [string, string] {
  *
  * @example Two dated fields
  * ```ts
- * import { type AuditReport, readerAudit } from "hotfield";
+ * import { readerAudit } from "hotfield";
+ * import type { AuditReport } from "../cohort/reader_audit.ts";
  * import { readerTimeFigure } from "./reader_plots.ts";
  * const report = (id: string, count: number, date?: string): AuditReport => ({
  *   case: id, window: { area_mm2: 2.37 }, hotspot: { count: 9 },

@@ -21,7 +21,7 @@ export type ImageFormat = "png" | "jpeg";
  *
  * @example A PNG signature, and a TIFF header that is neither
  * ```ts
- * import { sniffImageFormat } from "hotfield";
+ * import { sniffImageFormat } from "./decode_image.ts";
  * const png = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
  * if (sniffImageFormat(png) !== "png") throw new Error();
  * if (sniffImageFormat(new Uint8Array([0x49, 0x49, 0x2a, 0])) !== null) throw new Error("TIFF");
@@ -57,7 +57,7 @@ export interface DecodeRgbImageOptions {
  * @example A 1 × 1 half-transparent black PNG comes out mid grey
  * ```ts
  * import { encode } from "fast-png";
- * import { decodeRgbImage } from "hotfield";
+ * import { decodeRgbImage } from "./decode_image.ts";
  * const png = encode({ width: 1, height: 1, data: new Uint8Array([0, 0, 0, 128]), channels: 4, depth: 8 });
  * const img = decodeRgbImage(png, { fileName: "QVT-24-001-thumb.png" });
  * if (img.data.join() !== "127,127,127") throw new Error(img.data.join());

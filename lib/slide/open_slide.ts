@@ -100,7 +100,7 @@ export function isOpenSlideAvailable(): true | string {
  *
  * @example Resolution tags in pixels per centimetre
  * ```ts
- * import { mppFromProperties } from "hotfield";
+ * import { mppFromProperties } from "./open_slide.ts";
  * const m = mppFromProperties({
  *   "tiff.XResolution": "20000", "tiff.YResolution": "40000", "tiff.ResolutionUnit": "centimeter",
  * });

@@ -60,8 +60,8 @@ export interface Overview {
  *
  * @example A fake two-level slide of uniform pink
  * ```ts
- * import { readOverview } from "hotfield";
- * import type { SlideFile } from "hotfield";
+ * import { readOverview } from "./read_overview.ts";
+ * import type { SlideFile } from "./open_slide.ts";
  * const levels = [{ widthPx: 4000, heightPx: 3000, downsample: 1 },
  *   { widthPx: 1000, heightPx: 750, downsample: 4 }];
  * const slide = { path: "QVT-24-001.tif", vendor: "", widthPx: 4000, heightPx: 3000, levels,

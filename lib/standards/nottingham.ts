@@ -40,7 +40,7 @@ export interface NottinghamCutoffs {
  *
  * @example A 0.55 mm field (FN 22, 40×)
  * ```ts
- * import { nottinghamCutoffs } from "hotfield";
+ * import { nottinghamCutoffs } from "./nottingham.ts";
  * const c = nottinghamCutoffs(0.55);
  * if (c.score1Max !== 8 || c.score2From !== 9 || c.score2Max !== 17 || c.score3From !== 18) {
  *   throw new Error(`cut-offs for 0.55 mm: ${JSON.stringify(c)}`);
