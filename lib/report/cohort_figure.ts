@@ -144,8 +144,8 @@ export function cohortFigure(results: readonly Pick<CaseResult, "report">[]): Pl
   const rowPx = order.length > 60 ? 14 : 22;
   const layout: Record<string, unknown> = {
     font: PLOT_FONT,
-    height: Math.max(320, 120 + rowPx * order.length),
-    margin: { l: 20, r: 20, t: 60, b: 50 },
+    height: Math.max(340, 150 + rowPx * order.length),
+    margin: { l: 20, r: 20, t: 95, b: 50 },
     yaxis: {
       type: "category",
       automargin: true,

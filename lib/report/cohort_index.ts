@@ -98,7 +98,7 @@ export function renderCohortIndex(
     const href = `${encodeURIComponent(id)}/${linkHtml(id) ? "report.html" : "report.json"}`;
     const problems = ((r.count_problems as string[] | undefined) ?? []).length;
     const cls = c ? escapeHtml(c.class) : problems > 0 ? "<b>not graded</b>" : "–";
-    return `<tr><td><a href="${escapeHtml(href)}">${escapeHtml(r.case)}</a></td>` +
+    return `<tr><td class="id"><a href="${escapeHtml(href)}">${escapeHtml(r.case)}</a></td>` +
       num(h?.count, 0, "none") + num(h?.per_mm2, 2) +
       num(r.valid_area_mm2, 2) + num(r.distribution.positions, 0) +
       `<td>${c ? escapeHtml(c.scheme) : "–"}</td>` + num(c ? cutoffCount(c) : null, 0) +

@@ -86,6 +86,7 @@ h3{font-size:15px;margin:18px 0 6px}
 .plot{width:100%;min-height:360px;border:1px solid var(--line);border-radius:4px}
 .caption{font-size:13px;color:var(--muted);margin:6px 0 0}
 .table-wrap{overflow-x:auto}
+td.id{white-space:nowrap}
 .table-wrap.scroll{max-height:560px;overflow-y:auto;border:1px solid var(--line)}
 .table-wrap.scroll thead th{position:sticky;top:0;z-index:1}
 table{border-collapse:collapse;width:100%;font-size:14px;font-variant-numeric:tabular-nums;margin:4px 0 8px}
