@@ -6,10 +6,15 @@
 
 import type { MultiPolygonPx } from "../types.ts";
 import type { StrideGrid } from "./engine_types.ts";
-import { rasterizeArea } from "./_geometry.ts";
+import { createRowRasterizer, type RowRasterizer } from "./_geometry.ts";
 
-/** Cells per rasterization band (bounds memory at about 2 × 8 bytes × this). */
+/**
+ * Band size, in raster cells, up to which bands grow (each band's sums start
+ * from zero; rounding depends on where they do, so this stays as it was).
+ */
 const BAND_CELLS = 4_000_000;
+/** Raster cells rasterized per call. */
+const CHUNK_CELLS = 1 << 20;
 
 /** Sorted unique edges {c_i − h, c_i + h} and, per centre, the indices of its two edges. */
 function mergedEdges(
@@ -53,9 +58,19 @@ function mergedEdges(
  *
  * The plane is cut at every window edge {cx_i ± W/2} × {cy_j ± H/2}; each
  * window is then a union of whole cells of that non-uniform grid, so the
- * exact per-cell areas from `rasterizeArea` summed with a summed-area table
- * give exact coverage (up to floating-point rounding). Processed in bands of
- * grid rows to bound memory.
+ * exact per-cell areas from the row rasterizer summed with a summed-area
+ * table give exact coverage (up to floating-point rounding).
+ *
+ * Bands of grid rows, each with its own table: a band's table runs from the
+ * top edge of its first window to the bottom edge of its last. Only one row
+ * of the table is held: the rows are walked downwards, each window row's
+ * top-edge values are kept until its bottom edge is reached. Cell rows are
+ * rasterized once, a few at a time, and kept (as row prefix sums) while a
+ * later band still needs them: memory is O(window height × width of the
+ * raster), time O(cells of the raster + windows). Bands hold at least twice
+ * a window's rows; up to {@linkcode BAND_CELLS} they grow as before, so the
+ * sums (and so every rounding) are the same as with the earlier, wholly
+ * stored tables.
  */
 export function rectCoverage(
   regionUm: MultiPolygonPx,
@@ -70,36 +85,109 @@ export function rectCoverage(
   const X = mergedEdges(x0Um, s, nx, halfX);
   const Y = mergedEdges(y0Um, s, ny, halfY);
   const nxE = X.edges.length;
+  const w = nxE; // table width: nxE entries per row (nxE − 1 cells)
+  // Cell rows under one window, and window rows open at once.
+  let span = 0, open = 1;
+  for (let j = 0, k = 0; j < ny; j++) {
+    if (Y.hi[j] - Y.lo[j] > span) span = Y.hi[j] - Y.lo[j];
+    while (k < ny && Y.lo[k] < Y.hi[j]) k++;
+    if (k - j > open) open = k - j;
+  }
+  const rows = new PrefixRows(regionUm, X.edges, Y.edges, span);
+  const sat = new Float64Array(w);
+  // Per open window row: the table's values at its windows' left and right edges on its top edge.
+  const topA = new Float64Array(open * nx), topB = new Float64Array(open * nx);
+  const xa = X.lo, xb = X.hi;
   let j0 = 0;
   while (j0 < ny) {
-    // Grow the band while its edge rows fit the budget.
     let j1 = j0 + 1;
-    while (j1 < ny && (Y.hi[j1] - Y.lo[j0] + 1) * nxE <= BAND_CELLS) j1++;
+    while (
+      j1 < ny &&
+      ((Y.hi[j1] - Y.lo[j0] + 1) * nxE <= BAND_CELLS || Y.hi[j1] - Y.lo[j0] <= 2 * span)
+    ) j1++;
     const base = Y.lo[j0];
     const top = Y.hi[j1 - 1];
-    const yEdges = Y.edges.subarray(base, top + 1);
-    const nyE = yEdges.length;
-    const cells = rasterizeArea(regionUm, X.edges, yEdges);
-    const w = nxE; // SAT width: nxE entries per row (nxE − 1 cells)
-    const sat = new Float64Array(w * nyE);
-    for (let r = 1; r < nyE; r++) {
-      let acc = 0;
-      const cr = (r - 1) * (nxE - 1);
-      for (let c = 1; c < nxE; c++) {
-        acc += cells[cr + c - 1];
-        sat[r * w + c] = sat[(r - 1) * w + c] + acc;
+    sat.fill(0);
+    let jTop = j0, jBottom = j0;
+    for (let r = 0; r <= top - base; r++) {
+      if (r > 0) {
+        const p = rows.get(base + r - 1);
+        for (let c = 1; c < nxE; c++) sat[c] = sat[c] + p[c];
       }
-    }
-    for (let j = j0; j < j1; j++) {
-      const ra = (Y.lo[j] - base) * w, rb = (Y.hi[j] - base) * w;
-      const o = j * nx;
-      for (let i = 0; i < nx; i++) {
-        const a = X.lo[i], b = X.hi[i];
-        const v = (sat[rb + b] - sat[ra + b] - sat[rb + a] + sat[ra + a]) / area;
-        out[o + i] = v < 0 ? 0 : v > 1 ? 1 : v;
+      // Bottoms first: a row's slot is free for a top edge on the same line.
+      while (jBottom < jTop && Y.hi[jBottom] - base === r) {
+        const o = (jBottom % open) * nx, row = jBottom * nx;
+        for (let i = 0; i < nx; i++) {
+          const v = (sat[xb[i]] - topB[o + i] - sat[xa[i]] + topA[o + i]) / area;
+          out[row + i] = v < 0 ? 0 : v > 1 ? 1 : v;
+        }
+        jBottom++;
+      }
+      while (jTop < j1 && Y.lo[jTop] - base === r) {
+        const o = (jTop % open) * nx;
+        for (let i = 0; i < nx; i++) {
+          topA[o + i] = sat[xa[i]];
+          topB[o + i] = sat[xb[i]];
+        }
+        jTop++;
       }
     }
     j0 = j1;
   }
   return out;
+}
+
+/**
+ * Row prefix sums of the raster (cell rows between consecutive y edges),
+ * rasterized a few rows at a time and kept in a ring while a band may still
+ * ask for them: entry c of row r is the area in cells 0 … c − 1 of row r
+ * (entry 0 unused), summed left to right.
+ */
+class PrefixRows {
+  #raster: RowRasterizer;
+  #yEdges: Float64Array;
+  #w: number;
+  #chunk: number;
+  #cap: number;
+  #ring: Float64Array;
+  /** Rows [#lo, #hi) are in the ring. */
+  #lo = 0;
+  #hi = 0;
+
+  constructor(region: MultiPolygonPx, xEdges: Float64Array, yEdges: Float64Array, span: number) {
+    this.#raster = createRowRasterizer(region, xEdges);
+    this.#yEdges = yEdges;
+    this.#w = xEdges.length;
+    this.#chunk = Math.max(8, Math.min(256, Math.floor(CHUNK_CELLS / this.#w)));
+    // A band starts at most span + 1 rows above the row the last one reached.
+    this.#cap = span + 4 + this.#chunk;
+    this.#ring = new Float64Array(this.#cap * this.#w);
+  }
+
+  /** The prefix row of cell row r (valid until the next call). */
+  get(r: number): Float64Array {
+    if (r < this.#lo) {
+      throw new RangeError(`Raster row ${r} is no longer held (rows ${this.#lo}…${this.#hi})`);
+    }
+    while (r >= this.#hi) this.#fill();
+    const w = this.#w, at = (r % this.#cap) * w;
+    return this.#ring.subarray(at, at + w);
+  }
+
+  #fill(): void {
+    const r0 = this.#hi;
+    const r1 = Math.min(this.#yEdges.length - 1, r0 + this.#chunk);
+    const cells = this.#raster.rows(this.#yEdges.subarray(r0, r1 + 1));
+    const w = this.#w, n = w - 1;
+    for (let r = r0; r < r1; r++) {
+      const at = (r % this.#cap) * w, cr = (r - r0) * n;
+      let acc = 0;
+      for (let c = 1; c < w; c++) {
+        acc += cells[cr + c - 1];
+        this.#ring[at + c] = acc;
+      }
+    }
+    this.#hi = r1;
+    this.#lo = Math.max(0, r1 - this.#cap);
+  }
 }

@@ -12,5 +12,9 @@ export {
   polygonOverlapArea,
 } from "../geometry/window_overlap.ts";
 export { regionBBox } from "../geometry/region_bbox.ts";
-export { rasterizeArea } from "../geometry/raster_coverage.ts";
+export {
+  createRowRasterizer,
+  rasterizeArea,
+  type RowRasterizer,
+} from "../geometry/raster_coverage.ts";
 export { buildValidRegion } from "../geometry/valid_region.ts";

@@ -5,7 +5,7 @@
  */
 
 import type { MultiPolygonPx } from "../types.ts";
-import { flattenEdges } from "./_edges.ts";
+import { type EdgeSet, flattenEdges } from "./_edges.ts";
 
 /**
  * Grid positions `start + i·step` for i = 0 … n − 1, each computed directly
@@ -101,13 +101,125 @@ export function rasterizeArea(
 ): Float64Array {
   checkEdges(xEdges, "xEdges");
   checkEdges(yEdges, "yEdges");
+  return createRowRasterizer(region, xEdges).rows(yEdges).slice();
+}
+
+/** Rasterizes consecutive bands of rows of one grid (see {@linkcode createRowRasterizer}). */
+export interface RowRasterizer {
+  /**
+   * Area of region ∩ cell for the rows between `yEdges` (strictly
+   * increasing), row-major with `xEdges.length − 1` cells a row. The array
+   * is reused by the next call.
+   */
+  rows(yEdges: Float64Array): Float64Array;
+}
+
+/**
+ * {@linkcode rasterizeArea} for a grid taken a band of rows at a time: the
+ * region's edges are flattened once, and bands asked for from top to bottom
+ * visit only the edges that reach them, so memory stays in proportion to the
+ * band while the whole grid costs O(cells + edge pieces + edges).
+ *
+ * Every row's values are exactly those `rasterizeArea` gives for a grid
+ * holding that row (a row depends only on its own two y edges, and edges are
+ * summed in the same order), whichever bands it is asked in.
+ *
+ * @param region Normalized, non-overlapping polygons (either winding).
+ * @param xEdges Column boundaries, strictly increasing.
+ * @returns The rasterizer.
+ * @throws {RangeError} When `xEdges` has fewer than 2 values or does not
+ *   increase (and, from `rows`, the same for its `yEdges`).
+ *
+ * @example Two bands give the same cells as one grid
+ * ```ts
+ * import { createRowRasterizer, rasterizeArea } from "./raster_coverage.ts";
+ * const sq: [number, number][] = [[0.5, 0], [3.5, 0], [3.5, 2.5], [0.5, 2.5], [0.5, 0]];
+ * const xs = new Float64Array([0, 1, 2]);
+ * const whole = rasterizeArea([[sq]], xs, new Float64Array([0, 1, 2, 3]));
+ * const r = createRowRasterizer([[sq]], xs);
+ * const top = Array.from(r.rows(new Float64Array([0, 1])));
+ * const rest = Array.from(r.rows(new Float64Array([1, 2, 3])));
+ * if ([...top, ...rest].join() !== Array.from(whole).join()) throw new Error("bands differ");
+ * ```
+ */
+export function createRowRasterizer(region: MultiPolygonPx, xEdges: Float64Array): RowRasterizer {
+  checkEdges(xEdges, "xEdges");
+  const e = flattenEdges(region);
+  const nx = xEdges.length - 1;
+  // Edges by their lower y, and the list of edges reaching the current band
+  // kept in their original order (sums must add in the same order as ever).
+  const lowY = new Float64Array(e.count), highY = new Float64Array(e.count);
+  let sloped = 0;
+  for (let k = 0; k < e.count; k++) {
+    const a = e.y0[k], b = e.y1[k];
+    lowY[k] = a < b ? a : b;
+    highY[k] = a < b ? b : a;
+    if (a !== b) sloped++;
+  }
+  const byLow = new Int32Array(sloped);
+  for (let k = 0, m = 0; k < e.count; k++) if (e.y0[k] !== e.y1[k]) byLow[m++] = k;
+  byLow.sort((a, b) => lowY[a] - lowY[b] || a - b);
+  let next = 0;
+  let active = new Int32Array(0);
+  let lastY0 = -Infinity, lastYN = -Infinity;
+  let area = new Float64Array(0), cover = new Float64Array(0), out = new Float64Array(0);
+  return {
+    rows(yEdges: Float64Array): Float64Array {
+      checkEdges(yEdges, "yEdges");
+      const ny = yEdges.length - 1;
+      const Y0 = yEdges[0], YN = yEdges[ny];
+      if (Y0 < lastY0 || YN < lastYN) {
+        // Out of order: start the edge list again.
+        next = 0;
+        active = new Int32Array(0);
+      }
+      lastY0 = Y0;
+      lastYN = YN;
+      let m = next;
+      while (m < byLow.length && lowY[byLow[m]] < YN) m++;
+      const fresh = byLow.slice(next, m).sort();
+      next = m;
+      const merged = new Int32Array(active.length + fresh.length);
+      let a = 0, b = 0, c = 0;
+      while (a < active.length || b < fresh.length) {
+        const k = b >= fresh.length || (a < active.length && active[a] < fresh[b])
+          ? active[a++]
+          : fresh[b++];
+        if (highY[k] > Y0) merged[c++] = k;
+      }
+      active = merged.subarray(0, c);
+      const cells = nx * ny;
+      if (area.length < cells) {
+        area = new Float64Array(cells);
+        cover = new Float64Array(cells);
+        out = new Float64Array(cells);
+      } else {
+        area.fill(0, 0, cells);
+        cover.fill(0, 0, cells);
+      }
+      rasterRows(e, active, xEdges, yEdges, area, cover, out);
+      return out.subarray(0, cells);
+    },
+  };
+}
+
+/**
+ * The scanline accumulation of {@linkcode rasterizeArea} over the edges
+ * `ids` (in that order) into zeroed `area` and `cover`, finished into `out`.
+ */
+function rasterRows(
+  e: EdgeSet,
+  ids: Int32Array,
+  xEdges: Float64Array,
+  yEdges: Float64Array,
+  area: Float64Array,
+  cover: Float64Array,
+  out: Float64Array,
+): void {
   const nx = xEdges.length - 1, ny = yEdges.length - 1;
-  const area = new Float64Array(nx * ny);
-  const cover = new Float64Array(nx * ny);
   const leftCover = new Float64Array(ny);
   const X0 = xEdges[0], XN = xEdges[nx], Y0 = yEdges[0], YN = yEdges[ny];
   const xStep = (XN - X0) / nx, yStep = (YN - Y0) / ny;
-  const e = flattenEdges(region);
 
   // one piece inside row j, from (xa, ya) to (xb, yb), carrying signed height h
   const rowPiece = (j: number, xa: number, ya: number, xb: number, yb: number, h: number) => {
@@ -200,7 +312,8 @@ export function rasterizeArea(
   };
 
   const { x0, y0, x1, y1 } = e;
-  for (let k = 0; k < e.count; k++) {
+  for (let q = 0; q < ids.length; q++) {
+    const k = ids[q];
     let ax = x0[k], ay = y0[k], bx = x1[k], by = y1[k];
     if (ay === by) continue;
     let sign = 1;
@@ -233,7 +346,6 @@ export function rasterizeArea(
       j++;
     }
   }
-  const out = new Float64Array(nx * ny);
   for (let j = 0; j < ny; j++) {
     let run = leftCover[j];
     const base = j * nx;
@@ -242,5 +354,4 @@ export function rasterizeArea(
       run += cover[base + i];
     }
   }
-  return out;
 }

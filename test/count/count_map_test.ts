@@ -54,6 +54,36 @@ Deno.test("computeCountMap() rectangle coverage equals rectOverlapArea at every 
   }
 });
 
+Deno.test("computeCountMap() rectangle coverage is exact on a raster wider than a band", () => {
+  // 2.37 mm² window at a 5 µm stride over a 10.5 mm strip: one window spans more raster
+  // rows than the 4M-cell band budget allows, so bands are sized to the window. Reference:
+  // rectOverlapArea (exact clipping) at sampled centres; Float32 storage, tolerance 1e-6.
+  const strip: MultiPolygonPx = [[
+    [[0, 0], [10500, 0], [10500, 2600], [5200, 1900], [0, 2600], [0, 0]],
+    [[3000, 900], [3400, 900], [3400, 1200], [3000, 1200], [3000, 900]],
+  ]];
+  const w = makeWindow({});
+  if (w.shape !== "rect") throw new Error();
+  const p = { validUm: strip, xUm: new Float64Array(0), yUm: new Float64Array(0) };
+  const map = computeCountMap(p as unknown as PreparedCase, w, { strideUm: 5, counts: false });
+  const { x0Um, y0Um, strideUm: s, nx, ny } = map.grid;
+  // Raster columns × twice the raster rows under one window: beyond the band budget.
+  assert.ok(2 * nx * (2 * (2 * w.heightUm / s) + 1) > 4_000_000, "the case must exceed a band");
+  const hw = w.widthUm / 2, hh = w.heightUm / 2;
+  for (let j = 0; j < ny; j += 37) {
+    for (let i = 0; i < nx; i += 53) {
+      const cx = x0Um + i * s, cy = y0Um + j * s;
+      const exact = rectOverlapArea(strip, [cx - hw, cy - hh, cx + hw, cy + hh]) /
+        (w.widthUm * w.heightUm);
+      const got = map.coverage[j * nx + i];
+      assert.ok(
+        Math.abs(got - Math.max(0, Math.min(1, exact))) < 1e-6,
+        `${i},${j}: ${got} ${exact}`,
+      );
+    }
+  }
+});
+
 Deno.test("computeCountMap() circle coverage stays within its stated error bound", () => {
   const w = makeWindow({ areaMm2: 0.05, shape: "circle" });
   if (w.shape !== "circle") throw new Error();
