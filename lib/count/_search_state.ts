@@ -58,6 +58,8 @@ export interface SearchState {
    * import each other.
    */
   circle: object | null;
+  /** The rectangle search's orders of grid centres and cells, kept between picks. */
+  rect: { centres: Int32Array; cells: Int32Array } | null;
 }
 
 /** Prepares a search over `map`'s window. */
@@ -123,6 +125,7 @@ export function createSearch(
     memo: new Map(),
     memoUm: s / 4,
     circle: null,
+    rect: null,
   };
 }
 

@@ -7,6 +7,7 @@ import { makeWindow } from "../../lib/count/make_window.ts";
 import { countInWindow } from "../../lib/count/window_contains.ts";
 import { diskOverlapArea, rectOverlapArea } from "../../lib/geometry/window_overlap.ts";
 import { createSearch, searchBest } from "../../lib/count/_hotspot_search.ts";
+import { RectCell } from "../../lib/count/_rect_cell.ts";
 import type { Placement } from "../../lib/count/engine_types.ts";
 import type { MultiPolygonPx } from "../../lib/types.ts";
 import type { PreparedCase, WindowShape } from "../../lib/count/engine_types.ts";
@@ -258,4 +259,54 @@ Deno.test("findBestFieldSet() states its guarantee and sums its fields", () => {
   // FN 22 at 40×: d = 22/40 = 0.55 mm (common practice: diameter = field number / objective;
   // Renne, Pathologica 2023), area π·0.275² = 0.2376 mm² (REFERENCES.md §1). Tolerance 0.05 µm.
   assert.ok(Math.abs(set.window.diameterUm - 550) < 0.05, String(set.window.diameterUm));
+});
+
+Deno.test("RectCell gives every candidate of a cell, exactly counted, in search order", () => {
+  // Reference: the cell's candidate set enumerated directly (all combinations of the
+  // figures' window edges in the cell and the cell centre, nudged by ulps as the search
+  // does), each counted by brute force, sorted by count, then y, then x.
+  const nudged = (v: number, f: number, h: number) => {
+    const buf = new Float64Array(1), bits = new BigInt64Array(buf.buffer);
+    for (let t = 0; t < 64; t++) {
+      if (Math.abs(f - v) <= h) return v;
+      buf[0] = v;
+      bits[0] += (f > v) === (v > 0) ? 1n : -1n;
+      v = buf[0];
+    }
+    return null;
+  };
+  for (
+    const [seed, area, stride] of [[51, 0.012, 20], [52, 0.004, 25], [53, 0.03, 8], [54, 0.004, 40]]
+  ) {
+    const w = makeWindow({ areaMm2: area, aspect: [4, 3] });
+    if (w.shape !== "rect") throw new Error();
+    const hw = w.widthUm / 2, hh = w.heightUm / 2;
+    const { x, y } = randomPoints(seed, 400, [0, 0, 600, 500], 2);
+    const p = prepared(x, y);
+    const map = computeCountMap(p, w, { strideUm: stride, minCoverage: 0.5 });
+    const st = createSearch(p, map);
+    const { nx, x0Um, y0Um, strideUm: s } = map.grid;
+    for (let k = 0; k < map.counts.length; k += 97) {
+      const cx = x0Um + (k % nx) * s, cy = y0Um + Math.floor(k / nx) * s;
+      const xs = new Set([cx]), ys = new Set([cy]);
+      for (let f = 0; f < x.length; f++) {
+        if (Math.abs(x[f] - cx) > hw + s || Math.abs(y[f] - cy) > hh + s) continue;
+        for (const v of [x[f] - hw, x[f] + hw]) {
+          const u = v >= cx - s / 2 && v <= cx + s / 2 ? nudged(v, x[f], hw) : null;
+          if (u !== null) xs.add(u);
+        }
+        for (const v of [y[f] - hh, y[f] + hh]) {
+          const u = v >= cy - s / 2 && v <= cy + s / 2 ? nudged(v, y[f], hh) : null;
+          if (u !== null) ys.add(u);
+        }
+      }
+      const want: [number, number, number][] = [];
+      for (const b of ys) for (const a of xs) want.push([countInWindow(x, y, w, a, b), b, a]);
+      want.sort((u, v) => v[0] - u[0] || u[1] - v[1] || u[2] - v[2]);
+      const cell = new RectCell(st, k, cx, cy, [], 0, true);
+      const got: [number, number, number][] = [];
+      for (let c = cell.next(0); c; c = cell.next(0)) got.push([c.count, c.cy, c.cx]);
+      assert.deepEqual(got, want, `seed ${seed}, cell ${k}`);
+    }
+  }
 });
