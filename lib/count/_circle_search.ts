@@ -6,7 +6,7 @@
  */
 
 import type { Placement } from "./engine_types.ts";
-import { pointsInBox } from "./_figure_buckets.ts";
+import { circleCellFigures } from "./_circle_cell.ts";
 import {
   ADMIT_EPS,
   blockForbidden,
@@ -322,15 +322,9 @@ export function circleSearchBest(st: SearchState, chosen: Placement[]): Placemen
       // circle tolerance outside it) more tightly than the map's slack.
       const cov = exactCoverage(st, cx, cy);
       if (cov + coverageGrowth(st, reachUm, reachUm) + 1e-7 < minCov) continue;
-      const reach = r + (s / 2 + tol) * Math.SQRT2 + 2 * tol;
-      const F0 = pointsInBox(st.buckets, cx - reach, cy - reach, cx + reach, cy + reach);
-      let n = 0;
-      for (const f of F0) {
-        const dx = st.xUm[f] - cx, dy = st.yUm[f] - cy;
-        if (dx * dx + dy * dy <= st.e.radius2) n++;
-      }
-      push(heap, candidateItem({ cx, cy, count: n }));
-      const root = square(st, cx, cy, s / 2, 0, F0);
+      const F = circleCellFigures(st, cx, cy, s / 2);
+      push(heap, candidateItem({ cx, cy, count: F.count }));
+      const root = item(1, F.sureIn + F.A.length, cx, cy, s / 2, F.sureIn, F.A);
       if (root.bound > st.bound[k]) root.bound = st.bound[k];
       if (cov - coverageGrowth(st, reachUm, reachUm) - 1e-7 >= minCov) root.safe = 1;
       push(heap, root);

@@ -42,6 +42,8 @@ export interface SearchState {
   coverageSlack: number;
   overlap: AreaIndex;
   buckets: FigureBuckets;
+  /** Circles: buckets one stride wide, made on first use (see _circle_cell.ts). */
+  fine: FigureBuckets | null;
   /** Statistics of the last search, for tests and benchmarks. */
   stats: { blocks: number; candidates: number; coverageQueries: number };
   /**
@@ -121,6 +123,7 @@ export function createSearch(
     coverageSlack: slack + (map.coverageError ?? 0) + 1e-6,
     overlap: overlap ?? (createOverlapIndex(prepared.validUm) as AreaIndex),
     buckets: bucketFigures(prepared.xUm, prepared.yUm, size),
+    fine: null,
     stats: { blocks: 0, candidates: 0, coverageQueries: 0 },
     memo: new Map(),
     memoUm: s / 4,
