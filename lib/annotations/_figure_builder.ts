@@ -10,6 +10,23 @@ import { DEFAULT_COUNT_LABEL } from "../defaults.ts";
 /** The label a figure gets when its input names none. */
 export const DEFAULT_FIGURE_LABEL = DEFAULT_COUNT_LABEL;
 
+/**
+ * A figure's label as given in a file: trimmed, and the default when empty.
+ *
+ * @example
+ * ```ts
+ * import { figureLabelText } from "./_figure_builder.ts";
+ * if (figureLabelText("  mimic ") !== "mimic" || figureLabelText(" ") !== "mitotic figure") {
+ *   throw new Error("trimmed, default when empty");
+ * }
+ * ```
+ */
+export function figureLabelText(raw: string): string {
+  if (raw === DEFAULT_FIGURE_LABEL) return raw;
+  const label = raw.trim();
+  return label === "" ? DEFAULT_FIGURE_LABEL : label;
+}
+
 /** Appends points one at a time, then freezes them into typed arrays. */
 export class FigureSetBuilder {
   #n = 0;
@@ -38,6 +55,25 @@ export class FigureSetBuilder {
     }
     this.#lastLabel = label;
     this.#lastIndex = li;
+    this.addIndexed(xPx, yPx, li, score, origin);
+  }
+
+  /**
+   * The index of `label`, numbering it now when it is new (labels are
+   * numbered by first appearance: ask just before adding its first point).
+   */
+  labelIndexOf(label: string): number {
+    let li = this.#labelIndex.get(label);
+    if (li === undefined) {
+      li = this.#labels.length;
+      this.#labels.push(label);
+      this.#labelIndex.set(label, li);
+    }
+    return li;
+  }
+
+  /** Adds one point whose label index came from {@linkcode labelIndexOf}. */
+  addIndexed(xPx: number, yPx: number, li: number, score: number, origin: number): void {
     const k = this.#n;
     if (k === this.#x.length) this.#grow();
     this.#x[k] = xPx;

@@ -28,7 +28,7 @@ import type {
   Vec2,
 } from "../types.ts";
 import { describe } from "./_describe.ts";
-import { DEFAULT_FIGURE_LABEL, FigureSetBuilder } from "./_figure_builder.ts";
+import { DEFAULT_FIGURE_LABEL, figureLabelText, FigureSetBuilder } from "./_figure_builder.ts";
 import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
 import { polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
@@ -156,63 +156,125 @@ export function parseAnnotations(
       e,
     );
   }
-  if (root === null || typeof root !== "object" || Array.isArray(root)) {
-    throw fail(
-      TypeError,
-      `not a GeoJSON FeatureCollection (RFC 7946 §3.3): the file holds ${describe(root)}`,
-    );
-  }
-  const fc = root as Record<string, unknown>;
-  if (fc.type !== "FeatureCollection") {
-    throw fail(
-      TypeError,
-      `not a GeoJSON FeatureCollection (RFC 7946 §3.3): found "type" ${describe(fc.type)}${
-        fc.type === "Feature" || typeof fc.coordinates === "object"
-          ? '; wrap the feature(s) in {"type": "FeatureCollection", "features": [...]}'
-          : ""
-      }`,
-    );
-  }
-  if (!Array.isArray(fc.features)) {
-    throw fail(
-      TypeError,
-      `the FeatureCollection has no "features" array (RFC 7946 §3.3): found ${
-        describe(fc.features)
-      }`,
-    );
-  }
-  const features = fc.features as unknown[];
-  if (features.length === 0) {
-    throw fail(
-      TypeError,
-      "the FeatureCollection is empty: it has no features (need tissue or tumour polygons at least)",
-    );
-  }
-  const warnings: string[] = [];
-  const nested = (fc.properties as Record<string, unknown> | null | undefined)?.slide;
-  if (fc.slide === undefined && nested !== undefined && options.slide?.mpp === undefined) {
-    throw fail(
-      TypeError,
-      'the "slide" member is inside the collection\'s "properties"; hotfield reads it at the top level, beside "type" and "features"',
-    );
-  }
-  const merged = mergeSlideMembers(fc.slide, options.slide, options.slideLabels);
-  warnings.push(...merged.warnings);
-  const member = options.slideFile === undefined
-    ? merged.member
-    : withSlideFileFacts(merged.member, options.slideFile, WHAT, file);
-  const slide = parseSlideInfo(member, { what: WHAT, fileName: file });
+  const reader = new AnnotationCollector(root, options);
+  const features = (root as { features: unknown[] }).features;
+  for (let i = 0; i < features.length; i++) reader.feature(features[i], i);
+  return reader.finish();
+}
 
-  const tissue: RegionPart[] = [];
-  const tumour: RegionPart[] = [];
-  const exclude: RegionPart[] = [];
-  const fields: FieldSpec[] = [];
-  const figures = new FigureSetBuilder();
-  const emptyGeometries: number[] = [];
-  const beyondSlide: number[] = [];
+/**
+ * The checks and the collecting of {@linkcode parseAnnotations}, one feature
+ * at a time, so that the byte scanner (`_scan_annotations.ts`) can hand it
+ * the features it does not read itself.
+ *
+ * Order of checks, as the messages depend on it: the root (a
+ * FeatureCollection with a non-empty `features` array; only `Array.isArray`
+ * and `length` are asked of it here), the slide, then each feature in
+ * order. `finish()` adds the warnings about the whole file.
+ *
+ * @example Two features, fed one at a time
+ * ```ts
+ * import { AnnotationCollector } from "./read_annotations.ts";
+ * const root = { type: "FeatureCollection", slide: { mpp: 0.5 }, features: new Array(2) };
+ * const c = new AnnotationCollector(root, { fileName: "a.geojson" });
+ * c.feature({ type: "Feature", properties: { role: "tissue" }, geometry: {
+ *   type: "Polygon", coordinates: [[[0, 0], [9, 0], [9, 9], [0, 0]]] } }, 0);
+ * c.feature({ type: "Feature", properties: { role: "figure" }, geometry: {
+ *   type: "Point", coordinates: [1, 2] } }, 1);
+ * const a = c.finish();
+ * if (a.tissue.length !== 1 || a.figures.xPx[0] !== 1) throw new Error("collected");
+ * ```
+ */
+export class AnnotationCollector {
+  /** The slide, read and checked. */
+  readonly slide: SlideInfo;
+  readonly #file: string;
+  readonly #fail: Fail;
+  readonly #warnings: string[] = [];
+  readonly #tissue: RegionPart[] = [];
+  readonly #tumour: RegionPart[] = [];
+  readonly #exclude: RegionPart[] = [];
+  readonly #fields: FieldSpec[] = [];
+  readonly #figures = new FigureSetBuilder();
+  readonly #emptyGeometries: number[] = [];
+  readonly #beyondSlide: number[] = [];
+  /** Per figure feature read here: feature index and its points' range in the builder. */
+  readonly #figureFeatures: [number, number, number][] = [];
 
-  for (let i = 0; i < features.length; i++) {
-    const f = features[i];
+  /**
+   * Checks the root and reads the slide.
+   *
+   * @param root The parsed root value.
+   * @param options File name and slide fields, as {@linkcode parseAnnotations} takes.
+   * @throws {TypeError | RangeError} As {@linkcode parseAnnotations}.
+   */
+  constructor(root: unknown, options: ParseAnnotationsOptions) {
+    const file = options.fileName;
+    this.#file = file;
+    const fail = (
+      Cls: typeof TypeError | typeof RangeError | typeof SyntaxError,
+      detail: string,
+      cause?: unknown,
+    ) => inputError(Cls, WHAT, file, detail, cause);
+    this.#fail = fail;
+    if (root === null || typeof root !== "object" || Array.isArray(root)) {
+      throw fail(
+        TypeError,
+        `not a GeoJSON FeatureCollection (RFC 7946 §3.3): the file holds ${describe(root)}`,
+      );
+    }
+    const fc = root as Record<string, unknown>;
+    if (fc.type !== "FeatureCollection") {
+      throw fail(
+        TypeError,
+        `not a GeoJSON FeatureCollection (RFC 7946 §3.3): found "type" ${describe(fc.type)}${
+          fc.type === "Feature" || typeof fc.coordinates === "object"
+            ? '; wrap the feature(s) in {"type": "FeatureCollection", "features": [...]}'
+            : ""
+        }`,
+      );
+    }
+    if (!Array.isArray(fc.features)) {
+      throw fail(
+        TypeError,
+        `the FeatureCollection has no "features" array (RFC 7946 §3.3): found ${
+          describe(fc.features)
+        }`,
+      );
+    }
+    const features = fc.features as unknown[];
+    if (features.length === 0) {
+      throw fail(
+        TypeError,
+        "the FeatureCollection is empty: it has no features (need tissue or tumour polygons at least)",
+      );
+    }
+    const warnings = this.#warnings;
+    const nested = (fc.properties as Record<string, unknown> | null | undefined)?.slide;
+    if (fc.slide === undefined && nested !== undefined && options.slide?.mpp === undefined) {
+      throw fail(
+        TypeError,
+        'the "slide" member is inside the collection\'s "properties"; hotfield reads it at the top level, beside "type" and "features"',
+      );
+    }
+    const merged = mergeSlideMembers(fc.slide, options.slide, options.slideLabels);
+    warnings.push(...merged.warnings);
+    const member = options.slideFile === undefined
+      ? merged.member
+      : withSlideFileFacts(merged.member, options.slideFile, WHAT, file);
+    this.slide = parseSlideInfo(member, { what: WHAT, fileName: file });
+  }
+
+  /**
+   * Checks and collects feature i.
+   *
+   * @throws {TypeError | RangeError} As {@linkcode parseAnnotations}.
+   */
+  feature(f: unknown, i: number): void {
+    const file = this.#file, fail = this.#fail, slide = this.slide, warnings = this.#warnings;
+    const tissue = this.#tissue, tumour = this.#tumour, exclude = this.#exclude;
+    const fields = this.#fields, figures = this.#figures;
+    const emptyGeometries = this.#emptyGeometries, beyondSlide = this.#beyondSlide;
     const at = `feature ${i}`;
     if (f === null || typeof f !== "object" || Array.isArray(f)) {
       throw fail(
@@ -264,8 +326,10 @@ export function parseAnnotations(
     if (role === "figure" && type === "Point" && Array.isArray(c) && c.length >= 2) {
       const x = c[0], y = c[1];
       if (typeof x === "number" && typeof y === "number" && Number.isFinite(x + y)) {
-        figures.add(x, y, figureLabel(p.label, at, fail), figureScore(p.score, at, fail), i);
-        continue;
+        const label = figureLabel(p.label, at, fail), score = figureScore(p.score, at, fail);
+        this.#figureFeatures.push([i, figures.length, figures.length + 1]);
+        figures.add(x, y, label, score, i);
+        return;
       }
     }
     const reader = new GeometryReader(at, fail);
@@ -297,6 +361,7 @@ export function parseAnnotations(
         const score = figureScore(p.score, at, fail);
         const points = type === "Point" ? [reader.position(c, "")] : reader.positions(c);
         if (points.length === 0) emptyGeometries.push(i);
+        this.#figureFeatures.push([i, figures.length, figures.length + points.length]);
         for (const [x, y] of points) figures.add(x, y, label, score, i);
         break;
       }
@@ -306,23 +371,77 @@ export function parseAnnotations(
       }
     }
   }
-  if (emptyGeometries.length > 0) {
-    warnings.push(
-      `${file}: ${emptyGeometries.length} feature(s) have an empty geometry and were ignored (features ${
-        listSome(emptyGeometries)
-      })`,
-    );
+
+  /**
+   * The result, with the warnings about the whole file. With `scanned`, the
+   * figure points a byte scanner read itself are merged in feature order
+   * with those read here, and its empty geometries listed with these.
+   */
+  finish(scanned?: ScannedFigures): ParsedAnnotations {
+    const file = this.#file, slide = this.slide, warnings = this.#warnings;
+    const emptyGeometries = scanned
+      ? [...this.#emptyGeometries, ...scanned.emptyGeometries].sort((a, b) => a - b)
+      : this.#emptyGeometries;
+    const beyondSlide = this.#beyondSlide;
+    if (emptyGeometries.length > 0) {
+      warnings.push(
+        `${file}: ${emptyGeometries.length} feature(s) have an empty geometry and were ignored (features ${
+          listSome(emptyGeometries)
+        })`,
+      );
+    }
+    if (beyondSlide.length > 0) {
+      warnings.push(
+        `${file}: ${beyondSlide.length} region feature(s) reach beyond the slide's ${
+          slide.widthPx ?? "?"
+        } × ${slide.heightPx ?? "?"} px (features ${listSome(beyondSlide)})`,
+      );
+    }
+    const figureSet = scanned
+      ? mergeFigures(scanned, this.#figures.build(), this.#figureFeatures)
+      : this.#figures.build();
+    warnings.push(...figurePositionWarnings(figureSet, slide, file, "feature"));
+    return {
+      slide,
+      tissue: this.#tissue,
+      tumour: this.#tumour,
+      exclude: this.#exclude,
+      figures: figureSet,
+      fields: this.#fields,
+      warnings,
+    };
   }
-  if (beyondSlide.length > 0) {
-    warnings.push(
-      `${file}: ${beyondSlide.length} region feature(s) reach beyond the slide's ${
-        slide.widthPx ?? "?"
-      } × ${slide.heightPx ?? "?"} px (features ${listSome(beyondSlide)})`,
-    );
+}
+
+/** Figure points a byte scanner read itself (see {@linkcode AnnotationCollector.finish}). */
+export interface ScannedFigures {
+  /** The points, in feature order (`origin` is the feature index). */
+  figures: FigureSet;
+  /** Scanned figure features with an empty geometry. */
+  emptyGeometries: number[];
+}
+
+/**
+ * Merges scanned points with points read one feature at a time, in feature
+ * order, and numbers the labels by first appearance (as one pass would).
+ */
+function mergeFigures(
+  scanned: ScannedFigures,
+  read: FigureSet,
+  readFeatures: [number, number, number][],
+): FigureSet {
+  const a = scanned.figures;
+  if (read.xPx.length === 0) return a;
+  const out = new FigureSetBuilder();
+  const from = (f: FigureSet, k: number) =>
+    out.add(f.xPx[k], f.yPx[k], f.labels[f.labelIndex[k]], f.score[k], f.origin[k]);
+  let k = 0;
+  for (const [i, lo, hi] of readFeatures) {
+    while (k < a.xPx.length && a.origin[k] < i) from(a, k++);
+    for (let t = lo; t < hi; t++) from(read, t);
   }
-  const figureSet = figures.build();
-  warnings.push(...figurePositionWarnings(figureSet, slide, file, "feature"));
-  return { slide, tissue, tumour, exclude, figures: figureSet, fields, warnings };
+  while (k < a.xPx.length) from(a, k++);
+  return out.build();
 }
 
 type Fail = (
@@ -553,8 +672,7 @@ function figureLabel(raw: unknown, at: string, fail: Fail): string {
       `${at} (role "figure") has a "label" that is not a string: found ${describe(raw)}`,
     );
   }
-  const label = raw.trim();
-  return label === "" ? DEFAULT_FIGURE_LABEL : label;
+  return figureLabelText(raw);
 }
 
 function figureScore(raw: unknown, at: string, fail: Fail): number {

@@ -87,7 +87,8 @@ import { emptyFigureSet } from "./_figure_builder.ts";
 import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
 import { safeCaseId } from "./case_id.ts";
-import { parseAnnotations } from "./read_annotations.ts";
+import { readAnnotationsBytes } from "./_scan_annotations.ts";
+import { decodeText } from "./_decode_text.ts";
 import { parseFiguresCsv } from "./read_figures_csv.ts";
 import { parseSlideInfo, type SlideMember } from "./slide_info.ts";
 import { sha256File } from "../io/hash_file.ts";
@@ -543,7 +544,9 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
     const path = input.annotationsPath;
     const bytes = await read(path, "annotations");
     record("annotations", path, bytes);
-    const parsed = parseAnnotations(decodeText(bytes, "annotations", path), {
+    // The byte scanner reads the usual files; anything it is unsure of goes
+    // through the ordinary reader, which gives the same result and messages.
+    const parsed = readAnnotationsBytes(bytes, {
       fileName: path,
       slide: slideOverride,
       slideLabels,
@@ -803,22 +806,5 @@ async function readBytes(path: string, what: string, at = path): Promise<Uint8Ar
       ? "permission denied"
       : `the file cannot be read (${(e as Error).message})`;
     throw new Error(`Cannot read ${what} "${path}": ${problem}`, { cause: e });
-  }
-}
-
-function decodeText(bytes: Uint8Array, what: string, path: string): string {
-  // The lenient decoder is several times faster; only text holding U+FFFD
-  // (a bad byte, or a genuine replacement character) is decoded again strictly.
-  const text = new TextDecoder("utf-8").decode(bytes);
-  if (!text.includes("\uFFFD")) return text;
-  try {
-    return new TextDecoder("utf-8", { fatal: true }).decode(bytes);
-  } catch {
-    throw inputError(
-      SyntaxError,
-      what,
-      path,
-      "not UTF-8 text (is it a binary file, such as an image?)",
-    );
   }
 }

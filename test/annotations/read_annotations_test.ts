@@ -3,7 +3,11 @@
 // test/reference/README.md).
 
 import { strict as assert } from "node:assert";
-import { parseAnnotations } from "../../lib/annotations/read_annotations.ts";
+import { parseBoth } from "./_both_readers.ts";
+
+// Every input here goes through both the ordinary reader and the byte
+// scanner, which must agree (result, or error class and message).
+const parseAnnotations = parseBoth;
 
 const FILE = "QVT-24-001.geojson";
 const SQUARE = [[[0, 0], [100, 0], [100, 100], [0, 100], [0, 0]]];
