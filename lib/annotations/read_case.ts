@@ -89,7 +89,7 @@ import { locateJsonProblem } from "./_json_location.ts";
 import { safeCaseId } from "./case_id.ts";
 import { readAnnotationsBytes } from "./_scan_annotations.ts";
 import { decodeText } from "./_decode_text.ts";
-import { parseFiguresCsv } from "./read_figures_csv.ts";
+import { readFiguresCsvBytes } from "./_scan_figures_csv.ts";
 import { parseSlideInfo, type SlideMember } from "./slide_info.ts";
 import { sha256File } from "../io/hash_file.ts";
 import { withSlideFileFacts } from "./_slide_facts.ts";
@@ -605,7 +605,7 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
     const path = input.figuresPath;
     const bytes = await read(path, "figures CSV");
     record("figures", path, bytes);
-    const csv = parseFiguresCsv(decodeText(bytes, "figures CSV", path), {
+    const csv = readFiguresCsvBytes(bytes, {
       fileName: path,
       units: input.figureUnits ?? "px",
       mppX: slide.mppX,

@@ -90,7 +90,7 @@ export function parseFiguresCsv(
     );
   }
   const firstLine = text.split(/\r?\n/).find((l) => l.trim() !== "") ?? "";
-  const delimiter = chooseDelimiter(firstLine);
+  const delimiter = csvDelimiter(firstLine);
 
   let rows: { record: string[]; info: { lines: number } }[];
   try {
@@ -106,52 +106,16 @@ export function parseFiguresCsv(
     const line = typeof err.lines === "number" ? `line ${err.lines}: ` : "";
     throw fail(SyntaxError, `${line}not valid CSV (RFC 4180): ${err.message}`, e);
   }
-  const header = rows[0].record.map((h) => h.trim().toLowerCase());
-  const col: Partial<Record<typeof KNOWN[number], number>> = {};
-  const extra: string[] = [];
-  header.forEach((h, k) => {
-    if ((KNOWN as readonly string[]).includes(h)) {
-      const key = h as typeof KNOWN[number];
-      if (col[key] !== undefined) {
-        throw fail(TypeError, `the header names column "${h}" twice: ${quoteHeader(firstLine)}`);
-      }
-      col[key] = k;
-    } else extra.push(rows[0].record[k]);
-  });
-  for (const need of ["x", "y"] as const) {
-    if (col[need] === undefined) {
-      throw fail(
-        TypeError,
-        `no "${need}" column in the header; the first line must name the columns x,y[,label][,score]: found ${
-          quoteHeader(firstLine)
-        }`,
-      );
-    }
-  }
-  if (extra.length > 0) {
-    warnings.push(
-      `${file}: ignored column(s) ${
-        extra.map((c) => JSON.stringify(c)).join(", ")
-      }; hotfield reads x, y, label, score`,
-    );
-  }
-  if (delimiter !== ",") {
-    warnings.push(
-      `${file}: columns are separated by ${delimiter === ";" ? '";"' : "tabs"}, not commas`,
-    );
-  }
+  const { col, warnings: headerWarnings } = csvColumns(rows[0].record, firstLine, delimiter, file);
+  warnings.push(...headerWarnings);
 
   const decimalComma = delimiter === ";";
   let decimalCommaUsed = 0;
   let firstDecimalComma = 0;
   const readNumber = (raw: string, name: string, line: number): number => {
-    let s = raw;
-    if (decimalComma && /^[+-]?\d+,\d+$/.test(s)) {
-      s = s.replace(",", ".");
-      if (decimalCommaUsed++ === 0) firstDecimalComma = line;
-    }
-    const v = s === "" ? NaN : Number(s);
-    if (!Number.isFinite(v)) {
+    const v = csvNumber(raw, decimalComma);
+    if (v.comma && decimalCommaUsed++ === 0) firstDecimalComma = line;
+    if (!Number.isFinite(v.value)) {
       const hint = /,/.test(raw)
         ? "; write numbers with a decimal point and no thousands separator"
         : "";
@@ -160,7 +124,7 @@ export function parseFiguresCsv(
         `line ${line}: ${name} ${raw === "" ? "is empty" : `"${raw}" is not a number`}${hint}`,
       );
     }
-    return v;
+    return v.value;
   };
 
   const figures = new FigureSetBuilder();
@@ -189,16 +153,124 @@ export function parseFiguresCsv(
       figures.add(xPx, yPx, label, score, line);
     } else figures.add(x, y, label, score, line);
   }
+  warnings.push(...csvEndWarnings(file, decimalCommaUsed, firstDecimalComma, figures.length));
+  return { figures: figures.build(), warnings };
+}
+
+/** The warnings a figures CSV gets at its end. */
+export function csvEndWarnings(
+  file: string,
+  decimalCommaUsed: number,
+  firstDecimalComma: number,
+  rows: number,
+): string[] {
+  const warnings: string[] = [];
   if (decimalCommaUsed > 0) {
     warnings.push(
       `${file}: read ${decimalCommaUsed} number(s) with a decimal comma as decimals (first on line ${firstDecimalComma})`,
     );
   }
-  if (figures.length === 0) warnings.push(`${file}: the file has a header but no figure rows`);
-  return { figures: figures.build(), warnings };
+  if (rows === 0) warnings.push(`${file}: the file has a header but no figure rows`);
+  return warnings;
 }
 
-function chooseDelimiter(headerLine: string): string {
+/**
+ * A cell's number as the figures CSV reads it: with `;` as separator, one
+ * decimal comma and no point (`1234,5`) is a decimal (`comma` says so);
+ * otherwise `Number` of the cell; NaN for an empty cell.
+ *
+ * @example
+ * ```ts
+ * import { csvNumber } from "./read_figures_csv.ts";
+ * if (csvNumber("12,5", true).value !== 12.5 || !Number.isNaN(csvNumber("12,5", false).value)) {
+ *   throw new Error("decimal comma only with ';'");
+ * }
+ * ```
+ */
+export function csvNumber(raw: string, decimalComma: boolean): { value: number; comma: boolean } {
+  let s = raw, comma = false;
+  if (decimalComma && /^[+-]?\d+,\d+$/.test(s)) {
+    s = s.replace(",", ".");
+    comma = true;
+  }
+  return { value: s === "" ? NaN : Number(s), comma };
+}
+
+/**
+ * The columns of a figures CSV from its header record (see the module
+ * documentation), with the warnings the header gives.
+ *
+ * @param record The header's cells.
+ * @param firstLine The header line as written (for messages).
+ * @param delimiter The separator found.
+ * @param file The file's path, for messages.
+ * @returns Column index of x, y, label and score, and warnings.
+ * @throws {TypeError} When x or y is missing or a known column repeats.
+ *
+ * @example
+ * ```ts
+ * import { csvColumns } from "./read_figures_csv.ts";
+ * const { col, warnings } = csvColumns(["Y", "x", "note"], "Y,x,note", ",", "f.csv");
+ * if (col.x !== 1 || col.y !== 0 || warnings.length !== 1) throw new Error("columns");
+ * ```
+ */
+export function csvColumns(
+  record: string[],
+  firstLine: string,
+  delimiter: string,
+  file: string,
+): { col: Partial<Record<typeof KNOWN[number], number>>; warnings: string[] } {
+  const fail = (Cls: typeof TypeError, detail: string) => inputError(Cls, WHAT, file, detail);
+  const warnings: string[] = [];
+  const header = record.map((h) => h.trim().toLowerCase());
+  const col: Partial<Record<typeof KNOWN[number], number>> = {};
+  const extra: string[] = [];
+  header.forEach((h, k) => {
+    if ((KNOWN as readonly string[]).includes(h)) {
+      const key = h as typeof KNOWN[number];
+      if (col[key] !== undefined) {
+        throw fail(TypeError, `the header names column "${h}" twice: ${quoteHeader(firstLine)}`);
+      }
+      col[key] = k;
+    } else extra.push(record[k]);
+  });
+  for (const need of ["x", "y"] as const) {
+    if (col[need] === undefined) {
+      throw fail(
+        TypeError,
+        `no "${need}" column in the header; the first line must name the columns x,y[,label][,score]: found ${
+          quoteHeader(firstLine)
+        }`,
+      );
+    }
+  }
+  if (extra.length > 0) {
+    warnings.push(
+      `${file}: ignored column(s) ${
+        extra.map((c) => JSON.stringify(c)).join(", ")
+      }; hotfield reads x, y, label, score`,
+    );
+  }
+  if (delimiter !== ",") {
+    warnings.push(
+      `${file}: columns are separated by ${delimiter === ";" ? '";"' : "tabs"}, not commas`,
+    );
+  }
+
+  return { col, warnings };
+}
+
+/**
+ * The separator of a figures CSV, from its header line: `,` unless the
+ * header only names x and y when split at `;` or a tab.
+ *
+ * @example
+ * ```ts
+ * import { csvDelimiter } from "./read_figures_csv.ts";
+ * if (csvDelimiter("x;y;label") !== ";" || csvDelimiter("x,y") !== ",") throw new Error("separator");
+ * ```
+ */
+export function csvDelimiter(headerLine: string): string {
   const names = (d: string) =>
     headerLine.split(d).map((h) => h.trim().replace(/^"|"$/g, "").toLowerCase());
   const hasXY = (d: string) => {

@@ -10,7 +10,13 @@ import {
   type ParsedAnnotations,
 } from "../../lib/annotations/read_annotations.ts";
 import { readAnnotationsBytes, scanAnnotations } from "../../lib/annotations/_scan_annotations.ts";
+import {
+  parseFiguresCsv,
+  type ParseFiguresCsvOptions,
+} from "../../lib/annotations/read_figures_csv.ts";
+import { readFiguresCsvBytes, scanFiguresCsv } from "../../lib/annotations/_scan_figures_csv.ts";
 import type { FigureSet } from "../../lib/types.ts";
+import { decodeText } from "../../lib/annotations/_decode_text.ts";
 
 /** Counts of inputs the scanner read itself, and all inputs compared. */
 export const scannerUse = { scanned: 0, compared: 0 };
@@ -55,7 +61,7 @@ export function compareBytes(
 ): ParsedAnnotations {
   if (!ordinary && !ordinaryError) {
     try {
-      ordinary = parseAnnotations(decodeLikeLoadCase(bytes, options.fileName), options);
+      ordinary = parseAnnotations(decodeText(bytes, "annotations", options.fileName), options);
     } catch (e) {
       ordinaryError = e as Error;
     }
@@ -92,14 +98,65 @@ export function compareBytes(
   return ordinary!;
 }
 
-function decodeLikeLoadCase(bytes: Uint8Array, file: string): string {
-  const text = new TextDecoder("utf-8").decode(bytes);
-  if (!text.includes("\uFFFD")) return text;
+/** Counts of CSV inputs the scanner read itself, and all compared. */
+export const csvScannerUse = { scanned: 0, compared: 0 };
+
+type CsvResult = { figures: FigureSet; warnings: string[] };
+
+/**
+ * Parses a figures CSV `text` with both readers (parseFiguresCsv on the
+ * text; the byte reader on its UTF-8 bytes), asserts they agree, and returns
+ * the ordinary reader's result (or throws its error).
+ */
+export function parseCsvBoth(text: string, options: ParseFiguresCsvOptions): CsvResult {
+  let ordinary: CsvResult | undefined, ordinaryError: Error | undefined;
   try {
-    return new TextDecoder("utf-8", { fatal: true }).decode(bytes);
-  } catch {
-    throw new SyntaxError(
-      `Cannot read annotations "${file}": not UTF-8 text (is it a binary file, such as an image?)`,
-    );
+    ordinary = parseFiguresCsv(text, options);
+  } catch (e) {
+    ordinaryError = e as Error;
   }
+  return compareCsvBytes(new TextEncoder().encode(text), options, ordinary, ordinaryError);
+}
+
+/** As {@linkcode parseCsvBoth}, from bytes. */
+export function compareCsvBytes(
+  bytes: Uint8Array,
+  options: ParseFiguresCsvOptions,
+  ordinary?: CsvResult,
+  ordinaryError?: Error,
+): CsvResult {
+  if (!ordinary && !ordinaryError) {
+    try {
+      ordinary = parseFiguresCsv(decodeText(bytes, "figures CSV", options.fileName), options);
+    } catch (e) {
+      ordinaryError = e as Error;
+    }
+  }
+  csvScannerUse.compared++;
+  const scanned = scanFiguresCsv(bytes, options);
+  if (scanned) csvScannerUse.scanned++;
+  let fast: CsvResult | undefined, fastError: Error | undefined;
+  try {
+    fast = readFiguresCsvBytes(bytes, options);
+  } catch (e) {
+    fastError = e as Error;
+  }
+  if (ordinaryError) {
+    assert.ok(
+      fastError,
+      `the byte reader accepted what the ordinary one refused: ${ordinaryError.message}`,
+    );
+    assert.ok(!scanned, "the scanner read a file the ordinary reader refuses");
+    assert.equal(fastError.constructor, ordinaryError.constructor);
+    assert.equal(fastError.message, ordinaryError.message);
+    throw ordinaryError;
+  }
+  assert.ok(
+    !fastError,
+    `the byte reader refused what the ordinary one read: ${fastError?.message}`,
+  );
+  const plainCsv = (r: CsvResult) => ({ warnings: r.warnings, figures: plainFigures(r.figures) });
+  assert.deepStrictEqual(plainCsv(fast!), plainCsv(ordinary!));
+  if (scanned) assert.deepStrictEqual(plainCsv(scanned), plainCsv(ordinary!));
+  return ordinary!;
 }

@@ -3,7 +3,11 @@
 // RFC 4180, IETF 2005; key RFC4180 in test/reference/README.md).
 
 import { strict as assert } from "node:assert";
-import { parseFiguresCsv } from "../../lib/annotations/read_figures_csv.ts";
+import { parseCsvBoth } from "./_both_readers.ts";
+
+// Every input here goes through both the ordinary reader and the byte
+// scanner, which must agree (result, or error class and message).
+const parseFiguresCsv = parseCsvBoth;
 
 const FILE = "QVT-24-002.figures.csv";
 const MPP = { mppX: 0.25, mppY: 0.5 };
