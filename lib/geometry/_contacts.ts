@@ -7,6 +7,7 @@
  */
 
 import type { PolygonPx } from "../types.ts";
+import { provesNoContacts } from "./_sweep.ts";
 
 /** Edges of a list of rings, each tagged with a group (e.g. part or set) and its ring. */
 export interface TaggedEdges {
@@ -143,8 +144,18 @@ function meet(t: TaggedEdges, i: number, j: number): [number, number] | null {
 /**
  * Finds contacts between edges. `mode` "all" tests every pair (except
  * harmless adjacent edges); "across" only pairs from different groups.
- * `limitPerGroup` stops after that many contacts involving a group
- * (0 = stop at the first contact overall).
+ * `firstOnly` returns at most the first contact.
+ *
+ * Contacts come in a fixed order that later steps depend on: by the cell
+ * of a uniform grid of about one cell per edge over the edges' bounding box
+ * that holds the meeting point (row-major), then by the two edge numbers; a
+ * pair counts when both edges pass that cell (each edge's x-range in each
+ * grid row, widened by one cell against rounding).
+ *
+ * The search itself uses another grid, sized to the edges (cells a few
+ * edges long, kept in a hash table), so outlines with many short edges cost
+ * O(n) whatever their bounding box: a uniform grid over the box puts an
+ * outline's n edges into about √n cells of √n edges each (O(n^1.5) pairs).
  */
 export function findContacts(
   t: TaggedEdges,
@@ -154,6 +165,191 @@ export function findContacts(
   const n = t.count;
   const out: Contact[] = [];
   if (n < 2) return out;
+  // A set's own edges usually have none, which a sweep proves in O(n log n).
+  // (Across two sets the grid is quick: it pairs only cells both sets pass.)
+  if (mode === "all" && provesNoContacts(t, mode, (i, j) => meet(t, i, j))) return out;
+  const order = reportingGrid(t);
+  const { x0, y0, x1, y1 } = t;
+  const g = t.group;
+  // The search grid: cells about half an edge's |dx| + |dy| on average, so
+  // each edge passes two or three. An edge is entered in every cell it
+  // passes (its x-range in each row of cells it spans), grown by `tol` far
+  // above rounding: edges that meet share a cell, and in a cell only edges
+  // that pass it are paired (not all whose boxes reach it, which matters for
+  // zigzag outlines whose boxes overlap many neighbours).
+  let length = 0;
+  for (let e = 0; e < n; e++) length += Math.abs(x1[e] - x0[e]) + Math.abs(y1[e] - y0[e]);
+  const w = t.maxX - t.minX, h = t.maxY - t.minY;
+  const tol = 1e-9 * (w + h);
+  let size = Math.max(length / (1 * n), 1e3 * tol);
+  if (!(size > 0)) size = 1;
+  const cols = Math.floor((w + 2 * tol) / size) + 3;
+  const visit = (e: number, f: (key: number) => void) => {
+    const ax = x0[e], ay = y0[e], bx = x1[e], by = y1[e];
+    const ylo = ay < by ? ay : by, yhi = ay < by ? by : ay;
+    const ja = Math.floor((ylo - tol - t.minY) / size);
+    const jb = Math.floor((yhi + tol - t.minY) / size);
+    const k = ay === by ? 0 : (bx - ax) / (by - ay);
+    for (let j = ja; j <= jb; j++) {
+      let xa: number, xb: number;
+      if (ja === jb || ax === bx || ay === by) {
+        xa = ax;
+        xb = bx;
+      } else {
+        const r0 = t.minY + j * size, r1 = r0 + size;
+        const ya = r0 > ylo ? r0 : ylo, yb = r1 < yhi ? r1 : yhi;
+        xa = ax + (ya - ay) * k;
+        xb = ax + (yb - ay) * k;
+      }
+      const ia = Math.floor(((xa < xb ? xa : xb) - tol - t.minX) / size);
+      const ib = Math.floor(((xa < xb ? xb : xa) + tol - t.minX) / size);
+      for (let i = ia; i <= ib; i++) f((j + 1) * cols + i + 1);
+    }
+  };
+  let count = 0;
+  for (let e = 0; e < n; e++) visit(e, () => count++);
+  let buckets = 16;
+  while (buckets < 2 * count) buckets *= 2;
+  const mask = buckets - 1;
+  const hash = (key: number) => {
+    // murmur3's finalizer: every key bit reaches the low bits.
+    let h = (key % 4294967296) ^ Math.imul(Math.floor(key / 4294967296), 0x9e3779b1);
+    h = Math.imul(h ^ (h >>> 16), 0x85ebca6b);
+    h = Math.imul(h ^ (h >>> 13), 0xc2b2ae35);
+    return (h ^ (h >>> 16)) & mask;
+  };
+  const start = new Int32Array(buckets + 1);
+  for (let e = 0; e < n; e++) visit(e, (key) => start[hash(key) + 1]++);
+  for (let b = 0; b < buckets; b++) start[b + 1] += start[b];
+  const fill = start.slice(0, buckets);
+  const ids = new Int32Array(count), keys = new Float64Array(count);
+  for (let e = 0; e < n; e++) {
+    visit(e, (key) => {
+      const at = fill[hash(key)]++;
+      ids[at] = e;
+      keys[at] = key;
+    });
+  }
+  const found: [number, number, number, number, number][] = [];
+  // A cell's edges, copied together and sorted by their left x, so that
+  // each is paired only with those whose x-range meets its own.
+  let cap = 64;
+  let E = new Int32Array(cap), AX = new Float64Array(cap), AY = new Float64Array(cap);
+  let BX = new Float64Array(cap), BY = new Float64Array(cap);
+  let LX = new Float64Array(cap), RX = new Float64Array(cap);
+  let LY = new Float64Array(cap), HY = new Float64Array(cap);
+  let sortKey = new Float64Array(cap);
+  const across = mode === "across";
+  for (let bucket = 0; bucket < buckets; bucket++) {
+    const s0 = start[bucket], f0 = start[bucket + 1];
+    if (f0 - s0 < 2) continue;
+    // A bucket may hold several cells: take them one key at a time.
+    for (let p0 = s0; p0 < f0; p0++) {
+      const key = keys[p0];
+      if (key !== key) continue; // NaN: taken with an earlier key
+      let m = 0;
+      for (let p = p0; p < f0; p++) {
+        if (keys[p] !== key) continue;
+        if (p > p0) keys[p] = NaN;
+        if (m === cap) {
+          cap *= 2;
+          const grow = <T extends Int32Array | Float64Array>(a: T, b: T) => (b.set(a), b);
+          E = grow(E, new Int32Array(cap));
+          sortKey = grow(sortKey, new Float64Array(cap));
+        }
+        E[m++] = ids[p];
+      }
+      if (m < 2) continue;
+      if (across) {
+        // Only pairs across groups count: a cell of one group has none.
+        let mixed = false;
+        for (let p = 1; p < m && !mixed; p++) if (g[E[p]] !== g[E[0]]) mixed = true;
+        if (!mixed) continue;
+      }
+      if (AX.length < m) {
+        AX = new Float64Array(cap);
+        AY = new Float64Array(cap);
+        BX = new Float64Array(cap);
+        BY = new Float64Array(cap);
+        LX = new Float64Array(cap);
+        RX = new Float64Array(cap);
+        LY = new Float64Array(cap);
+        HY = new Float64Array(cap);
+      }
+      // Order by left x (ties by edge), as m·2^32 + slot keys sorted natively.
+      for (let p = 0; p < m; p++) {
+        const e = E[p];
+        sortKey[p] = p;
+        LX[p] = x0[e] < x1[e] ? x0[e] : x1[e];
+      }
+      const slots = sortKey.subarray(0, m);
+      if (m > 2) slots.sort((u, v) => LX[u] - LX[v] || u - v);
+      for (let r = 0; r < m; r++) {
+        const e = E[slots[r]];
+        AX[r] = x0[e];
+        AY[r] = y0[e];
+        BX[r] = x1[e];
+        BY[r] = y1[e];
+      }
+      const order2 = new Int32Array(m);
+      for (let r = 0; r < m; r++) order2[r] = E[slots[r]];
+      for (let r = 0; r < m; r++) {
+        const ax = AX[r], ay = AY[r], bx = BX[r], by = BY[r];
+        LX[r] = ax < bx ? ax : bx;
+        RX[r] = ax < bx ? bx : ax;
+        LY[r] = ay < by ? ay : by;
+        HY[r] = ay < by ? by : ay;
+      }
+      for (let p = 0; p < m; p++) {
+        const rx = RX[p], ly = LY[p], hy = HY[p];
+        const ep = order2[p];
+        for (let q = p + 1; q < m; q++) {
+          if (LX[q] > rx) break; // sorted by left x: no later edge reaches this one
+          if (LY[q] > hy || HY[q] < ly) continue;
+          const eq = order2[q];
+          if (across && g[ep] === g[eq]) continue;
+          // The pair in edge order, as the reporting order has it.
+          const lo = ep < eq ? p : q, hi = ep < eq ? q : p;
+          const ax = AX[lo], ay = AY[lo], dx = BX[lo] - ax, dy = BY[lo] - ay;
+          const cx = AX[hi], cy = AY[hi], ex = BX[hi], ey = BY[hi];
+          // Both ends of one edge strictly on one side of the other's line
+          // (and no end on a line): \`meet\` would say no (same expressions).
+          const o1 = dx * (cy - ay) - dy * (cx - ax), o2 = dx * (ey - ay) - dy * (ex - ax);
+          if ((o1 > 0 && o2 > 0) || (o1 < 0 && o2 < 0)) {
+            const fx = ex - cx, fy = ey - cy;
+            const o3 = fx * (ay - cy) - fy * (ax - cx);
+            const o4 = fx * (BY[lo] - cy) - fy * (BX[lo] - cx);
+            if (o3 !== 0 && o4 !== 0) continue;
+          }
+          const i = order2[lo], j = order2[hi];
+          const mp = meet(t, i, j);
+          if (mp === null) continue;
+          const c = order.cellOf(mp[0], mp[1]);
+          if (!order.passes(i, c) || !order.passes(j, c)) continue;
+          found.push([c, i, j, mp[0], mp[1]]);
+        }
+      }
+    }
+  }
+  found.sort((u, v) => u[0] - v[0] || u[1] - v[1] || u[2] - v[2]);
+  for (let k = 0; k < found.length; k++) {
+    const [c, a, b, x, y] = found[k];
+    // A pair sharing several search cells is found more than once.
+    if (k > 0 && found[k - 1][0] === c && found[k - 1][1] === a && found[k - 1][2] === b) continue;
+    out.push({ a, b, x, y });
+    if (firstOnly) return out;
+  }
+  return out;
+}
+
+/**
+ * The uniform grid whose cells order the contacts: about one cell per edge
+ * (at most 4M) over the edges' bounding box, with whether an edge passes a cell.
+ */
+function reportingGrid(
+  t: TaggedEdges,
+): { cellOf(x: number, y: number): number; passes(e: number, c: number): boolean } {
+  const n = t.count;
   const w = t.maxX - t.minX, h = t.maxY - t.minY;
   const cellsWanted = Math.max(1, Math.min(n, 1 << 22));
   let nx = Math.max(1, Math.round(Math.sqrt(cellsWanted * (w > 0 ? w : 1) / (h > 0 ? h : 1))));
@@ -169,64 +365,28 @@ export function findContacts(
     const k = Math.floor((y - t.minY) / ch);
     return k < 0 ? 0 : k >= ny ? ny - 1 : k;
   };
-  // counting pass, then fill (CSR)
-  const counts = new Uint32Array(nx * ny + 1);
   const { x0, y0, x1, y1 } = t;
-  // the cells an edge passes, row by row (its x-range within each row, widened
-  // by one cell against rounding), so long slanted edges do not fill their box
-  const visit = (e: number, f: (c: number) => void) => {
-    const ax = x0[e], ay = y0[e], bx = x1[e], by = y1[e];
-    const ja = cellY(ay < by ? ay : by), jb = cellY(ay < by ? by : ay);
-    if (ja === jb || ax === bx) {
-      const ia = cellX(ax < bx ? ax : bx), ib = cellX(ax < bx ? bx : ax);
-      for (let j = ja; j <= jb; j++) for (let i = ia; i <= ib; i++) f(j * nx + i);
-      return;
-    }
-    const k = (bx - ax) / (by - ay);
-    const ylo = ay < by ? ay : by, yhi = ay < by ? by : ay;
-    for (let j = ja; j <= jb; j++) {
-      const r0 = t.minY + j * ch, r1 = r0 + ch;
+  return {
+    cellOf: (x, y) => cellX(x) + nx * cellY(y),
+    // Whether edge e is among cell c's edges: its x-range in row j, widened
+    // by one cell (or its whole box when it stays in one row or is vertical).
+    passes(e, c) {
+      const ci = c % nx, cj = (c - ci) / nx;
+      const ax = x0[e], ay = y0[e], bx = x1[e], by = y1[e];
+      const ja = cellY(ay < by ? ay : by), jb = cellY(ay < by ? by : ay);
+      if (cj < ja || cj > jb) return false;
+      if (ja === jb || ax === bx) {
+        return ci >= cellX(ax < bx ? ax : bx) && ci <= cellX(ax < bx ? bx : ax);
+      }
+      const k = (bx - ax) / (by - ay);
+      const ylo = ay < by ? ay : by, yhi = ay < by ? by : ay;
+      const r0 = t.minY + cj * ch, r1 = r0 + ch;
       const ya = r0 > ylo ? r0 : ylo, yb = r1 < yhi ? r1 : yhi;
       const xa = ax + (ya - ay) * k, xb = ax + (yb - ay) * k;
       let ia = cellX(xa < xb ? xa : xb) - 1, ib = cellX(xa < xb ? xb : xa) + 1;
       if (ia < 0) ia = 0;
       if (ib > nx - 1) ib = nx - 1;
-      for (let i = ia; i <= ib; i++) f(j * nx + i);
-    }
+      return ci >= ia && ci <= ib;
+    },
   };
-  for (let e = 0; e < n; e++) visit(e, (c) => counts[c]++);
-  const start = new Uint32Array(nx * ny + 1);
-  let total = 0;
-  for (let c = 0; c < nx * ny; c++) {
-    start[c] = total;
-    total += counts[c];
-  }
-  start[nx * ny] = total;
-  const ids = new Uint32Array(total);
-  const fill = start.slice(0, nx * ny);
-  for (let e = 0; e < n; e++) visit(e, (c) => ids[fill[c]++] = e);
-  const g = t.group;
-  for (let c = 0; c < nx * ny; c++) {
-    const s = start[c], f = start[c + 1];
-    if (f - s < 2) continue;
-    for (let p = s; p < f; p++) {
-      const i = ids[p];
-      const ixa = x0[i] < x1[i] ? x0[i] : x1[i], ixb = x0[i] < x1[i] ? x1[i] : x0[i];
-      const iya = y0[i] < y1[i] ? y0[i] : y1[i], iyb = y0[i] < y1[i] ? y1[i] : y0[i];
-      for (let q = p + 1; q < f; q++) {
-        const j = ids[q];
-        if (mode === "across" && g[i] === g[j]) continue;
-        // bbox reject
-        if ((x0[j] < ixa && x1[j] < ixa) || (x0[j] > ixb && x1[j] > ixb)) continue;
-        if ((y0[j] < iya && y1[j] < iya) || (y0[j] > iyb && y1[j] > iyb)) continue;
-        const m = meet(t, i, j);
-        if (m === null) continue;
-        // report a pair once: in the cell holding the meeting point
-        if (cellX(m[0]) + nx * cellY(m[1]) !== c) continue;
-        out.push({ a: i, b: j, x: m[0], y: m[1] });
-        if (firstOnly) return out;
-      }
-    }
-  }
-  return out;
 }

@@ -96,9 +96,17 @@ export function bandHi(b: EdgeBands, k: number): number {
 
 /**
  * Buckets edges into bands of equal height: about `edgesPerBand` edge starts
- * per band, but bands no lower than `minBandHeight`.
+ * per band, but bands no lower than `minBandHeight`. With `compact`, fewer
+ * bands when edges are tall compared with them, so the lists hold about five
+ * entries per edge (zigzag outlines would otherwise list each edge in many
+ * bands); only for callers whose results do not depend on where bands cut.
  */
-export function buildBands(edges: EdgeSet, edgesPerBand = 4, minBandHeight = 0): EdgeBands {
+export function buildBands(
+  edges: EdgeSet,
+  edgesPerBand = 4,
+  minBandHeight = 0,
+  compact = false,
+): EdgeBands {
   const n = edges.count;
   const span = edges.maxY - edges.minY;
   let bandCount = n === 0 || !(span > 0)
@@ -106,6 +114,11 @@ export function buildBands(edges: EdgeSet, edgesPerBand = 4, minBandHeight = 0):
     : Math.max(1, Math.min(1 << 16, Math.ceil(n / edgesPerBand)));
   if (minBandHeight > 0 && span > 0) {
     bandCount = Math.max(1, Math.min(bandCount, Math.floor(span / minBandHeight)));
+  }
+  if (compact && span > 0 && n > 0) {
+    let tall = 0;
+    for (let e = 0; e < n; e++) tall += Math.abs(edges.y1[e] - edges.y0[e]);
+    if (tall > 0) bandCount = Math.max(1, Math.min(bandCount, Math.floor((4 * n * span) / tall)));
   }
   const bandHeight = bandCount === 1 ? (span > 0 ? span : 1) : span / bandCount;
   if (!(bandHeight > 0)) bandCount = 1;

@@ -115,7 +115,7 @@ export function intersectCrossingRings(
   }
   // classify each chain by the midpoint of its first piece against every other used ring
   const usedOuterCount = rings.reduce((s, _, r) => s + (use[r] && isOuter[r] ? 1 : 0), 0);
-  const bands = buildBands(tagged);
+  const bands = buildBands(tagged, 4, 0, true);
   const parity = new Uint8Array(rings.length);
   const touched: number[] = [];
   const keep: Chain[] = [];

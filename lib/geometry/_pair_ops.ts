@@ -138,7 +138,7 @@ export function intersectRegions(a: MultiPolygonPx, b: MultiPolygonPx): MultiPol
     touched[ringPoly[tagged.ring[c.a]]] = 1;
     touched[ringPoly[tagged.ring[c.b]]] = 1;
   }
-  const bBands = buildBands(flattenEdges(bn));
+  const bBands = buildBands(flattenEdges(bn), 4, 0, true);
   const ringBoxes = bn.map((p) => p.map((r) => bboxOf([[r]])));
   for (let i = 0; i < an.length; i++) {
     const p = an[i];

@@ -98,7 +98,8 @@ export function assembleRings(rings: Ring[]): MultiPolygonPx {
 
 /** A ∩ B for regions whose boundaries do not meet (normalized inputs). */
 export function intersectDisjointBoundaries(a: MultiPolygonPx, b: MultiPolygonPx): MultiPolygonPx {
-  const ia = buildBands(flattenEdges(a)), ib = buildBands(flattenEdges(b));
+  const ia = buildBands(flattenEdges(a), 4, 0, true);
+  const ib = buildBands(flattenEdges(b), 4, 0, true);
   const keep: Ring[] = [];
   for (const p of a) for (const r of p) if (classifyRing(ib, r) === 1) keep.push(r);
   for (const p of b) for (const r of p) if (classifyRing(ia, r) === 1) keep.push(r);

@@ -53,7 +53,7 @@ export interface RegionIndex {
  */
 export function createRegionIndex(region: MultiPolygonPx): RegionIndex {
   const edges = flattenEdges(region);
-  const bands: EdgeBands = buildBands(edges);
+  const bands: EdgeBands = buildBands(edges, 4, 0, true);
   const grid = buildCellGrid(bands);
   const test = (x: number, y: number): boolean => {
     if (grid !== null) {

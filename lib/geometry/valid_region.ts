@@ -57,7 +57,7 @@ function fmt(v: number): string {
  * ring). False also when that midpoint lies on another ring.
  */
 function nestingIsConsistent(t: TaggedEdges, polys: PolygonPx[]): boolean {
-  const bands: EdgeBands = buildBands(t);
+  const bands: EdgeBands = buildBands(t, 4, 0, true);
   let rid = 0;
   for (const p of polys) {
     for (let r = 0; r < p.length; r++, rid++) {
