@@ -34,6 +34,36 @@ export function withoutFigures(s: BenchSlide): BenchSlide {
   };
 }
 
+/**
+ * Adds readers' fields to a slide's GeoJSON text: two point fields and two
+ * polygon fields (a rectangle and a 64-gon, about one window in area) near
+ * the tissue's centre, so the field check has work at every outline size.
+ */
+export function withFields(geojson: string, s: BenchSlide): string {
+  const [cx, cy] = [s.slide.width / 2, s.slide.height / 2];
+  const mpp = s.slide.mpp;
+  const hw = 888.8 / mpp, hh = 666.6 / mpp; // a 2.37 mm² 4:3 rectangle, px
+  const rect = [[cx - hw, cy - hh], [cx + hw, cy - hh], [cx + hw, cy + hh], [cx - hw, cy + hh]];
+  const gon = Array.from({ length: 64 }, (_, k) => {
+    const a = (2 * Math.PI * k) / 64;
+    return [Math.round(cx + 4000 + 3500 * Math.cos(a)), Math.round(cy - 3000 + 3500 * Math.sin(a))];
+  });
+  const close = (r: number[][]) => [...r, r[0]];
+  const fields = [
+    { type: "Point", coordinates: [cx - 8000, cy] },
+    { type: "Point", coordinates: [cx + 8000, cy + 2000] },
+    { type: "Polygon", coordinates: [close(rect)] },
+    { type: "Polygon", coordinates: [close(gon)] },
+  ].map((geometry, k) =>
+    JSON.stringify({
+      type: "Feature",
+      properties: { role: "field", reader: `reader-${k % 2}` },
+      geometry,
+    })
+  );
+  return geojson.replace('"features":[\n', `"features":[\n${fields.join(",\n")},\n`);
+}
+
 /** A scaling file: name, GeoJSON path, optional CSV path, and what it varies. */
 export interface ScaleFile {
   name: string;
@@ -50,9 +80,13 @@ export function writeScaleFile(
   figures: number,
   vertices: number,
   csv = false,
+  fields = false,
+  tissueOnly = false,
 ): ScaleFile {
   const s = generateBenchSlide(seed, { figures, tissueVertices: vertices });
-  const name = `slide_f${figures}_v${vertices}${csv ? "_csv" : ""}`;
+  const name = `slide_f${figures}_v${vertices}${csv ? "_csv" : ""}${fields ? "_fields" : ""}${
+    tissueOnly ? "_tissue" : ""
+  }`;
   const geojson = join(dir, `${name}.geojson`);
   if (csv) {
     writeFileSync(geojson, benchSlideGeoJson(withoutFigures(s)));
@@ -60,11 +94,24 @@ export function writeScaleFile(
     writeFileSync(csvPath, benchSlideCsv(s));
     return { name, geojson, csv: csvPath, figures, vertices };
   }
-  writeFileSync(geojson, benchSlideGeoJson(s));
+  const text = benchSlideGeoJson(s, { tissueOnly });
+  writeFileSync(geojson, fields ? withFields(text, s) : text);
   return { name, geojson, figures, vertices };
 }
 
 if (import.meta.main) {
-  const [dir, f, v, csv] = Deno.args;
-  console.log(JSON.stringify(writeScaleFile(dir, 2024, Number(f), Number(v), csv === "csv")));
+  const [dir, f, v, kind] = Deno.args;
+  console.log(
+    JSON.stringify(
+      writeScaleFile(
+        dir,
+        2024,
+        Number(f),
+        Number(v),
+        kind === "csv",
+        kind === "fields" || kind === "fields-tissue",
+        kind === "fields-tissue",
+      ),
+    ),
+  );
 }

@@ -10,6 +10,7 @@ import { stampWindowCounts } from "./stamp_window_counts.ts";
 import { windowExtents } from "./window_contains.ts";
 import { rectCoverage } from "./_coverage_rect.ts";
 import { circleCoverage, circleRaster } from "./_coverage_circle.ts";
+import { circleCoverageBound } from "./_coverage_bound.ts";
 import { createOverlapIndex, regionBBox } from "./_geometry.ts";
 import { DEFAULT_MAX_GRID_CELLS, DEFAULT_MIN_COVERAGE, DEFAULT_STRIDE_UM } from "../defaults.ts";
 import { roundTo } from "../numbers.ts";
@@ -41,6 +42,13 @@ export interface ComputeCountMapOptions {
    * only the grid and the coverage (they bound counts themselves). @default true
    */
   counts?: boolean;
+  /**
+   * Circles only: give each centre's coverage as an upper bound (a staircase
+   * of whole raster cells about the disk, O(cells)), not a raster estimate,
+   * for searches that only use coverage to rule centres out; `admissible`
+   * is then left empty. @default false
+   */
+  coverageUpperBound?: boolean;
 }
 
 /** Default stride, µm. */
@@ -153,6 +161,10 @@ export function computeCountMap(
     discretization = `Counts are exact at every centre of a ${strideUm} µm grid; ` +
       "coverage is exact (V's area in the cells cut by every window edge, summed); " +
       `a hotspot between grid centres can hold more figures (the exact hotspot is searched separately)`;
+  } else if (options.coverageUpperBound) {
+    cover64 = circleCoverageBound(prepared.validUm, grid, e.halfX);
+    discretization = `Counts are exact at every centre of a ${strideUm} µm grid; ` +
+      "circle coverage is an upper bound from whole raster cells about the disk";
   } else {
     const raster = circleRaster(strideUm, e.halfX, options.circleCellsPerStride);
     coverageError = raster.errorBound;
@@ -200,11 +212,14 @@ export function computeCountMap(
   }
   const n = grid.nx * grid.ny;
   const coverage = new Float32Array(n);
-  const admissible = new Uint8Array(n);
+  const bound = window.shape === "circle" && options.coverageUpperBound === true;
+  const admissible = new Uint8Array(bound ? 0 : n);
   let positions = 0;
   for (let k = 0; k < n; k++) {
     coverage[k] = cover64[k];
-    if (cover64[k] >= minCoverage) {
+    // A bound stays a bound in single precision.
+    if (bound && coverage[k] < cover64[k]) coverage[k] = Math.min(1, cover64[k] + 1e-6);
+    else if (!bound && cover64[k] >= minCoverage) {
       admissible[k] = 1;
       positions++;
     }

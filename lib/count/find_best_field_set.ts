@@ -127,9 +127,10 @@ export function findBestFieldSet(
         strideUm: options.strideUm,
         minCoverage: options.minCoverage,
         // The map only prunes the search (which bounds counts itself); every
-        // field's coverage is exact.
+        // field's coverage is exact. Circles: an upper bound is enough.
         circleCellsPerStride: 1,
         exactAdmissibility: false,
+        coverageUpperBound: true,
         counts: window.shape === "rect", // the rectangle search starts from grid counts
       });
     const st = createSearch(prepared, map, options.overlap);

@@ -24,8 +24,24 @@ export interface EdgeSet {
   maxY: number;
 }
 
-/** Flattens a region into oriented edges (zero-length edges dropped). */
+/** Edge sets already made, by region (regions are never changed once built). */
+const flattened = new WeakMap<MultiPolygonPx, EdgeSet>();
+
+/**
+ * Flattens a region into oriented edges (zero-length edges dropped). The
+ * same region object gives the same (shared, read-only) edge set: the
+ * engine flattens one region for several rasters and indexes.
+ */
 export function flattenEdges(region: MultiPolygonPx): EdgeSet {
+  let e = flattened.get(region);
+  if (e === undefined) {
+    e = flattenEdgesOnce(region);
+    flattened.set(region, e);
+  }
+  return e;
+}
+
+function flattenEdgesOnce(region: MultiPolygonPx): EdgeSet {
   let n = 0;
   for (const poly of region) for (const ring of poly) n += ring.length;
   const x0 = new Float64Array(n), y0 = new Float64Array(n);

@@ -146,8 +146,10 @@ export function createRowRasterizer(region: MultiPolygonPx, xEdges: Float64Array
   checkEdges(xEdges, "xEdges");
   const e = flattenEdges(region);
   const nx = xEdges.length - 1;
-  // Edges by their lower y, and the list of edges reaching the current band
-  // kept in their original order (sums must add in the same order as ever).
+  // Edges bucketed by their lower y (each bucket in edge order), and the
+  // list of edges reaching the current band kept in edge order (sums must
+  // add in the same order as ever). Bands asked top to bottom take each
+  // edge once.
   const lowY = new Float64Array(e.count), highY = new Float64Array(e.count);
   let sloped = 0;
   for (let k = 0; k < e.count; k++) {
@@ -156,10 +158,24 @@ export function createRowRasterizer(region: MultiPolygonPx, xEdges: Float64Array
     highY[k] = a < b ? b : a;
     if (a !== b) sloped++;
   }
+  const nb = Math.max(1, Math.min(1 << 16, sloped >> 3));
+  const yMin = e.minY, ySpan = e.maxY - e.minY;
+  const bucketOf = (y: number) => {
+    const b = ySpan > 0 ? Math.floor(((y - yMin) / ySpan) * nb) : 0;
+    return b < 0 ? 0 : b >= nb ? nb - 1 : b;
+  };
+  const bStart = new Int32Array(nb + 1);
+  for (let k = 0; k < e.count; k++) if (e.y0[k] !== e.y1[k]) bStart[bucketOf(lowY[k]) + 1]++;
+  for (let b = 0; b < nb; b++) bStart[b + 1] += bStart[b];
+  const bFill = bStart.slice(0, nb);
   const byLow = new Int32Array(sloped);
-  for (let k = 0, m = 0; k < e.count; k++) if (e.y0[k] !== e.y1[k]) byLow[m++] = k;
-  byLow.sort((a, b) => lowY[a] - lowY[b] || a - b);
-  let next = 0;
+  for (let k = 0; k < e.count; k++) if (e.y0[k] !== e.y1[k]) byLow[bFill[bucketOf(lowY[k])]++] = k;
+  const taken = new Uint8Array(e.count);
+  const bucketDone = (b: number) => {
+    for (let t = bStart[b]; t < bStart[b + 1]; t++) if (!taken[byLow[t]]) return false;
+    return true;
+  };
+  let next = 0; // buckets before this one are wholly taken
   let active = new Int32Array(0);
   let lastY0 = -Infinity, lastYN = -Infinity;
   let area = new Float64Array(0), cover = new Float64Array(0), out = new Float64Array(0);
@@ -171,20 +187,32 @@ export function createRowRasterizer(region: MultiPolygonPx, xEdges: Float64Array
       if (Y0 < lastY0 || YN < lastYN) {
         // Out of order: start the edge list again.
         next = 0;
+        taken.fill(0);
         active = new Int32Array(0);
       }
       lastY0 = Y0;
       lastYN = YN;
-      let m = next;
-      while (m < byLow.length && lowY[byLow[m]] < YN) m++;
-      const fresh = byLow.slice(next, m).sort();
-      next = m;
-      const merged = new Int32Array(active.length + fresh.length);
+      // New edges: those starting above YN in buckets from `next` on.
+      const fresh: number[] = [];
+      const last = bucketOf(YN);
+      for (let b = next; b <= last; b++) {
+        for (let t = bStart[b]; t < bStart[b + 1]; t++) {
+          const k = byLow[t];
+          if (!taken[k] && lowY[k] < YN) {
+            taken[k] = 1;
+            fresh.push(k);
+          }
+        }
+      }
+      // Buckets wholly below YN are done.
+      while (next < nb && (next < last || (next === last && bucketDone(next)))) next++;
+      const add = Int32Array.from(fresh).sort();
+      const merged = new Int32Array(active.length + add.length);
       let a = 0, b = 0, c = 0;
-      while (a < active.length || b < fresh.length) {
-        const k = b >= fresh.length || (a < active.length && active[a] < fresh[b])
+      while (a < active.length || b < add.length) {
+        const k = b >= add.length || (a < active.length && active[a] < add[b])
           ? active[a++]
-          : fresh[b++];
+          : add[b++];
         if (highY[k] > Y0) merged[c++] = k;
       }
       active = merged.subarray(0, c);

@@ -298,5 +298,14 @@ export function polygonOverlapArea(region: MultiPolygonPx, polygon: PolygonPx): 
   if (region.length === 0 || polygon.length === 0) return 0;
   const p = normalizeMultiPolygon([polygon]);
   if (p.length === 0) return 0;
-  return multiPolygonAreaPx2(intersectRegions(normalizeMultiPolygon(region), p));
+  // Several fields are checked against one region: normalize it once.
+  let r = normalizedRegions.get(region);
+  if (r === undefined) {
+    r = normalizeMultiPolygon(region);
+    normalizedRegions.set(region, r);
+  }
+  return multiPolygonAreaPx2(intersectRegions(r, p));
 }
+
+/** Regions already normalized, by region (regions are never changed once built). */
+const normalizedRegions = new WeakMap<MultiPolygonPx, MultiPolygonPx>();

@@ -84,6 +84,36 @@ Deno.test("computeCountMap() rectangle coverage is exact on a raster wider than 
   }
 });
 
+Deno.test("computeCountMap() coverage upper bounds for circles are bounds, and close", () => {
+  // Reference: diskOverlapArea (exact, checked against JSTS in window_overlap_test.ts).
+  // The bound must never be below the exact coverage (1e-6: single precision);
+  // its slack is that of whole raster cells about the disk, a few per cent here.
+  const w = makeWindow({ areaMm2: 0.05, shape: "circle" });
+  if (w.shape !== "circle") throw new Error();
+  const r = w.diameterUm / 2;
+  const p = { validUm: L, xUm: new Float64Array(0), yUm: new Float64Array(0) };
+  for (const strideUm of [7, 20, 45]) {
+    const map = computeCountMap(p as unknown as PreparedCase, w, {
+      strideUm,
+      minCoverage: 0.5,
+      counts: false,
+      coverageUpperBound: true,
+    });
+    const { x0Um, y0Um, nx, ny } = map.grid;
+    let worst = 0;
+    for (let j = 0; j < ny; j++) {
+      for (let i = 0; i < nx; i++) {
+        const cx = x0Um + i * strideUm, cy = y0Um + j * strideUm;
+        const exact = diskOverlapArea(L, [cx, cy], r) / (Math.PI * r * r);
+        const got = map.coverage[j * nx + i];
+        assert.ok(got >= exact - 1e-6, `stride ${strideUm} (${i}, ${j}): ${got} < ${exact}`);
+        worst = Math.max(worst, got - exact);
+      }
+    }
+    assert.ok(worst < 0.25, `stride ${strideUm}: slack ${worst}`);
+  }
+});
+
 Deno.test("computeCountMap() circle coverage stays within its stated error bound", () => {
   const w = makeWindow({ areaMm2: 0.05, shape: "circle" });
   if (w.shape !== "circle") throw new Error();
