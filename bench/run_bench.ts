@@ -9,7 +9,13 @@
  * the ratios measured in the same run rather than single times.
  *
  * Options: `--seed N` (slide seed, default 2024), `--quick` (one repeat of
- * everything, fewer Turf windows), `--skip-process` (no CLI runs).
+ * everything, fewer Turf windows, no 3M-figure or 1M-vertex runs),
+ * `--skip-process` (no CLI runs), `--skip-scaling` (no scaling rows).
+ *
+ * The scaling rows (bench/_scaling.ts) run `hotfield report` on the slide
+ * grown along one axis at a time — 250k/1M/3M figures, 20k/200k/1M outline
+ * vertices, strides 25/10/5 µm, figures as CSV — with the apparent exponent
+ * of each step, and the default report against a bare `JSON.parse`.
  *
  * @module
  */
@@ -20,6 +26,7 @@ import { parseArgs } from "node:util";
 import booleanPointInPolygon from "@turf/boolean-point-in-polygon";
 import { benchSlideGeoJson, generateBenchSlide } from "../lib/demo/bench_slide.ts";
 import { batchBenchRows } from "./batch_bench.ts";
+import { scalingRows } from "./_scaling.ts";
 
 const ROOT = join(import.meta.dirname ?? ".", "..");
 const OUT = join(ROOT, "bench", "output");
@@ -263,6 +270,7 @@ async function main(): Promise<void> {
       seed: { type: "string" },
       quick: { type: "boolean" },
       "skip-process": { type: "boolean" },
+      "skip-scaling": { type: "boolean" },
     },
   });
   const seed = values.seed === undefined ? 2024 : Number(values.seed);
@@ -302,6 +310,10 @@ async function main(): Promise<void> {
     await processRows("tissue only", fileTissue, reps, [["defaults", []]]);
     await batchBenchRows({ root: ROOT, out: OUT, quick, add, log });
     await tissueCommandRow(seed, reps);
+    if (!values["skip-scaling"]) {
+      log("Scaling runs …");
+      await scalingRows({ runProcess, add, log }, join(OUT, "scaling"), seed, reps, quick);
+    }
   }
 
   log("In-process steps …");
@@ -387,6 +399,27 @@ async function main(): Promise<void> {
       `count ${hs.result?.count ?? "none"}; ${runsNote(hs.all)}`,
     );
   } else missing("exact hotspot step", "< 300 ms", "no findHotspot");
+
+  if (typeof count.findTopHotspots === "function") {
+    const tk = best(reps, () => count.findTopHotspots(prepared, map, 3));
+    add(
+      "top 3 separate windows (one search, kept between picks)",
+      ms(tk.ms),
+      "",
+      null,
+      `counts ${tk.result.map((p) => p.count).join(", ")}; ${runsNote(tk.all)}`,
+    );
+  }
+  if (typeof count.findBestFieldSet === "function") {
+    const bf = best(reps, () => count.findBestFieldSet(prepared, { n: 10 }));
+    add(
+      "best set of 10 circular fields (coverage bound map + one kept search)",
+      ms(bf.ms),
+      "",
+      null,
+      `total ${bf.result.total}; ${runsNote(bf.all)}`,
+    );
+  }
 
   if (typeof count.summarizeDistribution === "function") {
     const ds = best(reps, () => count.summarizeDistribution(map));

@@ -768,16 +768,17 @@ class Scanner {
     const c = b[p];
     if (c === 0x22) p = skipString(b, p);
     else if (c === 0x7b || c === 0x5b) {
+      // Bytes other than quotes and brackets are passed in a tight loop.
       let depth = 0;
       for (;;) {
+        while (p < n && SKIP_CLASS[b[p]] === 0) p++;
         if (p >= n) throw GIVE_UP;
-        const d = b[p];
-        if (d === 0x22) {
+        const k = SKIP_CLASS[b[p]];
+        if (k === 1) {
           p = skipString(b, p);
           continue;
         }
-        if (d === 0x7b || d === 0x5b) depth++;
-        else if (d === 0x7d || d === 0x5d) depth--;
+        depth += k === 2 ? 1 : -1;
         p++;
         if (depth === 0) break;
       }
@@ -788,6 +789,15 @@ class Scanner {
     this.p = p;
   }
 }
+
+/** Bytes that matter when skipping a value: 1 quote, 2 an opening bracket, 3 a closing one. */
+const SKIP_CLASS = (() => {
+  const c = new Uint8Array(256);
+  c[0x22] = 1;
+  c[0x7b] = c[0x5b] = 2;
+  c[0x7d] = c[0x5d] = 3;
+  return c;
+})();
 
 /** The position after the string starting at p (an opening quote). */
 function skipString(b: Uint8Array, p: number): number {

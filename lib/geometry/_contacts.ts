@@ -88,6 +88,9 @@ export interface Contact {
   y: number;
 }
 
+/** Edges from which the sweep beats the grid at proving no contact (measured). */
+const SWEEP_FROM = 150_000;
+
 function orient(ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number {
   const v = (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
   return v > 0 ? 1 : v < 0 ? -1 : 0;
@@ -165,14 +168,18 @@ export function findContacts(
   const n = t.count;
   const out: Contact[] = [];
   if (n < 2) return out;
-  // A set's own edges usually have none, which a sweep proves in O(n log n).
-  // (Across two sets the grid is quick: it pairs only cells both sets pass.)
-  if (mode === "all" && provesNoContacts(t, mode, (i, j) => meet(t, i, j))) return out;
+  // A set's own edges usually have none, which a sweep proves in O(n log n);
+  // it costs more than the grid below some 150,000 edges, while the grid's
+  // pairs grow with the square of the edges in crowded outlines. (Across two
+  // sets the grid is quick: it pairs only cells both sets pass.)
+  if (mode === "all" && n >= SWEEP_FROM && provesNoContacts(t, mode, (i, j) => meet(t, i, j))) {
+    return out;
+  }
   const order = reportingGrid(t);
   const { x0, y0, x1, y1 } = t;
   const g = t.group;
-  // The search grid: cells about half an edge's |dx| + |dy| on average, so
-  // each edge passes two or three. An edge is entered in every cell it
+  // The search grid: cells the mean of an edge's |dx| + |dy| wide, so each
+  // edge passes two or three. An edge is entered in every cell it
   // passes (its x-range in each row of cells it spans), grown by `tol` far
   // above rounding: edges that meet share a cell, and in a cell only edges
   // that pass it are paired (not all whose boxes reach it, which matters for
@@ -181,7 +188,7 @@ export function findContacts(
   for (let e = 0; e < n; e++) length += Math.abs(x1[e] - x0[e]) + Math.abs(y1[e] - y0[e]);
   const w = t.maxX - t.minX, h = t.maxY - t.minY;
   const tol = 1e-9 * (w + h);
-  let size = Math.max(length / (1 * n), 1e3 * tol);
+  let size = Math.max(length / n, 1e3 * tol);
   if (!(size > 0)) size = 1;
   const cols = Math.floor((w + 2 * tol) / size) + 3;
   const visit = (e: number, f: (key: number) => void) => {
@@ -208,10 +215,15 @@ export function findContacts(
   };
   let count = 0;
   for (let e = 0; e < n; e++) visit(e, () => count++);
+  // Cells in a plain array when there are not many more of them than entries,
+  // else in a hash table.
+  const rows = Math.floor((h + 2 * tol) / size) + 3;
+  const dense = cols * rows <= 8 * count + 1024;
   let buckets = 16;
   while (buckets < 2 * count) buckets *= 2;
+  if (dense) buckets = cols * rows;
   const mask = buckets - 1;
-  const hash = (key: number) => {
+  const hash = dense ? (key: number) => key : (key: number) => {
     // murmur3's finalizer: every key bit reaches the low bits.
     let h = (key % 4294967296) ^ Math.imul(Math.floor(key / 4294967296), 0x9e3779b1);
     h = Math.imul(h ^ (h >>> 16), 0x85ebca6b);
@@ -238,7 +250,7 @@ export function findContacts(
   let BX = new Float64Array(cap), BY = new Float64Array(cap);
   let LX = new Float64Array(cap), RX = new Float64Array(cap);
   let LY = new Float64Array(cap), HY = new Float64Array(cap);
-  let sortKey = new Float64Array(cap);
+  let sortKey = new Float64Array(cap), order2 = new Int32Array(cap);
   const across = mode === "across";
   for (let bucket = 0; bucket < buckets; bucket++) {
     const s0 = start[bucket], f0 = start[bucket + 1];
@@ -276,14 +288,14 @@ export function findContacts(
         LY = new Float64Array(cap);
         HY = new Float64Array(cap);
       }
-      // Order by left x (ties by edge), as m·2^32 + slot keys sorted natively.
+      // Order by left x (ties by position).
       for (let p = 0; p < m; p++) {
         const e = E[p];
         sortKey[p] = p;
         LX[p] = x0[e] < x1[e] ? x0[e] : x1[e];
       }
       const slots = sortKey.subarray(0, m);
-      if (m > 2) slots.sort((u, v) => LX[u] - LX[v] || u - v);
+      if (m > 16) slots.sort((u, v) => LX[u] - LX[v] || u - v);
       for (let r = 0; r < m; r++) {
         const e = E[slots[r]];
         AX[r] = x0[e];
@@ -291,7 +303,7 @@ export function findContacts(
         BX[r] = x1[e];
         BY[r] = y1[e];
       }
-      const order2 = new Int32Array(m);
+      if (order2.length < m) order2 = new Int32Array(cap);
       for (let r = 0; r < m; r++) order2[r] = E[slots[r]];
       for (let r = 0; r < m; r++) {
         const ax = AX[r], ay = AY[r], bx = BX[r], by = BY[r];
@@ -304,7 +316,10 @@ export function findContacts(
         const rx = RX[p], ly = LY[p], hy = HY[p];
         const ep = order2[p];
         for (let q = p + 1; q < m; q++) {
-          if (LX[q] > rx) break; // sorted by left x: no later edge reaches this one
+          if (LX[q] > rx) {
+            if (m > 16) break; // sorted by left x: no later edge reaches this one
+            continue;
+          }
           if (LY[q] > hy || HY[q] < ly) continue;
           const eq = order2[q];
           if (across && g[ep] === g[eq]) continue;
@@ -313,7 +328,7 @@ export function findContacts(
           const ax = AX[lo], ay = AY[lo], dx = BX[lo] - ax, dy = BY[lo] - ay;
           const cx = AX[hi], cy = AY[hi], ex = BX[hi], ey = BY[hi];
           // Both ends of one edge strictly on one side of the other's line
-          // (and no end on a line): \`meet\` would say no (same expressions).
+          // (and no end on a line): meet() would say no (same expressions).
           const o1 = dx * (cy - ay) - dy * (cx - ax), o2 = dx * (ey - ay) - dy * (ex - ax);
           if ((o1 > 0 && o2 > 0) || (o1 < 0 && o2 < 0)) {
             const fx = ex - cx, fy = ey - cy;

@@ -109,3 +109,18 @@ function meetOf(t: ReturnType<typeof tagEdges>, i: number, j: number): unknown {
   );
   return two.length > 0 ? two[0] : null;
 }
+
+Deno.test("findContacts() on outlines of 200,000 edges (the sweep's range) agrees with the reference", () => {
+  const rnd = seededRandom(7);
+  // A crowded zigzag outline on a 0.1 lattice, clean; then with a hole that crosses it.
+  const ring: Ring = starRing(rnd, 0, 0, 200_000, 4000, 4100).map(
+    ([x, y]) => [Math.round(x * 10) / 10, Math.round(y * 10) / 10] as [number, number],
+  );
+  ring[ring.length - 1] = [ring[0][0], ring[0][1]];
+  const hole: Ring = [[4050, -10], [4050, 10], [3000, 10], [3000, -10], [4050, -10]];
+  for (const polys of [[[ring]], [[ring, hole]]] as PolygonPx[][]) {
+    const got = findContacts(tagEdges(polys, [0]), "all", false);
+    const want = reference.findContacts(reference.tagEdges(polys, [0]), "all", false);
+    assert.deepStrictEqual(got, want);
+  }
+});
