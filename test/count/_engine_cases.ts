@@ -17,10 +17,12 @@
  */
 
 import type { CaseData, FieldSpec, PolygonPx, Ring } from "../../lib/types.ts";
-import type { Placement, ReportOptions } from "../../lib/count/engine_types.ts";
+import type { Placement } from "../../lib/count/engine_types.ts";
+import type { ReportOptions } from "../../lib/pipeline/case_result.ts";
 import { normal, type Random, seededRandom } from "../../lib/random.ts";
-import { blobRing, type Frame, randomProfile, reversed, round1 } from "../../lib/demo/_shapes.ts";
-import { buildCaseResult } from "../../lib/count/build_case_result.ts";
+import { blobRing, type Frame, randomProfile, reversed } from "../../lib/demo/_shapes.ts";
+import { roundTo } from "../../lib/numbers.ts";
+import { buildCaseResult } from "../../lib/pipeline/build_case_result.ts";
 import { checkFields } from "../../lib/count/check_fields.ts";
 
 /** Number of cases. */
@@ -33,6 +35,8 @@ export interface EngineCase {
   caseData: CaseData;
   options: ReportOptions;
 }
+
+const round1 = (v: number) => roundTo(v, 1);
 
 function pick<T>(random: Random, xs: T[]): T {
   return xs[Math.floor(random() * xs.length)];
@@ -138,18 +142,15 @@ export function engineCase(c: number): EngineCase {
   }
 
   const fields: FieldSpec[] = [];
-  const nFields = Math.floor(random() * 4);
+  const nFields = Math.floor(random() * 5);
   for (let f = 0; f < nFields; f++) {
     const cx = round1(frame.cx + frame.rx * (random() - 0.5)),
       cy = round1(frame.cy + frame.ry * (random() - 0.5));
-    if (random() < 0.5) {
-      fields.push({
-        reader: pick(random, ["", "reader-a"]),
-        kind: "point",
-        centerPx: [cx, cy],
-        featureIndex: f,
-      });
-    } else {
+    const reader = pick(random, ["reader-a", "reader-b"]);
+    const kind = random();
+    if (kind < 0.35) {
+      fields.push({ reader, kind: "point", centerPx: [cx, cy], featureIndex: f });
+    } else if (kind < 0.7) {
       const hw = (600 + 400 * random()) / mppX, hh = (500 + 300 * random()) / mppY;
       const polygon: PolygonPx = random() < 0.5 ? [rectRing(cx - hw, cy - hh, cx + hw, cy + hh)] : [
         blobRing(
@@ -158,11 +159,27 @@ export function engineCase(c: number): EngineCase {
           48,
         ),
       ];
+      fields.push({ reader, kind: "polygon", centerPx: [cx, cy], polygon, featureIndex: f });
+    } else if (kind < 0.85) {
+      // Separate areas counted together.
+      const d = 900 / mppX;
+      const parts: PolygonPx[] = [
+        [rectRing(cx - d, cy - d / 2, cx - d / 4, cy + d / 2)],
+        [rectRing(cx + d / 4, cy - d / 2, cx + d, cy + d / 2)],
+      ];
+      fields.push({ reader, kind: "polygons", centerPx: [cx, cy], parts, featureIndex: f });
+    } else {
+      // Circular microscope fields, one at each point.
+      const pointsPx: [number, number][] = Array.from({ length: 1 + Math.floor(random() * 4) }, (
+        _,
+        k,
+      ) => [round1(cx + (k * 700) / mppX), round1(cy + (k % 2) * (300 / mppY))]);
       fields.push({
-        reader: "reader-b",
-        kind: "polygon",
+        reader,
+        kind: "circles",
         centerPx: [cx, cy],
-        polygon,
+        pointsPx,
+        diameterMm: 0.55,
         featureIndex: f,
       });
     }
