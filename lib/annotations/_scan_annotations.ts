@@ -70,6 +70,13 @@ const TYPE = ascii("type"),
   COORDINATES = ascii("coordinates"),
   FEATURES = ascii("features");
 
+// The usual compact form of a figure Point feature (see Scanner.compact).
+const HEAD = ascii('{"type":"Feature","properties":{"role":"figure"');
+const LABEL_MEMBER = ascii(',"label":"');
+const SCORE_MEMBER = ascii(',"score":');
+const POINT_MIDDLE = ascii('},"geometry":{"type":"Point","coordinates":[');
+const POINT_TAIL = ascii("]}}");
+
 const strictDecoder = new TextDecoder("utf-8", { fatal: true, ignoreBOM: true });
 
 /**
@@ -241,7 +248,7 @@ class Scanner {
     for (let i = 0;; i++) {
       this.ws();
       const start = this.p;
-      if (!(b[start] === 0x7b && this.figure(i))) {
+      if (!(b[start] === 0x7b && (this.compact(i) || ((this.p = start), this.figure(i))))) {
         this.p = start;
         this.skip();
         others.push([i, parseSpan(b, start, this.p)]);
@@ -252,6 +259,70 @@ class Scanner {
       if (c === 0x5d) return i + 1;
       throw GIVE_UP;
     }
+  }
+
+  /**
+   * Reads feature i when it is written in the usual compact form, members
+   * in the usual order and no white space —
+   * `{"type":"Feature","properties":{"role":"figure"[,"label":"…"][,"score":n]},"geometry":{"type":"Point","coordinates":[x,y]}}`
+   * — by comparing it with that form byte for byte; false (nothing added)
+   * for anything else, which `figure` then reads member by member.
+   */
+  compact(i: number): boolean {
+    const b = this.b, n = this.n;
+    let p = this.p;
+    const match = (t: Uint8Array) => {
+      if (p + t.length > n) return false;
+      for (let k = 0; k < t.length; k++) if (b[p + k] !== t[k]) return false;
+      p += t.length;
+      return true;
+    };
+    if (!match(HEAD)) return false;
+    let labelStart = -1, labelEnd = -1, ascii = true, score = NaN;
+    if (match(LABEL_MEMBER)) {
+      labelStart = p;
+      for (;;) {
+        if (p >= n) return false;
+        const c = b[p];
+        if (c === 0x22) break;
+        if (c === 0x5c || c < 0x20) return false;
+        if (c >= 0x80) ascii = false;
+        p++;
+      }
+      labelEnd = p++;
+      if (!ascii) {
+        try {
+          strictDecoder.decode(b.subarray(labelStart, labelEnd));
+        } catch {
+          return false;
+        }
+      }
+    }
+    if (match(SCORE_MEMBER)) {
+      const c = b[p];
+      if (!(c === 0x2d || (c >= 0x30 && c <= 0x39))) return false;
+      this.p = p;
+      score = this.number();
+      p = this.p;
+      if (!(score >= 0 && score <= 1)) return false;
+    }
+    if (!match(POINT_MIDDLE)) return false;
+    let c = b[p];
+    if (!(c === 0x2d || (c >= 0x30 && c <= 0x39))) return false;
+    this.p = p;
+    const x = this.number();
+    p = this.p;
+    if (b[p++] !== 0x2c) return false;
+    c = b[p];
+    if (!(c === 0x2d || (c >= 0x30 && c <= 0x39))) return false;
+    this.p = p;
+    const y = this.number();
+    p = this.p;
+    if (!match(POINT_TAIL) || !Number.isFinite(x) || !Number.isFinite(y)) return false;
+    const li = labelStart < 0 ? this.defaultLabel() : this.labelIndex(labelStart, labelEnd, ascii);
+    this.figures.addIndexed(x, y, li, score, i);
+    this.p = p;
+    return true;
   }
 
   /**
@@ -516,32 +587,17 @@ class Scanner {
     const start = this.p + 1;
     if (b[this.p] !== 0x22 || this.plainString() < 0) return -1;
     const len = this.p - 1 - start;
+    const c = b[start];
     let name: Uint8Array, id: number;
-    switch (len) {
-      case 4:
-        if (b[start] === 0x74) [name, id] = [TYPE, K_TYPE];
-        else if (b[start] === 0x72) [name, id] = [ROLE, K_ROLE];
-        else return K_OTHER;
-        break;
-      case 5:
-        if (b[start] === 0x6c) [name, id] = [LABEL, K_LABEL];
-        else if (b[start] === 0x73) [name, id] = [SCORE, K_SCORE];
-        else return K_OTHER;
-        break;
-      case 8:
-        if (b[start] === 0x67) [name, id] = [GEOMETRY, K_GEOMETRY];
-        else if (b[start] === 0x66) [name, id] = [FEATURES, K_FEATURES];
-        else return K_OTHER;
-        break;
-      case 10:
-        [name, id] = [PROPERTIES, K_PROPERTIES];
-        break;
-      case 11:
-        [name, id] = [COORDINATES, K_COORDINATES];
-        break;
-      default:
-        return K_OTHER;
-    }
+    if (len === 4 && c === 0x74) (name = TYPE), (id = K_TYPE);
+    else if (len === 4 && c === 0x72) (name = ROLE), (id = K_ROLE);
+    else if (len === 5 && c === 0x6c) (name = LABEL), (id = K_LABEL);
+    else if (len === 5 && c === 0x73) (name = SCORE), (id = K_SCORE);
+    else if (len === 8 && c === 0x67) (name = GEOMETRY), (id = K_GEOMETRY);
+    else if (len === 8 && c === 0x66) (name = FEATURES), (id = K_FEATURES);
+    else if (len === 10 && c === 0x70) (name = PROPERTIES), (id = K_PROPERTIES);
+    else if (len === 11 && c === 0x63) (name = COORDINATES), (id = K_COORDINATES);
+    else return K_OTHER;
     for (let t = 1; t < len; t++) if (b[start + t] !== name[t]) return K_OTHER;
     return id;
   }

@@ -795,7 +795,12 @@ function fileStem(path: string): string {
 
 async function readBytes(path: string, what: string, at = path): Promise<Uint8Array> {
   try {
-    return new Uint8Array(await readFile(at));
+    // The Buffer's own bytes when it has its memory to itself (a copy of a
+    // large file costs about as much as reading it); a copy otherwise.
+    const buf = await readFile(at);
+    return buf.byteOffset === 0 && buf.byteLength === buf.buffer.byteLength
+      ? new Uint8Array(buf.buffer, 0, buf.byteLength)
+      : new Uint8Array(buf);
   } catch (e) {
     const code = (e as { code?: string }).code;
     const problem = code === "ENOENT"

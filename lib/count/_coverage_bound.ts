@@ -91,7 +91,7 @@ export function circleCoverageBound(
   const r = radiusUm;
   // Cells of a stride / q, no wider than r/16 (at most 4 per stride): centres
   // stay on cell corners, q apart.
-  const q = Math.max(1, Math.min(4, Math.ceil(s / (r / 16))));
+  const q = Math.max(1, Math.min(4, Math.ceil(s / (r / 8))));
   const c = s / q;
   const R = Math.ceil(r / c) + 1;
   const S = slabs(r, c, R);

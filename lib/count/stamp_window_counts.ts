@@ -90,22 +90,25 @@ export function stampWindowCounts(
   }
   const r = e.halfX, r2 = e.radius2;
   const diff = new Int32Array(w1 * ny);
+  // Estimates by multiplication (the ends are fixed with the exact test anyway).
+  const inv = 1 / s;
   for (let k = 0; k < n; k++) {
     const x = xUm[k], y = yUm[k];
     const [j0, j1] = exactRange(
-      Math.ceil((y - r - y0) / s),
-      Math.floor((y + r - y0) / s),
+      Math.ceil((y - r - y0) * inv),
+      Math.floor((y + r - y0) * inv),
       ny,
       (j) => Math.abs(y - (y0 + j * s)) <= r,
     );
+    const xl = x - x0;
     for (let j = j0; j <= j1; j++) {
       const dy = y - (y0 + j * s);
       const dy2 = dy * dy;
       const half = Math.sqrt(Math.max(0, r2 - dy2));
       // Same as exactRange with the windowContains test, inlined: this loop
       // runs points × rows times.
-      let i0 = Math.max(0, Math.min(nx - 1, Math.ceil((x - half - x0) / s)));
-      let i1 = Math.max(0, Math.min(nx - 1, Math.floor((x + half - x0) / s)));
+      let i0 = Math.max(0, Math.min(nx - 1, Math.ceil((xl - half) * inv)));
+      let i1 = Math.max(0, Math.min(nx - 1, Math.floor((xl + half) * inv)));
       let dx = 0;
       if (i0 > i1) {
         const mid = i0;

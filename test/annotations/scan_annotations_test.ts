@@ -210,3 +210,45 @@ Deno.test("scanAnnotations() agrees with the ordinary reader on seeded corruptio
   }
   assert.ok(refused > 300, `${refused} refused`);
 });
+
+/** A file in the usual compact form: members in the usual order, no white space. */
+function compactFile(seed: number): string {
+  const rnd = seededRandom(seed);
+  const pick = <T>(xs: T[]) => xs[Math.floor(rnd() * xs.length)];
+  const features: unknown[] = [{
+    type: "Feature",
+    properties: { role: "tissue" },
+    geometry: { type: "Polygon", coordinates: [[[0, 0], [1e4, 0], [1e4, 1e4], [0, 1e4], [0, 0]]] },
+  }];
+  for (let i = 0; i < 80; i++) {
+    const properties: Record<string, unknown> = { role: "figure" };
+    if (rnd() < 0.7) properties.label = pick(LABELS);
+    if (rnd() < 0.7) properties.score = pick([0, 1, 0.5, Math.round(rnd() * 1000) / 1000, 1e-7]);
+    const x = pick([Math.round(rnd() * 1e5) / 10, rnd() * 1e4, -0, 12345678901234567890]);
+    features.push({
+      type: "Feature",
+      properties,
+      geometry: { type: "Point", coordinates: [x, Math.round(rnd() * 1e5) / 10] },
+    });
+  }
+  return JSON.stringify({ type: "FeatureCollection", slide: { mpp: 0.25 }, features });
+}
+
+Deno.test("scanAnnotations() agrees with the ordinary reader on compact files and their corruptions", () => {
+  const rnd = seededRandom(79);
+  const tokens = [...'{}[],:"\\ 0123456789.-eE', "null", "1e400", "\u00e9"];
+  let scanned = 0;
+  for (let seed = 1; seed <= 40; seed++) {
+    const text = compactFile(seed);
+    const before = scannerUse.scanned;
+    assert.equal(agree(new TextEncoder().encode(text)), "read");
+    if (scannerUse.scanned > before) scanned++;
+    for (let t = 0; t < 15; t++) {
+      const bytes = new TextEncoder().encode(text);
+      const at = Math.floor(rnd() * bytes.length);
+      const tok = new TextEncoder().encode(tokens[Math.floor(rnd() * tokens.length)]);
+      agree(new Uint8Array([...bytes.subarray(0, at), ...tok, ...bytes.subarray(at + 1)]));
+    }
+  }
+  assert.equal(scanned, 40);
+});
