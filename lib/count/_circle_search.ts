@@ -319,14 +319,21 @@ export function circleSearchBest(st: SearchState, chosen: Placement[]): Placemen
       st.stats.blocks++;
       const cx = x0Um + (k % nx) * s, cy = y0Um + Math.floor(k / nx) * s;
       // One exact query bounds every centre of the cell (candidates may sit a
-      // circle tolerance outside it) more tightly than the map's slack.
-      const cov = exactCoverage(st, cx, cy);
-      if (cov + coverageGrowth(st, reachUm, reachUm) + 1e-7 < minCov) continue;
+      // circle tolerance outside it) more tightly than the map's slack; a map
+      // of coverage bounds may already settle it either way (a cell kept or
+      // left safe only for want of the query just gets more exact queries later).
+      const grow = coverageGrowth(st, reachUm, reachUm) + 1e-7;
+      const low = map.coverageLow;
+      let cov: number;
+      if (low && map.coverage[k] + grow < minCov) continue;
+      if (low && low[k] - grow >= minCov) cov = low[k];
+      else cov = exactCoverage(st, cx, cy);
+      if (cov + grow < minCov) continue;
       const F = circleCellFigures(st, cx, cy, s / 2);
       push(heap, candidateItem({ cx, cy, count: F.count }));
       const root = item(1, F.sureIn + F.A.length, cx, cy, s / 2, F.sureIn, F.A);
       if (root.bound > st.bound[k]) root.bound = st.bound[k];
-      if (cov - coverageGrowth(st, reachUm, reachUm) - 1e-7 >= minCov) root.safe = 1;
+      if (cov - grow >= minCov) root.safe = 1;
       push(heap, root);
     } else if (top.kind === 1) {
       if (squareForbidden(st, top.x, top.y, top.h, chosen)) continue;

@@ -78,12 +78,15 @@ function slabs(r: number, c: number, R: number): Slab[] {
  * @param regionUm V, µm.
  * @param grid The grid of centres.
  * @param radiusUm The disk's radius, µm.
+ * @param low When given, filled with lower bounds: area(V ∩ inner) and
+ *   area(V ∩ outer) − area(outer ∖ disk), the larger, less 1e-9 of the disk.
  * @returns Upper bounds in [0, 1], row-major.
  */
 export function circleCoverageBound(
   regionUm: MultiPolygonPx,
   grid: StrideGrid,
   radiusUm: number,
+  low?: Float64Array,
 ): Float64Array {
   const { x0Um, y0Um, strideUm: s, nx, ny } = grid;
   const out = new Float64Array(nx * ny);
@@ -127,8 +130,11 @@ export function circleCoverageBound(
   };
   ring.fill(0, 0, w);
   const area = Math.PI * r * r;
-  let innerArea = 0;
-  for (const s of S) innerArea += (s.t1 - s.t0) * 2 * s.inner * c * c;
+  let innerArea = 0, outerArea = 0;
+  for (const s of S) {
+    innerArea += (s.t1 - s.t0) * 2 * s.inner * c * c;
+    outerArea += (s.t1 - s.t0) * 2 * s.out * c * c;
+  }
   for (let j = 0; j < ny; j++) {
     const rc = R + q * j;
     need(rc + R);
@@ -147,6 +153,11 @@ export function circleCoverageBound(
       }
       const bound = Math.min(outer, area - innerArea + inner) / area + 1e-9;
       out[j * nx + i] = bound < 0 ? 0 : bound > 1 ? 1 : bound;
+      if (low) {
+        // V ∩ inner lies in the disk; V ∩ disk holds V ∩ outer but what lies outside the disk.
+        const l = Math.max(inner, outer - (outerArea - area)) / area - 1e-9;
+        low[j * nx + i] = l < 0 ? 0 : l > 1 ? 1 : l;
+      }
     }
   }
   return out;

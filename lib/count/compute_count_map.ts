@@ -45,8 +45,8 @@ export interface ComputeCountMapOptions {
   /**
    * Circles only: give each centre's coverage as an upper bound (a staircase
    * of whole raster cells about the disk, O(cells)), not a raster estimate,
-   * for searches that only use coverage to rule centres out; `admissible`
-   * is then left empty. @default false
+   * for searches that only use coverage to rule centres out, and a lower
+   * bound in `coverageLow`; `admissible` is then left empty. @default false
    */
   coverageUpperBound?: boolean;
 }
@@ -154,6 +154,7 @@ export function computeCountMap(
     : stampWindowCounts(prepared.xUm, prepared.yUm, window, grid);
   const e = windowExtents(window);
   let cover64: Float64Array;
+  let low64: Float64Array | undefined;
   let discretization: string;
   let coverageError = 0;
   if (window.shape === "rect") {
@@ -162,7 +163,8 @@ export function computeCountMap(
       "coverage is exact (V's area in the cells cut by every window edge, summed); " +
       `a hotspot between grid centres can hold more figures (the exact hotspot is searched separately)`;
   } else if (options.coverageUpperBound) {
-    cover64 = circleCoverageBound(prepared.validUm, grid, e.halfX);
+    low64 = new Float64Array(grid.nx * grid.ny);
+    cover64 = circleCoverageBound(prepared.validUm, grid, e.halfX, low64);
     discretization = `Counts are exact at every centre of a ${strideUm} µm grid; ` +
       "circle coverage is an upper bound from whole raster cells about the disk";
   } else {
@@ -224,7 +226,7 @@ export function computeCountMap(
       positions++;
     }
   }
-  return {
+  const map: CountMap = {
     grid,
     window,
     counts,
@@ -235,4 +237,14 @@ export function computeCountMap(
     discretization,
     coverageError,
   };
+  if (low64) {
+    // A lower bound stays one in single precision.
+    const low = new Float32Array(n);
+    for (let k = 0; k < n; k++) {
+      low[k] = low64[k];
+      if (low[k] > low64[k]) low[k] = Math.max(0, low64[k] - 1e-6);
+    }
+    map.coverageLow = low;
+  }
+  return map;
 }

@@ -127,6 +127,11 @@ export interface CountMap {
    * area): 0 for rectangles (exact up to rounding), the raster bound for circles.
    */
   coverageError?: number;
+  /**
+   * With `computeCountMap`'s `coverageUpperBound`: a lower bound of the true
+   * coverage at each centre (`coverage` then holds an upper bound).
+   */
+  coverageLow?: Float32Array;
 }
 
 /** One placed window. */

@@ -84,10 +84,11 @@ Deno.test("computeCountMap() rectangle coverage is exact on a raster wider than 
   }
 });
 
-Deno.test("computeCountMap() coverage upper bounds for circles are bounds, and close", () => {
+Deno.test("computeCountMap() coverage bounds for circles are bounds, and close", () => {
   // Reference: diskOverlapArea (exact, checked against JSTS in window_overlap_test.ts).
-  // The bound must never be below the exact coverage (1e-6: single precision);
-  // its slack is that of whole raster cells about the disk, a few per cent here.
+  // The upper bound must never be below the exact coverage, nor the lower one
+  // above it (1e-6: single precision); their slack is that of whole raster
+  // cells about the disk, a few per cent here.
   const w = makeWindow({ areaMm2: 0.05, shape: "circle" });
   if (w.shape !== "circle") throw new Error();
   const r = w.diameterUm / 2;
@@ -105,9 +106,10 @@ Deno.test("computeCountMap() coverage upper bounds for circles are bounds, and c
       for (let i = 0; i < nx; i++) {
         const cx = x0Um + i * strideUm, cy = y0Um + j * strideUm;
         const exact = diskOverlapArea(L, [cx, cy], r) / (Math.PI * r * r);
-        const got = map.coverage[j * nx + i];
+        const got = map.coverage[j * nx + i], low = map.coverageLow![j * nx + i];
         assert.ok(got >= exact - 1e-6, `stride ${strideUm} (${i}, ${j}): ${got} < ${exact}`);
-        worst = Math.max(worst, got - exact);
+        assert.ok(low <= exact + 1e-6, `stride ${strideUm} (${i}, ${j}): low ${low} > ${exact}`);
+        worst = Math.max(worst, got - exact, exact - low);
       }
     }
     assert.ok(worst < 0.25, `stride ${strideUm}: slack ${worst}`);
