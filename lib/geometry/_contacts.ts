@@ -88,6 +88,8 @@ export interface Contact {
   y: number;
 }
 
+/** Edges from which the sized grid beats the uniform one (measured). */
+const UNIFORM_BELOW = 50_000;
 /** Edges from which the sweep beats the grid at proving no contact (measured). */
 const SWEEP_FROM = 150_000;
 
@@ -155,12 +157,33 @@ function meet(t: TaggedEdges, i: number, j: number): [number, number] | null {
  * pair counts when both edges pass that cell (each edge's x-range in each
  * grid row, widened by one cell against rounding).
  *
- * The search itself uses another grid, sized to the edges (cells a few
- * edges long, kept in a hash table), so outlines with many short edges cost
- * O(n) whatever their bounding box: a uniform grid over the box puts an
- * outline's n edges into about √n cells of √n edges each (O(n^1.5) pairs).
+ * Below 50,000 edges that grid is searched itself. From there a grid sized
+ * to the edges is searched ({@linkcode sizedGridContacts}), and from 150,000
+ * edges a set's own edges (mode "all") are first swept (`_sweep.ts`), which
+ * proves in O(n log n) that the usual valid outline has no contact at all.
  */
 export function findContacts(
+  t: TaggedEdges,
+  mode: "all" | "across",
+  firstOnly: boolean,
+): Contact[] {
+  if (t.count < UNIFORM_BELOW) return uniformGridContacts(t, mode, firstOnly);
+  if (
+    mode === "all" && t.count >= SWEEP_FROM && provesNoContacts(t, mode, (i, j) => meet(t, i, j))
+  ) {
+    return [];
+  }
+  return sizedGridContacts(t, mode, firstOnly);
+}
+
+/**
+ * {@linkcode findContacts} searched on a grid sized to the edges (cells the
+ * mean of an edge's |dx| + |dy| wide, in a plain array or a hash table):
+ * O(n) for outlines of many short edges whatever their bounding box, where
+ * the uniform grid puts an outline's n edges into about √n cells of √n
+ * edges each. The same contacts in the same order (exported for tests).
+ */
+export function sizedGridContacts(
   t: TaggedEdges,
   mode: "all" | "across",
   firstOnly: boolean,
@@ -168,13 +191,6 @@ export function findContacts(
   const n = t.count;
   const out: Contact[] = [];
   if (n < 2) return out;
-  // A set's own edges usually have none, which a sweep proves in O(n log n);
-  // it costs more than the grid below some 150,000 edges, while the grid's
-  // pairs grow with the square of the edges in crowded outlines. (Across two
-  // sets the grid is quick: it pairs only cells both sets pass.)
-  if (mode === "all" && n >= SWEEP_FROM && provesNoContacts(t, mode, (i, j) => meet(t, i, j))) {
-    return out;
-  }
   const order = reportingGrid(t);
   const { x0, y0, x1, y1 } = t;
   const g = t.group;
@@ -404,4 +420,96 @@ function reportingGrid(
       return ci >= ia && ci <= ib;
     },
   };
+}
+
+/**
+ * The contact search on a uniform grid of about one cell per edge over the
+ * edges' bounding box: each cell's edges are paired, a pair reported in the
+ * cell holding its meeting point. Quick for a few tens of thousands of
+ * edges; an outline's n edges crowd into about √n cells, so its pairs grow
+ * as n^1.5 (and as n² when edges zigzag).
+ */
+function uniformGridContacts(
+  t: TaggedEdges,
+  mode: "all" | "across",
+  firstOnly: boolean,
+): Contact[] {
+  const n = t.count;
+  const out: Contact[] = [];
+  if (n < 2) return out;
+  const w = t.maxX - t.minX, h = t.maxY - t.minY;
+  const cellsWanted = Math.max(1, Math.min(n, 1 << 22));
+  let nx = Math.max(1, Math.round(Math.sqrt(cellsWanted * (w > 0 ? w : 1) / (h > 0 ? h : 1))));
+  let ny = Math.max(1, Math.round(cellsWanted / nx));
+  if (!(w > 0)) nx = 1;
+  if (!(h > 0)) ny = 1;
+  const cw = w > 0 ? w / nx : 1, ch = h > 0 ? h / ny : 1;
+  const cellX = (x: number) => {
+    const k = Math.floor((x - t.minX) / cw);
+    return k < 0 ? 0 : k >= nx ? nx - 1 : k;
+  };
+  const cellY = (y: number) => {
+    const k = Math.floor((y - t.minY) / ch);
+    return k < 0 ? 0 : k >= ny ? ny - 1 : k;
+  };
+  // counting pass, then fill (CSR)
+  const counts = new Uint32Array(nx * ny + 1);
+  const { x0, y0, x1, y1 } = t;
+  // the cells an edge passes, row by row (its x-range within each row, widened
+  // by one cell against rounding), so long slanted edges do not fill their box
+  const visit = (e: number, f: (c: number) => void) => {
+    const ax = x0[e], ay = y0[e], bx = x1[e], by = y1[e];
+    const ja = cellY(ay < by ? ay : by), jb = cellY(ay < by ? by : ay);
+    if (ja === jb || ax === bx) {
+      const ia = cellX(ax < bx ? ax : bx), ib = cellX(ax < bx ? bx : ax);
+      for (let j = ja; j <= jb; j++) for (let i = ia; i <= ib; i++) f(j * nx + i);
+      return;
+    }
+    const k = (bx - ax) / (by - ay);
+    const ylo = ay < by ? ay : by, yhi = ay < by ? by : ay;
+    for (let j = ja; j <= jb; j++) {
+      const r0 = t.minY + j * ch, r1 = r0 + ch;
+      const ya = r0 > ylo ? r0 : ylo, yb = r1 < yhi ? r1 : yhi;
+      const xa = ax + (ya - ay) * k, xb = ax + (yb - ay) * k;
+      let ia = cellX(xa < xb ? xa : xb) - 1, ib = cellX(xa < xb ? xb : xa) + 1;
+      if (ia < 0) ia = 0;
+      if (ib > nx - 1) ib = nx - 1;
+      for (let i = ia; i <= ib; i++) f(j * nx + i);
+    }
+  };
+  for (let e = 0; e < n; e++) visit(e, (c) => counts[c]++);
+  const start = new Uint32Array(nx * ny + 1);
+  let total = 0;
+  for (let c = 0; c < nx * ny; c++) {
+    start[c] = total;
+    total += counts[c];
+  }
+  start[nx * ny] = total;
+  const ids = new Uint32Array(total);
+  const fill = start.slice(0, nx * ny);
+  for (let e = 0; e < n; e++) visit(e, (c) => ids[fill[c]++] = e);
+  const g = t.group;
+  for (let c = 0; c < nx * ny; c++) {
+    const s = start[c], f = start[c + 1];
+    if (f - s < 2) continue;
+    for (let p = s; p < f; p++) {
+      const i = ids[p];
+      const ixa = x0[i] < x1[i] ? x0[i] : x1[i], ixb = x0[i] < x1[i] ? x1[i] : x0[i];
+      const iya = y0[i] < y1[i] ? y0[i] : y1[i], iyb = y0[i] < y1[i] ? y1[i] : y0[i];
+      for (let q = p + 1; q < f; q++) {
+        const j = ids[q];
+        if (mode === "across" && g[i] === g[j]) continue;
+        // bbox reject
+        if ((x0[j] < ixa && x1[j] < ixa) || (x0[j] > ixb && x1[j] > ixb)) continue;
+        if ((y0[j] < iya && y1[j] < iya) || (y0[j] > iyb && y1[j] > iyb)) continue;
+        const m = meet(t, i, j);
+        if (m === null) continue;
+        // report a pair once: in the cell holding the meeting point
+        if (cellX(m[0]) + nx * cellY(m[1]) !== c) continue;
+        out.push({ a: i, b: j, x: m[0], y: m[1] });
+        if (firstOnly) return out;
+      }
+    }
+  }
+  return out;
 }

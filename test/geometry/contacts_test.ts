@@ -6,7 +6,7 @@
 // contacts (unions, intersections, repairs) are checked against JSTS in
 // valid_region_test.ts.
 import { strict as assert } from "node:assert";
-import { findContacts, tagEdges } from "../../lib/geometry/_contacts.ts";
+import { findContacts, sizedGridContacts, tagEdges } from "../../lib/geometry/_contacts.ts";
 import { provesNoContacts } from "../../lib/geometry/_sweep.ts";
 import * as reference from "./_contacts_reference.ts";
 import { type Random, randomPolygon, seededRandom, starRing } from "./_shapes.ts";
@@ -40,7 +40,7 @@ function randomSet(rnd: Random): PolygonPx[] {
   return polys;
 }
 
-Deno.test("findContacts() gives the reference grid's contacts in its order", () => {
+Deno.test("findContacts() and its sized grid give the reference grid's contacts in its order", () => {
   let total = 0;
   for (let seed = 1; seed <= 120; seed++) {
     const rnd = seededRandom(seed);
@@ -48,8 +48,11 @@ Deno.test("findContacts() gives the reference grid's contacts in its order", () 
     const groups = polys.map((_, i) => (seed % 3 === 0 ? i % 2 : i));
     for (const mode of ["all", "across"] as const) {
       for (const firstOnly of [false, true]) {
-        const got = findContacts(tagEdges(polys, groups), mode, firstOnly);
         const want = reference.findContacts(reference.tagEdges(polys, groups), mode, firstOnly);
+        // The grid sized to the edges (used from 50,000 edges), and the whole search.
+        const sized = sizedGridContacts(tagEdges(polys, groups), mode, firstOnly);
+        assert.deepStrictEqual(sized, want, `seed ${seed}, ${mode}, firstOnly ${firstOnly}`);
+        const got = findContacts(tagEdges(polys, groups), mode, firstOnly);
         assert.deepStrictEqual(got, want, `seed ${seed}, ${mode}, firstOnly ${firstOnly}`);
         total += got.length;
       }
