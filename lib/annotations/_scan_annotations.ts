@@ -8,6 +8,15 @@
  * syntax error, an escape in a figure's label, a duplicate key, a bad
  * value), it leaves to the ordinary reader, for one feature or the whole file.
  *
+ * Where checks live: every rule about a feature is the ordinary reader's
+ * (`AnnotationCollector.feature` in read_annotations.ts); the scanner only
+ * reads figure features that surely pass them all. A new rule for figure
+ * features therefore needs a matching "give the feature back" (return
+ * false) in `compact` and `figure` here. Repeated keys already send a
+ * feature (or, at the top level, the whole file) to the ordinary reader,
+ * so a check for them belongs to its parsing (`parseSpan` here parses the
+ * features handed over, `parseAnnotations` whole files).
+ *
  * @module
  */
 
