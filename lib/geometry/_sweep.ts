@@ -18,7 +18,7 @@
  * @module
  */
 
-import type { TaggedEdges } from "./_contacts.ts";
+import type { TaggedEdges } from "./_tagged_edges.ts";
 
 /** Thrown inside the sweep when it cannot prove there is no contact. */
 const MAYBE = new Error("the sweep cannot prove there is no contact");
