@@ -162,11 +162,11 @@ Deno.test({
   name: "hotfield tissue refuses a file that is neither a slide nor an image (exit 1)",
   ...needsOpenSlide,
   async fn() {
-    const bad = join(tempDir(), "QVT-24-S09.svs");
+    const bad = join(tempDir(), "QVT-24-S09.slide");
     Deno.writeTextFileSync(bad, "x,y\n1,2\n");
     const r = await cli(["tissue", bad, "--out", join(tempDir(), "bad.geojson")]);
     assert.equal(r.code, 1);
-    assert.match(r.err, /Cannot read slide ".*QVT-24-S09\.svs": OpenSlide does not recognise it/);
+    assert.match(r.err, /Cannot read slide ".*QVT-24-S09\.slide": OpenSlide does not recognise it/);
     const missing = await cli(["tissue", join(tempDir(), "nope.tiff"), "--out", "x.geojson"]);
     assert.equal(missing.code, 1);
     assert.match(missing.err, /nope\.tiff": file not found/);
