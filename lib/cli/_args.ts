@@ -37,7 +37,65 @@ export function parseOptions(
   }
 }
 
-/** Reads a finite number option; `undefined` when absent. */
+/** A plain decimal number: optional sign, digits with an optional point, optional exponent. */
+const DECIMAL = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
+
+/**
+ * Reads a decimal number, or returns `undefined` when `text` is not one.
+ *
+ * Only plain decimals are numbers here (`12`, `-0.5`, `2.37`, `1e-3`):
+ * hexadecimal, octal and binary literals (`0x10`, `0o7`, `0b1`),
+ * `Infinity`, `NaN`, empty text and values too large for a double (`1e400`)
+ * are not, although JavaScript's `Number()` reads most of them.
+ *
+ * @param text The text, surrounding white space allowed.
+ * @returns The finite number, or `undefined`.
+ *
+ * @example Decimals only
+ * ```ts
+ * import { parseDecimal } from "./_args.ts";
+ * if (parseDecimal(" 2.37 ") !== 2.37) throw new Error("a decimal with spaces around it is read");
+ * for (const bad of ["0x10", "1e400", "Infinity", "NaN", ""]) {
+ *   if (parseDecimal(bad) !== undefined) throw new Error(`"${bad}" must not be read as a number`);
+ * }
+ * ```
+ */
+export function parseDecimal(text: string): number | undefined {
+  const t = text.trim();
+  if (!DECIMAL.test(t)) return undefined;
+  const v = Number(t);
+  return Number.isFinite(v) ? v : undefined;
+}
+
+/**
+ * Why `raw` is not a decimal number, for a message: `"0x10" is not a decimal
+ * number`, `"1e400" is too large`.
+ */
+export function notDecimalWhy(raw: unknown): string {
+  const t = String(raw).trim();
+  return DECIMAL.test(t) ? `"${raw}" is too large` : `"${raw}" is not a decimal number`;
+}
+
+/**
+ * Reads a finite decimal number option (see {@linkcode parseDecimal});
+ * `undefined` when absent.
+ *
+ * @param values Parsed option values.
+ * @param name The option's name without dashes.
+ * @param check Returns why a value is out of range, or `undefined` when it is fine.
+ * @returns The number, or `undefined` when the option was not given.
+ * @throws {UsageError} Naming the option, when the value is not a decimal
+ *   number or `check` refuses it.
+ *
+ * @example Hexadecimal is refused
+ * ```ts
+ * import { numberOption } from "./_args.ts";
+ * if (numberOption({ area: "2.37" }, "area") !== 2.37) throw new Error("a decimal is read");
+ * let message = "";
+ * try { numberOption({ area: "0x10" }, "area"); } catch (e) { message = (e as Error).message; }
+ * if (!message.includes("--area")) throw new Error(`the message names the option: ${message}`);
+ * ```
+ */
 export function numberOption(
   values: Record<string, unknown>,
   name: string,
@@ -45,9 +103,10 @@ export function numberOption(
 ): number | undefined {
   const raw = values[name];
   if (raw === undefined) return undefined;
-  const text = String(raw).trim();
-  const v = text === "" ? NaN : Number(text);
-  if (!Number.isFinite(v)) throw new UsageError(`Option --${name} needs a number: got "${raw}"`);
+  const v = parseDecimal(String(raw));
+  if (v === undefined) {
+    throw new UsageError(`Option --${name} needs a decimal number: ${notDecimalWhy(raw)}`);
+  }
   const problem = check?.(v);
   if (problem) throw new UsageError(`Option --${name} ${problem}: got ${raw}`);
   return v;

@@ -8,7 +8,7 @@
 import { readFile, stat } from "node:fs/promises";
 import { UsageError } from "../errors.ts";
 import { type CaseInput, parseCaseFile } from "../annotations/read_case.ts";
-import type { OptionSpec } from "./_args.ts";
+import { notDecimalWhy, type OptionSpec, parseDecimal } from "./_args.ts";
 import { DEFAULT_COUNT_LABEL, DEFAULT_COUNT_LABELS, DEFAULT_MIN_SCORE } from "../defaults.ts";
 
 /** The options naming a case's files and id (node:util parseArgs spec). */
@@ -164,10 +164,11 @@ export function countOptionsFromValues(
   let minScore = DEFAULT_MIN_SCORE;
   const raw = values["min-score"];
   if (raw !== undefined) {
-    const text = String(raw).trim();
-    const v = text === "" ? NaN : Number(text);
-    if (!Number.isFinite(v)) {
-      throw new UsageError(`Option --min-score needs a number in [0, 1]: got "${raw}"`);
+    const v = parseDecimal(String(raw));
+    if (v === undefined) {
+      throw new UsageError(
+        `Option --min-score needs a number in [0, 1]: ${notDecimalWhy(raw)}`,
+      );
     }
     if (v < 0 || v > 1) {
       throw new UsageError(`Option --min-score must lie in [0, 1]: got ${raw}`);
@@ -187,7 +188,7 @@ export function countOptionsFromValues(
 }
 
 function parseMpp(text: string): number | [number, number] {
-  const nums = text.split(",").map((s) => (s.trim() === "" ? NaN : Number(s.trim())));
+  const nums = text.split(",").map((s) => parseDecimal(s) ?? NaN);
   if (nums.length > 2 || nums.some((v) => !Number.isFinite(v) || v <= 0)) {
     throw new UsageError(
       `Option --mpp needs a positive number N or a pair N,M (micrometres per level-0 pixel): got "${text}"`,
@@ -198,7 +199,7 @@ function parseMpp(text: string): number | [number, number] {
 
 function parseMaskMpp(text: string): number | [number, number] {
   const parts = text.split(",").map((s) => s.trim());
-  const nums = parts.map((s) => (s === "" ? NaN : Number(s)));
+  const nums = parts.map((s) => parseDecimal(s) ?? NaN);
   if ((parts.length !== 1 && parts.length !== 2) || nums.some((v) => !Number.isFinite(v))) {
     throw new UsageError(`Option --mask-mpp needs a number N or a pair N,M: got "${text}"`);
   }

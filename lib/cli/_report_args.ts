@@ -10,7 +10,7 @@ import { UsageError } from "../errors.ts";
 import type { ReportOptions } from "../pipeline/case_result.ts";
 import { getScheme } from "../standards/list_schemes.ts";
 import { ALL_FORMATS, type OutputFormat } from "../report/case_folder.ts";
-import { numberOption, type OptionSpec } from "./_args.ts";
+import { numberOption, type OptionSpec, parseDecimal } from "./_args.ts";
 import {
   DEFAULT_ASPECT,
   DEFAULT_BEST_N,
@@ -95,8 +95,8 @@ export function reportOptionsFromValues(values: Values): ReportOptions {
   }
   const aspect = values.aspect;
   if (aspect !== undefined) {
-    const m = /^\s*([0-9.eE+]+)\s*:\s*([0-9.eE+]+)\s*$/.exec(String(aspect));
-    const w = m ? Number(m[1]) : NaN, h = m ? Number(m[2]) : NaN;
+    const m = /^([^:]*):([^:]*)$/.exec(String(aspect));
+    const w = m ? parseDecimal(m[1]) ?? NaN : NaN, h = m ? parseDecimal(m[2]) ?? NaN : NaN;
     if (!(Number.isFinite(w) && Number.isFinite(h) && w > 0 && h > 0)) {
       throw new UsageError(
         `Option --aspect needs W:H with two positive numbers, e.g. 4:3: got "${aspect}"`,

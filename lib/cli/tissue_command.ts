@@ -16,7 +16,7 @@ import {
   slideFileKind,
   tissueFeatureCollection,
 } from "../annotations/read_slide_file.ts";
-import { parseOptions } from "./_args.ts";
+import { parseDecimal, parseOptions } from "./_args.ts";
 import type { CommandIo } from "./_io.ts";
 
 const HELP = `Usage: hotfield tissue INPUT --out FILE.geojson [options]
@@ -59,7 +59,7 @@ function mppOption(raw: unknown, name: string): number | [number, number] | unde
   if (raw === undefined) return undefined;
   const text = String(raw);
   const parts = text.split(",").map((s) => s.trim());
-  const nums = parts.map((s) => (s === "" ? NaN : Number(s)));
+  const nums = parts.map((s) => parseDecimal(s) ?? NaN);
   if ((parts.length !== 1 && parts.length !== 2) || nums.some((v) => !Number.isFinite(v))) {
     throw new UsageError(`Option --${name} needs a number N or a pair N,M: got "${text}"`);
   }
