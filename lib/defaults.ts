@@ -43,3 +43,54 @@ export const DEFAULT_SEED = 1;
 
 /** Largest count grid, in cells, before a run is refused as too fine. */
 export const DEFAULT_MAX_GRID_CELLS = 25_000_000;
+
+// Input limits: inputs beyond them are refused with a message giving the size
+// and the limit (README, "Input limits"), so that no file makes a run take
+// unbounded time or memory.
+
+/**
+ * Largest annotation GeoJSON or figures CSV read, bytes (500 MiB). A text of
+ * more than about 512 Mi characters cannot be held as one string.
+ */
+export const MAX_TEXT_INPUT_BYTES = 500 * 1024 * 1024;
+
+/** Largest case file read, bytes (1 MiB; a case file only names files and settings). */
+export const MAX_CASE_FILE_BYTES = 1024 * 1024;
+
+/** Largest PNG tissue mask file read, bytes (256 MiB). */
+export const MAX_MASK_FILE_BYTES = 256 * 1024 * 1024;
+
+/**
+ * Largest decoded tissue mask, pixels (width × height): 100 megapixels, e.g.
+ * 12,500 × 8,000, a 75 × 25 mm slide at 6 µm per mask pixel or a 30 × 20 mm
+ * tissue area at 2.4 µm. The header is read first, so a larger mask is
+ * refused before it is decoded.
+ */
+export const MAX_MASK_PIXELS = 100_000_000;
+
+/**
+ * Most JSON objects and arrays in one annotation or case file (every
+ * position is an array). Checked in one pass before the text is parsed.
+ */
+export const MAX_JSON_CONTAINERS = 12_000_000;
+
+/** Most polygon positions over a case's region features, fields and traced mask. */
+export const MAX_REGION_VERTICES = 4_000_000;
+
+/** Most figure points read for one case (GeoJSON figure positions or figures CSV rows). */
+export const MAX_FIGURE_POINTS = 5_000_000;
+
+/**
+ * Most figures counted in one report (after the score, label and region
+ * filters): the placement search slows down sharply beyond about a million
+ * figures spread evenly, so a report over this limit is refused before any
+ * grid is sized (`inspect` still reads the case).
+ */
+export const MAX_COUNTED_FIGURES = 500_000;
+
+/**
+ * Farthest a position may lie from the slide origin, mm, along x or y (a
+ * glass slide is 75 mm long; common practice). Positions beyond it are
+ * refused as implausible before any grid is sized.
+ */
+export const MAX_SLIDE_EXTENT_MM = 100;

@@ -31,6 +31,8 @@ import { describe } from "./_describe.ts";
 import { DEFAULT_FIGURE_LABEL, figureLabelText, FigureSetBuilder } from "./_figure_builder.ts";
 import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
+import { containerLimitDetail, duplicateKeyDetail, scanJsonText } from "./_json_keys.ts";
+import { MAX_JSON_CONTAINERS } from "../defaults.ts";
 import { polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
 import { mergeSlideMembers, parseSlideInfo, type SlideMember } from "./slide_info.ts";
 import { withSlideFileFacts } from "./_slide_facts.ts";
@@ -93,15 +95,19 @@ const WHAT = "annotations";
  * further elements such as altitude are ignored); a polygon ring has at least
  * four positions and its first and last positions are equal (§3.1.6). Either
  * ring winding is accepted; rings are kept as given (normalizing them is the
- * valid region's job). A UTF-8 byte order mark is ignored.
+ * valid region's job). A UTF-8 byte order mark is ignored. The JSON must name
+ * each member of an object once (RFC 8259 §4 recommends it; a repeated name
+ * would silently replace a value).
  *
  * @param text The file's text.
  * @param options The file name for messages, and optional slide fields.
  * @returns Slide, region parts, figures, fields and warnings.
- * @throws {SyntaxError} When the text is empty or not JSON (with line and column).
+ * @throws {SyntaxError} When the text is empty or not JSON, or an object
+ *   names a member twice (with line and column).
  * @throws {TypeError} When the shape is wrong (not a FeatureCollection, no
  *   features, unknown role, wrong geometry for a role, bad positions or rings).
- * @throws {RangeError} When mpp, a size or a score is out of range.
+ * @throws {RangeError} When mpp, a size or a score is out of range, or the
+ *   text holds more JSON objects and arrays than `MAX_JSON_CONTAINERS`.
  *
  * @example Reading a tissue square and two figures
  * ```ts
@@ -141,6 +147,11 @@ export function parseAnnotations(
       text.length === 0 ? "the file is empty (0 bytes)" : "the file holds only white space",
     );
   }
+  // One pass before parsing: too many objects and arrays, and repeated names.
+  const scan = scanJsonText(text, MAX_JSON_CONTAINERS);
+  if (scan.overLimitAt >= 0) {
+    throw fail(RangeError, containerLimitDetail(text, scan, MAX_JSON_CONTAINERS));
+  }
   let root: unknown;
   try {
     root = JSON.parse(text);
@@ -156,6 +167,7 @@ export function parseAnnotations(
       e,
     );
   }
+  if (scan.duplicate) throw fail(SyntaxError, duplicateKeyDetail(text, scan.duplicate));
   const reader = new AnnotationCollector(root, options);
   const features = (root as { features: unknown[] }).features;
   for (let i = 0; i < features.length; i++) reader.feature(features[i], i);

@@ -68,9 +68,15 @@
  */
 
 import { createHash } from "node:crypto";
-import { readFile } from "node:fs/promises";
 import { basename, dirname, isAbsolute, join } from "node:path";
 import { inputError } from "../errors.ts";
+import { readInputFile } from "../io/read_input.ts";
+import {
+  MAX_CASE_FILE_BYTES,
+  MAX_JSON_CONTAINERS,
+  MAX_MASK_FILE_BYTES,
+  MAX_TEXT_INPUT_BYTES,
+} from "../defaults.ts";
 import { regionBBox } from "../geometry/region_bbox.ts";
 import { pxToUm, umToPx } from "../units.ts";
 import type {
@@ -86,6 +92,7 @@ import { describe } from "./_describe.ts";
 import { emptyFigureSet } from "./_figure_builder.ts";
 import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
+import { containerLimitDetail, duplicateKeyDetail, scanJsonText } from "./_json_keys.ts";
 import { safeCaseId } from "./case_id.ts";
 import { readAnnotationsBytes } from "./_scan_annotations.ts";
 import { decodeText } from "./_decode_text.ts";
@@ -223,6 +230,10 @@ export function parseCaseFile(text: string, path: string): CaseInput {
   const what = "case file";
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   if (text.trim() === "") throw inputError(SyntaxError, what, path, "the file is empty");
+  const scan = scanJsonText(text, MAX_JSON_CONTAINERS);
+  if (scan.overLimitAt >= 0) {
+    throw inputError(RangeError, what, path, containerLimitDetail(text, scan, MAX_JSON_CONTAINERS));
+  }
   let raw: unknown;
   try {
     raw = JSON.parse(text);
@@ -237,6 +248,9 @@ export function parseCaseFile(text: string, path: string): CaseInput {
         : `not valid JSON: ${(e as Error).message}`,
       e,
     );
+  }
+  if (scan.duplicate) {
+    throw inputError(SyntaxError, what, path, duplicateKeyDetail(text, scan.duplicate));
   }
   if (raw === null || typeof raw !== "object" || Array.isArray(raw)) {
     throw inputError(TypeError, what, path, `must hold a JSON object: found ${describe(raw)}`);
@@ -793,23 +807,22 @@ function fileStem(path: string): string {
   return m && m[1] !== "" ? m[1] : base;
 }
 
-async function readBytes(path: string, what: string, at = path): Promise<Uint8Array> {
-  try {
-    // The Buffer's own bytes when it has its memory to itself (a copy of a
-    // large file costs about as much as reading it); a copy otherwise.
-    const buf = await readFile(at);
-    return buf.byteOffset === 0 && buf.byteLength === buf.buffer.byteLength
-      ? new Uint8Array(buf.buffer, 0, buf.byteLength)
-      : new Uint8Array(buf);
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    const problem = code === "ENOENT"
-      ? "file not found"
-      : code === "EISDIR"
-      ? "it is a folder, not a file"
-      : code === "EACCES" || code === "EPERM"
-      ? "permission denied"
-      : `the file cannot be read (${(e as Error).message})`;
-    throw new Error(`Cannot read ${what} "${path}": ${problem}`, { cause: e });
-  }
+/** The size limit of each kind of input file, bytes. */
+const INPUT_LIMITS: Record<string, number> = {
+  "case file": MAX_CASE_FILE_BYTES,
+  annotations: MAX_TEXT_INPUT_BYTES,
+  "figures CSV": MAX_TEXT_INPUT_BYTES,
+  "tissue mask": MAX_MASK_FILE_BYTES,
+};
+
+/**
+ * Reads an input file named `path` in messages, found at `at`: regular files
+ * only, within the size limit of its kind.
+ */
+function readBytes(path: string, what: string, at = path): Promise<Uint8Array> {
+  return readInputFile(path, {
+    what,
+    maxBytes: INPUT_LIMITS[what] ?? MAX_TEXT_INPUT_BYTES,
+    openPath: at,
+  });
 }

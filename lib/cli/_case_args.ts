@@ -9,7 +9,12 @@ import { readFile, stat } from "node:fs/promises";
 import { UsageError } from "../errors.ts";
 import { type CaseInput, parseCaseFile } from "../annotations/read_case.ts";
 import { notDecimalWhy, type OptionSpec, parseDecimal } from "./_args.ts";
-import { DEFAULT_COUNT_LABEL, DEFAULT_COUNT_LABELS, DEFAULT_MIN_SCORE } from "../defaults.ts";
+import {
+  DEFAULT_COUNT_LABEL,
+  DEFAULT_COUNT_LABELS,
+  DEFAULT_MIN_SCORE,
+  MAX_CASE_FILE_BYTES,
+} from "../defaults.ts";
 
 /** The options naming a case's files and id (node:util parseArgs spec). */
 export const FILE_OPTIONS: OptionSpec = {
@@ -51,9 +56,6 @@ export const CASE_OPTIONS_HELP = [
 ].join("\n");
 
 type Values = Record<string, string | boolean | string[] | undefined>;
-
-/** Case files are small; larger JSON is taken to be annotations without reading it twice. */
-const MAX_CASE_FILE_BYTES = 1 << 20;
 
 /**
  * Builds the {@linkcode CaseInput} for `file` and the options.
