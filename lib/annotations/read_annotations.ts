@@ -31,6 +31,7 @@ import { describe } from "./_describe.ts";
 import { DEFAULT_FIGURE_LABEL, figureLabelText, FigureSetBuilder } from "./_figure_builder.ts";
 import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
+import { checkFeatureOutline } from "./_outline_check.ts";
 import { containerLimitDetail, duplicateKeyDetail, scanJsonText } from "./_json_keys.ts";
 import { MAX_JSON_CONTAINERS } from "../defaults.ts";
 import { polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
@@ -349,11 +350,19 @@ export class AnnotationCollector {
       case "tissue":
       case "tumour":
       case "exclude": {
-        const polygons = type === "Polygon" ? [reader.polygon(c, "")] : reader.multiPolygon(c);
-        if (polygons.length === 0) {
+        const read = type === "Polygon" ? [reader.polygon(c, "")] : reader.multiPolygon(c);
+        if (read.length === 0) {
           emptyGeometries.push(i);
           break;
         }
+        const checked = checkFeatureOutline(read, {
+          file,
+          at,
+          multi: type === "MultiPolygon",
+          slide,
+        });
+        if (checked.warning !== undefined) warnings.push(checked.warning);
+        const polygons = checked.polygons;
         if (slide.widthPx !== undefined || slide.heightPx !== undefined) {
           if (polygons.some((poly) => poly[0].some((q) => isBeyond(q, slide)))) beyondSlide.push(i);
         }
@@ -378,7 +387,7 @@ export class AnnotationCollector {
         break;
       }
       case "field": {
-        fields.push(readField(p, type, c, reader, i, fail));
+        fields.push(readField(p, type, c, reader, i, fail, { file, slide, warnings }));
         break;
       }
     }
@@ -509,6 +518,7 @@ function readField(
   reader: GeometryReader,
   i: number,
   fail: Fail,
+  ctx: { file: string; slide: SlideInfo; warnings: string[] },
 ): FieldSpec {
   const at = `feature ${i}`;
   if (p.reader === undefined || p.reader === null) {
@@ -569,27 +579,37 @@ function readField(
       diameterMm,
       featureIndex: i,
     };
-  } else if (type === "Polygon") {
-    const polygon = reader.polygon(c, "");
-    spec = {
-      reader: readerName,
-      kind: "polygon",
-      centerPx: polygonCentroidPx(polygon),
-      polygon,
-      featureIndex: i,
-    };
   } else {
-    const parts = reader.multiPolygon(c);
-    if (parts.length === 0) {
+    const read = type === "Polygon" ? [reader.polygon(c, "")] : reader.multiPolygon(c);
+    if (read.length === 0) {
       throw fail(TypeError, `${who} is an empty MultiPolygon: it marks no field`);
     }
-    spec = {
-      reader: readerName,
-      kind: "polygons",
-      centerPx: weightedCentroid(parts),
-      parts,
-      featureIndex: i,
-    };
+    const checked = checkFeatureOutline(read, {
+      file: ctx.file,
+      at: who,
+      multi: type === "MultiPolygon",
+      slide: ctx.slide,
+    });
+    if (checked.warning !== undefined) ctx.warnings.push(checked.warning);
+    if (checked.polygons.length === 0) {
+      throw fail(TypeError, `${who} has an outline without area: it marks no field`);
+    }
+    const parts = checked.polygons;
+    spec = type === "Polygon" && parts.length === 1
+      ? {
+        reader: readerName,
+        kind: "polygon",
+        centerPx: polygonCentroidPx(parts[0]),
+        polygon: parts[0],
+        featureIndex: i,
+      }
+      : {
+        reader: readerName,
+        kind: "polygons",
+        centerPx: weightedCentroid(parts),
+        parts,
+        featureIndex: i,
+      };
   }
   if (date !== undefined) spec.date = date;
   const rest: Record<string, unknown> = {};

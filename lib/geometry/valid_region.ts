@@ -7,7 +7,8 @@
 import type { MultiPolygonPx, PolygonPx, RegionPart } from "../types.ts";
 import { inputError } from "../errors.ts";
 import { bandOf, buildBands, type EdgeBands } from "./_edges.ts";
-import { type Contact, findContacts, tagEdges, type TaggedEdges } from "./_contacts.ts";
+import { findContacts, tagEdges, type TaggedEdges } from "./_contacts.ts";
+import { badVertexTouches, isVertexContact } from "./_vertex_touches.ts";
 import { bboxOf, boxesMeet } from "./_ring_sets.ts";
 import { intersectRegions, subtractRegions, unionRegions } from "./_pair_ops.ts";
 import { turfUnion } from "./_turf.ts";
@@ -85,80 +86,6 @@ function nestingIsConsistent(t: TaggedEdges, polys: PolygonPx[]): boolean {
   return true;
 }
 
-/** Whether a contact is two edges sharing an end point (and nothing else known yet). */
-function isVertexContact(t: TaggedEdges, c: Contact): boolean {
-  const at = (e: number) =>
-    (t.x0[e] === c.x && t.y0[e] === c.y) || (t.x1[e] === c.x && t.y1[e] === c.y);
-  return at(c.a) && at(c.b);
-}
-
-/**
- * At each shared vertex, the rings passing through must only touch. Every
- * ring has the solid side on its right (outer rings clockwise on screen,
- * holes anticlockwise); each pass through the vertex covers a wedge of solid.
- * Returns the contacts at vertices where they do (crossings, overlaps).
- */
-function badVertexTouches(t: TaggedEdges, contacts: Contact[]): Contact[] {
-  const byVertex = new Map<string, Contact[]>();
-  for (const c of contacts) {
-    const key = `${c.x},${c.y}`;
-    const list = byVertex.get(key);
-    if (list === undefined) byVertex.set(key, [c]);
-    else list.push(c);
-  }
-  const bad: Contact[] = [];
-  const TWO_PI = 2 * Math.PI;
-  for (const list of byVertex.values()) {
-    const vx = list[0].x, vy = list[0].y;
-    const passes = new Map<number, [number, number]>(); // in-edge → [start, length] of its wedge
-    for (const c of list) {
-      for (const e of [c.a, c.b]) {
-        const m = t.ringEdges[t.ring[e]];
-        const first = e - t.pos[e];
-        let inE: number, outE: number;
-        if (t.x1[e] === vx && t.y1[e] === vy) {
-          inE = e;
-          outE = first + (t.pos[e] + 1) % m;
-        } else {
-          outE = e;
-          inE = first + (t.pos[e] + m - 1) % m;
-        }
-        if (passes.has(inE)) continue;
-        const start = Math.atan2(t.y1[outE] - vy, t.x1[outE] - vx);
-        const end = Math.atan2(t.y0[inE] - vy, t.x0[inE] - vx);
-        let len = end - start;
-        if (len <= 0) len += TWO_PI;
-        passes.set(inE, [start, len]);
-      }
-    }
-    // sweep once around the vertex: the number of solid wedges covering each
-    // sector may vary by at most one (0/1 for touching pieces, 1/2 where a
-    // hole touches its outer ring); any more means overlap or a crossing
-    const events: [number, number][] = [];
-    let count = 0;
-    for (const [start, len] of passes.values()) {
-      events.push([start, 1]);
-      let end = start + len;
-      if (end > Math.PI) {
-        end -= TWO_PI;
-        count++; // the wedge covers the sweep's starting angle −π
-      }
-      events.push([end, -1]);
-    }
-    events.sort((p, q) => p[0] - q[0]);
-    let lo = count, hi = count, ok = true;
-    for (let i = 0; i < events.length; i++) {
-      if (i > 0 && events[i][0] === events[i - 1][0]) ok = false; // edges along each other
-      count += events[i][1];
-      if (count < lo) lo = count;
-      if (count > hi) hi = count;
-    }
-    if (hi - lo > 1) ok = false;
-    if (!ok) bad.push(list[0]);
-  }
-  return bad;
-}
-
 /**
  * Union of the parts of one role. Parts whose outlines meet at most at
  * shared vertices (without crossing) and nest consistently are kept as they
@@ -194,8 +121,9 @@ function unionRole(parts: RegionPart[], role: string, warnings: string[]): Multi
   const selfBad = bad.some((c) => tagged.group[c.a] === tagged.group[c.b]);
   if (!selfBad) {
     // parts that are valid on their own but overlap each other: unite them one by one
+    // (one polygon can be nested wrongly too: a hole outside its outer ring)
     const nestedWrongly = normalized.findIndex((mp, i) =>
-      mp.length > 1 && !nestingIsConsistent(tagEdges(mp, mp.map(() => i)), mp)
+      !nestingIsConsistent(tagEdges(mp, mp.map(() => i)), mp)
     );
     if (nestedWrongly < 0) {
       let u: MultiPolygonPx = [];

@@ -31,7 +31,10 @@ function parse(text: string) {
 Deno.test("parseAnnotations() reads roles, slide, labels, scores and fields", () => {
   const a = parse(fc([
     tissue,
-    feature("tumour", { type: "MultiPolygon", coordinates: [SQUARE, SQUARE] }),
+    feature("tumour", {
+      type: "MultiPolygon",
+      coordinates: [SQUARE, [[[200, 0], [300, 0], [300, 100], [200, 0]]]],
+    }),
     feature("exclude", { type: "Polygon", coordinates: SQUARE }, { reason: "necrosis" }),
     feature("figure", { type: "Point", coordinates: [5, 6] }, { score: 0.75 }),
     feature("figure", { type: "Point", coordinates: [7, 8, 0] }, { label: "mimic" }),
