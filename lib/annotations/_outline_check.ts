@@ -7,6 +7,7 @@
  */
 
 import { inputError } from "../errors.ts";
+import { checkOutlinePositions } from "./_plausibility.ts";
 import { checkOutline, type RingProblem } from "../geometry/polygon_validity.ts";
 import { roundTo } from "../numbers.ts";
 import type { MultiPolygonPx, SlideInfo } from "../types.ts";
@@ -28,16 +29,19 @@ export interface OutlinePlace {
 const SHOWN = 4;
 
 /**
- * Checks one outline; returns the polygons to use and, when they were
- * repaired, the warning.
+ * Checks one outline: first that its positions are plausible (see
+ * `_plausibility.ts`), then its rings; returns the polygons to use and, when
+ * they were repaired, the warning.
  *
- * @throws {RangeError} Naming the file and feature, in the unlikely case
- *   that the planar union cannot repair the outline.
+ * @throws {RangeError} Naming the file and feature, for an implausible
+ *   position, or in the unlikely case that the planar union cannot repair
+ *   the outline.
  */
 export function checkFeatureOutline(
   polygons: MultiPolygonPx,
   place: OutlinePlace,
 ): { polygons: MultiPolygonPx; warning?: string } {
+  checkOutlinePositions(polygons, place.slide, place.file, place.at);
   let checked;
   try {
     checked = checkOutline(polygons);

@@ -32,6 +32,7 @@ import { DEFAULT_FIGURE_LABEL, figureLabelText, FigureSetBuilder } from "./_figu
 import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
 import { checkFeatureOutline } from "./_outline_check.ts";
+import { checkFigureMagnitudes, checkOutlinePositions } from "./_plausibility.ts";
 import { containerLimitDetail, duplicateKeyDetail, scanJsonText } from "./_json_keys.ts";
 import { MAX_JSON_CONTAINERS } from "../defaults.ts";
 import { polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
@@ -387,7 +388,9 @@ export class AnnotationCollector {
         break;
       }
       case "field": {
-        fields.push(readField(p, type, c, reader, i, fail, { file, slide, warnings }));
+        const spec = readField(p, type, c, reader, i, fail, { file, slide, warnings });
+        checkOutlinePositions([[spec.pointsPx ?? [spec.centerPx]]], slide, file, at);
+        fields.push(spec);
         break;
       }
     }
@@ -421,6 +424,7 @@ export class AnnotationCollector {
     const figureSet = scanned
       ? mergeFigures(scanned, this.#figures.build(), this.#figureFeatures)
       : this.#figures.build();
+    checkFigureMagnitudes(figureSet, slide, WHAT, file, "feature");
     warnings.push(...figurePositionWarnings(figureSet, slide, file, "feature"));
     return {
       slide,

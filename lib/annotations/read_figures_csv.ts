@@ -21,7 +21,9 @@ import { parse } from "csv-parse/sync";
 import { inputError } from "../errors.ts";
 import type { FigureSet } from "../types.ts";
 import { umToPx } from "../units.ts";
+import { isDecimalText, parseDecimal } from "../numbers.ts";
 import { DEFAULT_FIGURE_LABEL, FigureSetBuilder } from "./_figure_builder.ts";
+import { checkFigureMagnitudes } from "./_plausibility.ts";
 
 /** Options of {@linkcode parseFiguresCsv}. */
 export interface ParseFiguresCsvOptions {
@@ -121,7 +123,13 @@ export function parseFiguresCsv(
         : "";
       throw fail(
         SyntaxError,
-        `line ${line}: ${name} ${raw === "" ? "is empty" : `"${raw}" is not a number`}${hint}`,
+        `line ${line}: ${name} ${
+          raw === ""
+            ? "is empty"
+            : isDecimalText(raw.replace(",", "."))
+            ? `"${raw}" is too large`
+            : `"${raw}" is not a number`
+        }${hint}`,
       );
     }
     return v.value;
@@ -154,7 +162,9 @@ export function parseFiguresCsv(
     } else figures.add(x, y, label, score, line);
   }
   warnings.push(...csvEndWarnings(file, decimalCommaUsed, firstDecimalComma, figures.length));
-  return { figures: figures.build(), warnings };
+  const built = figures.build();
+  checkFigureMagnitudes(built, options, WHAT, file, "line");
+  return { figures: built, warnings };
 }
 
 /** The warnings a figures CSV gets at its end. */
@@ -177,7 +187,8 @@ export function csvEndWarnings(
 /**
  * A cell's number as the figures CSV reads it: with `;` as separator, one
  * decimal comma and no point (`1234,5`) is a decimal (`comma` says so);
- * otherwise `Number` of the cell; NaN for an empty cell.
+ * otherwise the cell as a plain decimal; NaN for an empty cell or anything
+ * else (hexadecimal, `Infinity`, a value beyond a double's range).
  *
  * @example
  * ```ts
@@ -193,7 +204,8 @@ export function csvNumber(raw: string, decimalComma: boolean): { value: number; 
     s = s.replace(",", ".");
     comma = true;
   }
-  return { value: s === "" ? NaN : Number(s), comma };
+  // decimals only: Number() would also take "0x10", "Infinity" or "1e400"
+  return { value: parseDecimal(s) ?? NaN, comma };
 }
 
 /**

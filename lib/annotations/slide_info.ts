@@ -9,6 +9,7 @@
 import { inputError } from "../errors.ts";
 import type { SlideInfo } from "../types.ts";
 import { describe } from "./_describe.ts";
+import { MAX_SLIDE_EXTENT_MM } from "../defaults.ts";
 
 /** The `slide` member as written in a file. */
 export interface SlideMember {
@@ -115,6 +116,15 @@ export function parseSlideInfo(raw: unknown, options: SlideReadOptions): SlideIn
       throw fail(
         typeof v === "number" ? RangeError : TypeError,
         `"${member}.${key}" must be a positive number of level-0 pixels: found ${describe(v)}`,
+      );
+    }
+    const mm = v * (key === "width" ? mppX : mppY) / 1000;
+    if (mm > MAX_SLIDE_EXTENT_MM) {
+      throw fail(
+        RangeError,
+        `"${member}.${key}" ${v} px is ${
+          Math.round(mm)
+        } mm at the slide's mpp, more than any slide (${MAX_SLIDE_EXTENT_MM} mm); give the level-0 size in pixels`,
       );
     }
     info[field] = v;

@@ -5,6 +5,9 @@
 
 import { parseArgs } from "node:util";
 import { UsageError } from "../errors.ts";
+import { isDecimalText, parseDecimal } from "../numbers.ts";
+
+export { parseDecimal };
 
 /** Option spec as node:util parseArgs takes it. */
 export type OptionSpec = Record<
@@ -37,43 +40,12 @@ export function parseOptions(
   }
 }
 
-/** A plain decimal number: optional sign, digits with an optional point, optional exponent. */
-const DECIMAL = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
-
-/**
- * Reads a decimal number, or returns `undefined` when `text` is not one.
- *
- * Only plain decimals are numbers here (`12`, `-0.5`, `2.37`, `1e-3`):
- * hexadecimal, octal and binary literals (`0x10`, `0o7`, `0b1`),
- * `Infinity`, `NaN`, empty text and values too large for a double (`1e400`)
- * are not, although JavaScript's `Number()` reads most of them.
- *
- * @param text The text, surrounding white space allowed.
- * @returns The finite number, or `undefined`.
- *
- * @example Decimals only
- * ```ts
- * import { parseDecimal } from "./_args.ts";
- * if (parseDecimal(" 2.37 ") !== 2.37) throw new Error("a decimal with spaces around it is read");
- * for (const bad of ["0x10", "1e400", "Infinity", "NaN", ""]) {
- *   if (parseDecimal(bad) !== undefined) throw new Error(`"${bad}" must not be read as a number`);
- * }
- * ```
- */
-export function parseDecimal(text: string): number | undefined {
-  const t = text.trim();
-  if (!DECIMAL.test(t)) return undefined;
-  const v = Number(t);
-  return Number.isFinite(v) ? v : undefined;
-}
-
 /**
  * Why `raw` is not a decimal number, for a message: `"0x10" is not a decimal
  * number`, `"1e400" is too large`.
  */
 export function notDecimalWhy(raw: unknown): string {
-  const t = String(raw).trim();
-  return DECIMAL.test(t) ? `"${raw}" is too large` : `"${raw}" is not a decimal number`;
+  return isDecimalText(String(raw)) ? `"${raw}" is too large` : `"${raw}" is not a decimal number`;
 }
 
 /**

@@ -95,7 +95,7 @@ Deno.test("hotfield fov and grade refuse non-decimal numbers with exit 2", async
 });
 
 Deno.test("hotfield report still reads plain decimals with signs, points and exponents", async () => {
-  const { parseDecimal } = await import("../../lib/cli/_args.ts");
+  const { parseDecimal } = await import("../../lib/numbers.ts");
   for (
     const [text, v] of [["2.37", 2.37], ["+5", 5], ["-0.5", -0.5], [".5", 0.5], ["5.", 5], [
       "1e-3",
