@@ -93,7 +93,7 @@ import { emptyFigureSet } from "./_figure_builder.ts";
 import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
 import { containerLimitDetail, duplicateKeyDetail, scanJsonText } from "./_json_keys.ts";
-import { safeCaseId } from "./case_id.ts";
+import { isReservedCaseId, safeCaseId } from "./case_id.ts";
 import { readAnnotationsBytes } from "./_scan_annotations.ts";
 import { decodeText } from "./_decode_text.ts";
 import { readFiguresCsvBytes } from "./_scan_figures_csv.ts";
@@ -709,7 +709,11 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
   }
   const caseId = safeCaseId(rawId);
   if (caseId !== rawId.trim() && rawId.trim() !== "") {
-    warnings.push(`Case id "${rawId}" is written "${caseId}" so that it is safe as a folder name`);
+    warnings.push(
+      isReservedCaseId(rawId.trim())
+        ? `Case id "${rawId}" is written "${caseId}": hotfield writes a file or folder named "${rawId.trim()}" of its own beside the case folders`
+        : `Case id "${rawId}" is written "${caseId}" so that it is safe as a folder name`,
+    );
   }
   if (figures.xPx.length === 0) {
     warnings.push(

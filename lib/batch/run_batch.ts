@@ -227,20 +227,27 @@ export async function runBatch(
   };
 
   // Case ids are decided in source order (see the module documentation).
-  const takenBy = new Map<string, string>();
+  // keyed without regard to case: ids that differ only by case would share
+  // one folder on a case-insensitive file system
+  const takenBy = new Map<string, { id: string; label: string }>();
   let cursor = 0;
   const settle = () => {
     while (cursor < n) {
       const claim = claims[cursor];
       if (claim.kind === "pending") break;
       if (claim.kind === "waiting") {
-        const earlier = takenBy.get(claim.caseId);
+        const key = claim.caseId.toLowerCase();
+        const earlier = takenBy.get(key);
         claims[cursor] = { kind: "decided" };
-        if (earlier === undefined) takenBy.set(claim.caseId, selected[cursor].label);
+        if (earlier === undefined) {
+          takenBy.set(key, { id: claim.caseId, label: selected[cursor].label });
+        }
         claim.resolve(
           earlier === undefined
             ? null
-            : `Case id "${claim.caseId}" is already the id of ${earlier}: give each case its own id`,
+            : earlier.id === claim.caseId
+            ? `Case id "${claim.caseId}" is already the id of ${earlier.label}: give each case its own id`
+            : `Case id "${claim.caseId}" differs only by case from "${earlier.id}", the id of ${earlier.label} (one folder on a case-insensitive file system): give each case its own id`,
         );
       }
       cursor++;

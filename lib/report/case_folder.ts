@@ -12,10 +12,15 @@
  * @module
  */
 
-import { existsSync, mkdirSync, readdirSync, renameSync, rmSync, statSync } from "node:fs";
+import { existsSync, readdirSync, renameSync, rmSync, statSync } from "node:fs";
 import { join } from "node:path";
 import type { CaseResult } from "../pipeline/case_result.ts";
-import { writeFileAtomic } from "../io/write_atomic.ts";
+import {
+  describeWriteError,
+  OutputTransaction,
+  OutputWriteError,
+} from "../io/output_transaction.ts";
+import { caseIdClash, isReservedCaseId, safeCaseId } from "../annotations/case_id.ts";
 import { HOTFIELD_VERSION } from "../version.ts";
 import { caseHotspotGeoJson } from "./hotspot_geojson.ts";
 import { renderCaseHtml } from "./report_html.ts";
@@ -130,6 +135,13 @@ export function checkCaseFolderName(id: string): void {
       `Cannot write the report of case "${id}": the case id is not a safe folder name`,
     );
   }
+  if (isReservedCaseId(id)) {
+    throw new Error(
+      `Cannot write the report of case "${id}": hotfield writes a file or folder of that name beside the case folders (safeCaseId gives "${
+        safeCaseId(id)
+      }")`,
+    );
+  }
 }
 
 /**
@@ -164,26 +176,59 @@ export function writeCaseFolder(
   files: readonly [string, string | Uint8Array][],
 ): string[] {
   checkCaseFolderName(id);
-  const finalDir = join(outDir, id);
-  const stage = join(outDir, `${TEMP_PREFIX}${id}-${Deno.pid}`);
-  const old = `${stage}.old`;
+  checkCaseIdFree(outDir, id);
+  const tx = new OutputTransaction(outDir, `the report of "${id}" in "${outDir}"`);
   try {
-    mkdirSync(outDir, { recursive: true });
     removeTemporaryEntries(outDir, { caseId: id });
-    mkdirSync(stage);
-    for (const [name, text] of files) writeFileAtomic(join(stage, name), text);
-    if (existsSync(finalDir)) renameSync(finalDir, old);
-    renameSync(stage, finalDir);
-    rmSync(old, { recursive: true, force: true });
   } catch (e) {
-    rmSync(stage, { recursive: true, force: true });
-    if (!existsSync(finalDir) && existsSync(old)) renameSync(old, finalDir);
-    throw new Error(
-      `Cannot write the report of "${id}" in "${outDir}": ${(e as Error).message}`,
+    tx.abort();
+    throw new OutputWriteError(
+      `Cannot write the report of "${id}" in "${outDir}": ${describeWriteError(e)}`,
       { cause: e },
     );
   }
-  return files.map(([name]) => join(finalDir, name));
+  tx.folder(id, files);
+  tx.commit();
+  return files.map(([name]) => join(outDir, id, name));
+}
+
+/**
+ * Refuses a case id that differs only by case from a folder or file already
+ * in `outDir`: on a case-insensitive file system they are one entry, and the
+ * new report would replace another case's.
+ *
+ * @param outDir The output folder (missing is fine).
+ * @param id The case id.
+ * @throws {Error} Naming both names and the folder.
+ *
+ * @example
+ * ```ts
+ * import { checkCaseIdFree } from "./case_folder.ts";
+ * import { mkdirSync } from "node:fs";
+ * const dir = Deno.makeTempDirSync();
+ * mkdirSync(`${dir}/QVT-24-001`);
+ * checkCaseIdFree(dir, "QVT-24-001"); // the same case again: fine
+ * let refused = false;
+ * try { checkCaseIdFree(dir, "qvt-24-001"); } catch { refused = true; }
+ * if (!refused) throw new Error("an id differing only by case must be refused");
+ * Deno.removeSync(dir, { recursive: true });
+ * ```
+ */
+export function checkCaseIdFree(outDir: string, id: string): void {
+  let names: string[];
+  try {
+    names = readdirSync(outDir);
+  } catch {
+    return;
+  }
+  const clash = caseIdClash([id, ...names.filter((n) => !n.startsWith("."))]);
+  if (clash !== undefined && clash[0] === id) {
+    throw new Error(
+      `Cannot write the report of case "${id}" in "${outDir}": "${
+        clash[1]
+      }" is already there and differs only by case (one folder on a case-insensitive file system); give the case another id`,
+    );
+  }
 }
 
 const TEMP_FOLDER = /^\.tmp-(.+)-(\d+)(\.old)?$/;

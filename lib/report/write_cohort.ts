@@ -15,7 +15,7 @@
 import { existsSync, readdirSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import { REPORT_SCHEMA, type ReportJson } from "../pipeline/report_types.ts";
-import { writeFileAtomic } from "../io/write_atomic.ts";
+import { OutputTransaction } from "../io/output_transaction.ts";
 import { HOTFIELD_VERSION } from "../version.ts";
 import { renderCohortIndex } from "./cohort_index.ts";
 import { casesCsv, fieldsCsv } from "./report_csv.ts";
@@ -105,7 +105,8 @@ export interface CohortFilesOptions {
  * @param reports The reports to list, in order (see {@linkcode readCaseReports}).
  * @param options Which files, plotly.js, generation time.
  * @returns The paths written.
- * @throws {Error} Naming the file that cannot be written.
+ * @throws {OutputWriteError} Naming the folder and the file at fault; every cohort file
+ *   is then as it was (they are staged and renamed into place together).
  *
  * @example The CSV tables of an empty cohort
  * ```ts
@@ -169,15 +170,9 @@ export function writeCohortFiles(
       ],
     );
   }
-  const written: string[] = [];
-  for (const [name, data] of files) {
-    const path = join(outDir, name);
-    try {
-      writeFileAtomic(path, data);
-    } catch (e) {
-      throw new Error(`Cannot write "${path}": ${(e as Error).message}`, { cause: e });
-    }
-    written.push(path);
-  }
-  return written;
+  // all or nothing: a failure (a full disk, a folder in the way) leaves every
+  // cohort file as it was
+  const tx = new OutputTransaction(outDir, `the cohort files of "${outDir}"`);
+  for (const [name, data] of files) tx.file(name, data);
+  return tx.commit();
 }

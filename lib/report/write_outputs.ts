@@ -19,7 +19,7 @@
  * @module
  */
 
-import { existsSync, mkdirSync, statSync } from "node:fs";
+import { existsSync, statSync } from "node:fs";
 import type { CaseResult } from "../pipeline/case_result.ts";
 import {
   ALL_FORMATS,
@@ -30,6 +30,7 @@ import {
 } from "./case_folder.ts";
 import { readCaseReports, writeCohortFiles } from "./write_cohort.ts";
 import { readPlotlyJs } from "./plotly_asset.ts";
+import { caseIdClash } from "../annotations/case_id.ts";
 
 export { ALL_FORMATS, type OutputFormat, stableJson } from "./case_folder.ts";
 
@@ -154,6 +155,14 @@ export function writeOutputs(
     }
     seen.add(id);
   }
+  const clash = caseIdClash([...seen]);
+  if (clash !== undefined) {
+    throw new Error(
+      `Cannot write reports to "${outDir}": cases "${clash[0]}" and "${
+        clash[1]
+      }" differ only by case, and would share one folder on a case-insensitive file system; give one of them another id`,
+    );
+  }
 
   // 1. Render everything in memory.
   const generatedAt = options.generatedAt !== undefined
@@ -177,13 +186,7 @@ export function writeOutputs(
   }));
 
   // 2. Write each case folder staged, then the cohort files from every case folder.
-  try {
-    mkdirSync(outDir, { recursive: true });
-  } catch (e) {
-    throw new Error(`Cannot create the output folder "${outDir}": ${(e as Error).message}`, {
-      cause: e,
-    });
-  }
+  // (each write creates the folder when missing, and removes it again when it fails)
   const written: string[] = [];
   for (const { id, files } of perCase) {
     // A format list with nothing per case (csv only) makes no empty folder.
