@@ -61,12 +61,13 @@ export const MAX_CASE_FILE_BYTES = 1024 * 1024;
 export const MAX_MASK_FILE_BYTES = 256 * 1024 * 1024;
 
 /**
- * Largest decoded tissue mask, pixels (width × height): 100 megapixels, e.g.
- * 12,500 × 8,000, a 75 × 25 mm slide at 6 µm per mask pixel or a 30 × 20 mm
- * tissue area at 2.4 µm. The header is read first, so a larger mask is
- * refused before it is decoded.
+ * Largest decoded image, pixels (width × height): a PNG tissue mask or a
+ * PNG/JPEG slide thumbnail. 100 megapixels is e.g. 12,500 × 8,000: a 75 ×
+ * 25 mm slide at 6 µm per pixel, or a 30 × 20 mm tissue area at 2.4 µm. A
+ * PNG's header is read first, so a larger image is refused before it is
+ * decoded.
  */
-export const MAX_MASK_PIXELS = 100_000_000;
+export const MAX_IMAGE_PIXELS = 100_000_000;
 
 /**
  * Most JSON objects and arrays in one annotation or case file (every
@@ -74,8 +75,13 @@ export const MAX_MASK_PIXELS = 100_000_000;
  */
 export const MAX_JSON_CONTAINERS = 12_000_000;
 
-/** Most polygon positions over a case's region features, fields and traced mask. */
-export const MAX_REGION_VERTICES = 4_000_000;
+/**
+ * Most polygon positions in a case's outlines: the annotation file's region
+ * and field outlines together, and the traced tissue mask on top of them.
+ * Beyond about this many the valid region needs more than a minute or some
+ * gigabytes of memory.
+ */
+export const MAX_REGION_VERTICES = 3_000_000;
 
 /** Most figure points read for one case (GeoJSON figure positions or figures CSV rows). */
 export const MAX_FIGURE_POINTS = 5_000_000;

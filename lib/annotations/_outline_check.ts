@@ -7,6 +7,7 @@
  */
 
 import { inputError } from "../errors.ts";
+import { MAX_REGION_VERTICES } from "../defaults.ts";
 import { checkOutlinePositions } from "./_plausibility.ts";
 import { checkOutline, type RingProblem } from "../geometry/polygon_validity.ts";
 import { roundTo } from "../numbers.ts";
@@ -23,6 +24,8 @@ export interface OutlinePlace {
   multi: boolean;
   /** The slide, for areas in mm². */
   slide: SlideInfo;
+  /** Positions of the file's outlines so far, counted against `MAX_REGION_VERTICES`. */
+  budget: { vertices: number };
 }
 
 /** At most this many problems are spelt out in one warning. */
@@ -34,13 +37,25 @@ const SHOWN = 4;
  * they were repaired, the warning.
  *
  * @throws {RangeError} Naming the file and feature, for an implausible
- *   position, or in the unlikely case that the planar union cannot repair
+ *   position, when the file's outlines pass `MAX_REGION_VERTICES`
+ *   positions, or in the unlikely case that the planar union cannot repair
  *   the outline.
  */
 export function checkFeatureOutline(
   polygons: MultiPolygonPx,
   place: OutlinePlace,
 ): { polygons: MultiPolygonPx; warning?: string } {
+  for (const p of polygons) for (const r of p) place.budget.vertices += r.length;
+  if (place.budget.vertices > MAX_REGION_VERTICES) {
+    throw inputError(
+      RangeError,
+      "annotations",
+      place.file,
+      `the outlines hold more than ${
+        MAX_REGION_VERTICES.toLocaleString("en-US")
+      } positions by ${place.at}, the limit (see "Input limits" in the README); simplify them`,
+    );
+  }
   checkOutlinePositions(polygons, place.slide, place.file, place.at);
   let checked;
   try {

@@ -214,6 +214,8 @@ export class AnnotationCollector {
   readonly #beyondSlide: number[] = [];
   /** Per figure feature read here: feature index and its points' range in the builder. */
   readonly #figureFeatures: [number, number, number][] = [];
+  /** Positions of all outlines so far, against MAX_REGION_VERTICES. */
+  readonly #budget = { vertices: 0 };
 
   /**
    * Checks the root and reads the slide.
@@ -289,6 +291,7 @@ export class AnnotationCollector {
     const tissue = this.#tissue, tumour = this.#tumour, exclude = this.#exclude;
     const fields = this.#fields, figures = this.#figures;
     const emptyGeometries = this.#emptyGeometries, beyondSlide = this.#beyondSlide;
+    const budget = this.#budget;
     const at = `feature ${i}`;
     if (f === null || typeof f !== "object" || Array.isArray(f)) {
       throw fail(
@@ -361,6 +364,7 @@ export class AnnotationCollector {
           at,
           multi: type === "MultiPolygon",
           slide,
+          budget,
         });
         if (checked.warning !== undefined) warnings.push(checked.warning);
         const polygons = checked.polygons;
@@ -388,7 +392,7 @@ export class AnnotationCollector {
         break;
       }
       case "field": {
-        const spec = readField(p, type, c, reader, i, fail, { file, slide, warnings });
+        const spec = readField(p, type, c, reader, i, fail, { file, slide, warnings, budget });
         checkOutlinePositions([[spec.pointsPx ?? [spec.centerPx]]], slide, file, at);
         fields.push(spec);
         break;
@@ -522,7 +526,7 @@ function readField(
   reader: GeometryReader,
   i: number,
   fail: Fail,
-  ctx: { file: string; slide: SlideInfo; warnings: string[] },
+  ctx: { file: string; slide: SlideInfo; warnings: string[]; budget: { vertices: number } },
 ): FieldSpec {
   const at = `feature ${i}`;
   if (p.reader === undefined || p.reader === null) {
@@ -593,6 +597,7 @@ function readField(
       at: who,
       multi: type === "MultiPolygon",
       slide: ctx.slide,
+      budget: ctx.budget,
     });
     if (checked.warning !== undefined) ctx.warnings.push(checked.warning);
     if (checked.polygons.length === 0) {

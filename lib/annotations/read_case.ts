@@ -73,8 +73,11 @@ import { inputError } from "../errors.ts";
 import { readInputFile } from "../io/read_input.ts";
 import {
   MAX_CASE_FILE_BYTES,
+  MAX_IMAGE_PIXELS,
   MAX_JSON_CONTAINERS,
   MAX_MASK_FILE_BYTES,
+  MAX_REGION_VERTICES,
+  MAX_SLIDE_EXTENT_MM,
   MAX_TEXT_INPUT_BYTES,
 } from "../defaults.ts";
 import { regionBBox } from "../geometry/region_bbox.ts";
@@ -87,7 +90,13 @@ import type {
   RegionPart,
   SlideInfo,
 } from "../types.ts";
-import { checkMaskSize, decodeMaskPng, maskToPolygons } from "../tissue/read_mask.ts";
+import {
+  checkMaskSize,
+  decodeMaskPng,
+  MaskOutlineTooLargeError,
+  maskToPolygons,
+} from "../tissue/read_mask.ts";
+import { checkPngBounds } from "../io/png_bounds.ts";
 import { describe } from "./_describe.ts";
 import { emptyFigureSet } from "./_figure_builder.ts";
 import { figurePositionWarnings } from "./_figure_checks.ts";
@@ -661,9 +670,19 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
     const [maskMppX, maskMppY] = typeof maskMpp === "number" ? [maskMpp, maskMpp] : maskMpp;
     const bytes = await read(path, "tissue mask");
     record("tissue-mask", path, bytes);
-    const mask = decodeMaskPng(bytes, { fileName: path });
+    // sized from its header before it is decoded (see "Input limits" in the README)
+    const header = await checkPngBounds(bytes, {
+      what: "tissue mask",
+      fileName: path,
+      maxPixels: MAX_IMAGE_PIXELS,
+    });
+    if (header !== null) checkMaskExtent(header, [maskMppX, maskMppY], path);
     // throws when the size disagrees; returns warnings for unknown sizes or small mismatches
-    warnings.push(...checkMaskSize(mask, [maskMppX, maskMppY], slide, path));
+    const sizeWarnings = header !== null
+      ? checkMaskSize(header, [maskMppX, maskMppY], slide, path)
+      : undefined;
+    const mask = decodeMaskPng(bytes, { fileName: path });
+    warnings.push(...(sizeWarnings ?? checkMaskSize(mask, [maskMppX, maskMppY], slide, path)));
     if (maskMppX < slide.mppX || maskMppY < slide.mppY) {
       warnings.push(
         `${path}: mask mpp ${maskMppX}, ${maskMppY} is finer than the slide's ${slide.mppX}, ${slide.mppY} µm/px; masks are usually coarser`,
@@ -671,7 +690,30 @@ export async function loadCase(input: CaseInput): Promise<CaseData> {
     }
     // One mask pixel, in µm, as slide pixels along x and y.
     const [scaleX, scaleY] = umToPx([maskMppX, maskMppY], slide);
-    const polygons = maskToPolygons(mask, { scaleX, scaleY });
+    let polygons;
+    try {
+      // the mask's share of the limit: what the annotation outlines left of it
+      let used = 0;
+      for (const part of [...tissue, ...tumour, ...exclude]) {
+        for (const p of part.polygons) for (const r of p) used += r.length;
+      }
+      polygons = maskToPolygons(mask, {
+        scaleX,
+        scaleY,
+        maxVertices: Math.max(0, MAX_REGION_VERTICES - used),
+      });
+    } catch (e) {
+      if (!(e instanceof MaskOutlineTooLargeError)) throw e;
+      throw inputError(
+        RangeError,
+        "tissue mask",
+        path,
+        `its outline traces into more vertices than the limit of ${
+          MAX_REGION_VERTICES.toLocaleString("en-US")
+        } outline positions per case allows (a noisy mask? smooth it, or give a coarser one; see "Input limits" in the README)`,
+        e,
+      );
+    }
     if (polygons.length === 0) {
       warnings.push(`${path}: the mask has no tissue pixels (all zero)`);
     } else {
@@ -829,4 +871,22 @@ function readBytes(path: string, what: string, at = path): Promise<Uint8Array> {
     maxBytes: INPUT_LIMITS[what] ?? MAX_TEXT_INPUT_BYTES,
     openPath: at,
   });
+}
+/** Refuses a mask whose extent in micrometres no slide could have. */
+function checkMaskExtent(
+  size: { width: number; height: number },
+  [mppX, mppY]: [number, number],
+  path: string,
+): void {
+  const wMm = size.width * mppX / 1000, hMm = size.height * mppY / 1000;
+  if (wMm > MAX_SLIDE_EXTENT_MM || hMm > MAX_SLIDE_EXTENT_MM) {
+    throw inputError(
+      RangeError,
+      "tissue mask",
+      path,
+      `the mask covers ${Math.round(wMm)} × ${
+        Math.round(hMm)
+      } mm at ${mppX} × ${mppY} µm per mask pixel, more than any slide (${MAX_SLIDE_EXTENT_MM} mm); check the mask mpp`,
+    );
+  }
 }

@@ -7,12 +7,15 @@
  */
 
 import { basename } from "node:path";
-import { closeSync, openSync, readSync } from "node:fs";
+import { closeSync, openSync, readSync, statSync } from "node:fs";
 import { inputError } from "../errors.ts";
 import { roundTo } from "../numbers.ts";
 import type { MultiPolygonPx, RgbImage, SlideInfo } from "../types.ts";
 import { decodeRgbImage, sniffImageFormat } from "../slide/decode_image.ts";
 import { openSlide } from "../slide/open_slide.ts";
+import { readInputFile } from "../io/read_input.ts";
+import { checkPngBounds } from "../io/png_bounds.ts";
+import { MAX_IMAGE_PIXELS, MAX_MASK_FILE_BYTES } from "../defaults.ts";
 import { readOverview } from "../slide/read_overview.ts";
 import {
   detectTissue,
@@ -121,6 +124,24 @@ export function slideIdFromPath(path: string): string {
  * ```
  */
 export function slideFileKind(path: string): "slide" | "thumbnail" {
+  // looked up before it is opened: opening a named pipe blocks until a writer comes
+  let info;
+  try {
+    info = statSync(path);
+  } catch {
+    info = undefined; // the open below names the problem
+  }
+  if (info !== undefined && !info.isFile()) {
+    throw new Error(
+      `Cannot read slide "${path}": ${
+        info.isDirectory()
+          ? "it is a folder, not a file"
+          : info.isFIFO()
+          ? "it is a named pipe (FIFO), not a regular file"
+          : "it is not a regular file (a device?)"
+      }`,
+    );
+  }
   let fd: number;
   try {
     fd = openSync(path, "r");
@@ -281,7 +302,9 @@ function readSlide(path: string, options: ReadSlideImageOptions): SlideImage {
 
 async function readThumbnail(path: string, options: ReadSlideImageOptions): Promise<SlideImage> {
   const warnings: string[] = [];
-  const bytes = new Uint8Array(await Deno.readFile(path));
+  const bytes = await readInputFile(path, { what: "slide", maxBytes: MAX_MASK_FILE_BYTES });
+  // a PNG is sized from its header before it is decoded
+  await checkPngBounds(bytes, { what: "slide", fileName: path, maxPixels: MAX_IMAGE_PIXELS });
   const format = sniffImageFormat(bytes) ?? "png";
   let image: RgbImage;
   try {

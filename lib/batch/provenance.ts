@@ -6,7 +6,8 @@
  */
 
 import { createHash } from "node:crypto";
-import { readFile } from "node:fs/promises";
+import { readInputFile } from "../io/read_input.ts";
+import { MAX_TEXT_INPUT_BYTES } from "../defaults.ts";
 import { isAbsolute, join } from "node:path";
 import type { CaseInput } from "../annotations/read_case.ts";
 import type { ReportProvenance } from "../pipeline/report_types.ts";
@@ -84,7 +85,12 @@ export async function expectedProvenance(
     const at = input.baseDir !== undefined && !isAbsolute(path) ? join(input.baseDir, path) : path;
     let bytes: Uint8Array;
     try {
-      bytes = await readFile(at);
+      // regular files only: a named pipe is never opened (loadCase names the problem)
+      bytes = await readInputFile(path, {
+        what: "input",
+        maxBytes: MAX_TEXT_INPUT_BYTES,
+        openPath: at,
+      });
     } catch {
       return null;
     }

@@ -33,7 +33,8 @@
  * @module
  */
 
-import { readFile } from "node:fs/promises";
+import { readInputFile } from "../io/read_input.ts";
+import { MAX_TEXT_INPUT_BYTES } from "../defaults.ts";
 import { dirname, resolve } from "node:path";
 import { parse } from "csv-parse/sync";
 import { type CaseInput, readCaseFile } from "../annotations/read_case.ts";
@@ -276,21 +277,8 @@ export function parseManifest(text: string, path: string): ManifestRow[] {
  * ```
  */
 export async function readManifest(path: string, options: ReportOptions): Promise<BatchCase[]> {
-  let bytes: Uint8Array;
-  try {
-    bytes = await readFile(path);
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    throw new Error(
-      `Cannot read manifest "${path}": ${
-        code === "ENOENT"
-          ? "file not found"
-          : code === "EISDIR"
-          ? "it is a folder, not a file"
-          : (e as Error).message
-      }`,
-    );
-  }
+  // regular files only, within the limit (a named pipe is never opened)
+  const bytes = await readInputFile(path, { what: "manifest", maxBytes: MAX_TEXT_INPUT_BYTES });
   let text: string;
   try {
     text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);

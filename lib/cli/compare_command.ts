@@ -6,7 +6,8 @@
  * @module
  */
 
-import { readFile } from "node:fs/promises";
+import { readInputFile } from "../io/read_input.ts";
+import { MAX_TEXT_INPUT_BYTES } from "../defaults.ts";
 import { UsageError } from "../errors.ts";
 import { loadCase } from "../annotations/read_case.ts";
 import { compareCase, type CompareOptions } from "../compare/compare_case.ts";
@@ -221,17 +222,13 @@ export async function run(args: string[], io: CommandIo): Promise<number> {
       throw new UsageError(`Option --${name} applies to a single pair, not to a manifest`);
     }
   }
-  let text: string;
-  try {
-    text = new TextDecoder().decode(await readFile(manifestPath));
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    throw new Error(
-      `Cannot read comparison manifest "${manifestPath}": ${
-        code === "ENOENT" ? "file not found" : (e as Error).message
-      }`,
-    );
-  }
+  // regular files only, within the limit (a named pipe is never opened)
+  const text = new TextDecoder().decode(
+    await readInputFile(manifestPath, {
+      what: "comparison manifest",
+      maxBytes: MAX_TEXT_INPUT_BYTES,
+    }),
+  );
   if (/\.(geo)?json$/i.test(manifestPath) || text.trimStart().startsWith("{")) {
     throw new UsageError(
       `"${manifestPath}" looks like annotations, not a manifest: give REFERENCE CANDIDATE (two files), or a manifest CSV`,

@@ -6,7 +6,8 @@
  */
 
 import { createHash } from "node:crypto";
-import { readFile } from "node:fs/promises";
+import { readInputFile } from "../io/read_input.ts";
+import { MAX_TEXT_INPUT_BYTES } from "../defaults.ts";
 import { parseAnnotations } from "../annotations/read_annotations.ts";
 import { parseFiguresCsv } from "../annotations/read_figures_csv.ts";
 import { inputError } from "../errors.ts";
@@ -59,18 +60,8 @@ export async function readCandidates(
   path: string,
   options: ReadCandidatesOptions,
 ): Promise<CandidateSet & { warnings: string[] }> {
-  let bytes: Uint8Array;
-  try {
-    bytes = new Uint8Array(await readFile(path));
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    const problem = code === "ENOENT"
-      ? "file not found"
-      : code === "EISDIR"
-      ? "it is a folder, not a file"
-      : `the file cannot be read (${(e as Error).message})`;
-    throw new Error(`Cannot read ${WHAT} "${path}": ${problem}`);
-  }
+  // regular files only, within the limit (a named pipe is never opened)
+  const bytes = await readInputFile(path, { what: WHAT, maxBytes: MAX_TEXT_INPUT_BYTES });
   let text: string;
   try {
     text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);

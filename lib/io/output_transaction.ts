@@ -44,6 +44,8 @@ export function describeWriteError(e: unknown): string {
       return "a folder is in the way of a file (EISDIR)";
     case "ENOTDIR":
       return "a file is in the way of a folder (ENOTDIR)";
+    case "EBUSY":
+      return "a file or folder is in use, e.g. a mount point (EBUSY)";
     case "ENAMETOOLONG":
       return "a name is too long for the file system (ENAMETOOLONG)";
     default:
@@ -151,9 +153,7 @@ export class OutputTransaction {
   #fail(path: string, e: unknown): never {
     this.abort();
     throw new OutputWriteError(
-      `Cannot write reports to "${this.outDir}": ${
-        describeWriteError(e)
-      } while writing "${path}"; ` +
+      `Cannot write ${this.#what}: ${describeWriteError(e)} while writing "${path}"; ` +
         "the folder was left as it was",
       { cause: e },
     );
@@ -217,8 +217,10 @@ export class OutputTransaction {
   commit(): string[] {
     if (this.#done) throw new Error("OutputTransaction: already finished");
     const done: Staged[] = [];
+    let current: Staged | undefined;
     try {
       for (const s of this.#staged) {
+        current = s;
         if (kindAt(s.target) !== "none") {
           // temporary names as staged ones, so a clean-up after a crash knows them
           s.old = s.folder ? `${s.temp}.old` : `${s.target}.tmp-${Deno.pid}-${counter++}`;
@@ -239,7 +241,7 @@ export class OutputTransaction {
           // keep undoing the others
         }
       }
-      const at = this.#staged[done.length - 1]?.target ?? this.outDir;
+      const at = current?.target ?? this.outDir;
       this.#fail(at, e);
     }
     this.#done = true;

@@ -6,6 +6,7 @@
 
 import { decode as decodePng } from "fast-png";
 import { decode as decodeJpeg } from "jpeg-js";
+import { MAX_IMAGE_PIXELS } from "../defaults.ts";
 import { inputError } from "../errors.ts";
 import type { RgbImage } from "../types.ts";
 
@@ -74,7 +75,11 @@ export function decodeRgbImage(bytes: Uint8Array, options: DecodeRgbImageOptions
 
 function jpegToRgb(bytes: Uint8Array, file: string): RgbImage {
   try {
-    const img = decodeJpeg(bytes, { useTArray: true, formatAsRGBA: false, maxResolutionInMP: 400 });
+    const img = decodeJpeg(bytes, {
+      useTArray: true,
+      formatAsRGBA: false,
+      maxResolutionInMP: MAX_IMAGE_PIXELS / 1e6,
+    });
     if (!(img.width > 0 && img.height > 0) || img.data.length < img.width * img.height * 3) {
       throw new Error("no image data");
     }

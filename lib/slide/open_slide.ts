@@ -169,7 +169,17 @@ export function mppFromProperties(props: Record<string, string>): SlideMpp | nul
 export function openSlide(path: string): SlideFile {
   try {
     const s = statSync(path);
-    if (!s.isFile()) throw inputError(TypeError, WHAT, path, "it is a folder, not a file");
+    if (!s.isFile()) {
+      // never hand a pipe or device to the library: opening it may block
+      throw inputError(
+        TypeError,
+        WHAT,
+        path,
+        s.isDirectory()
+          ? "it is a folder, not a file"
+          : "it is not a regular file (a pipe or a device?)",
+      );
+    }
   } catch (e) {
     if (e instanceof TypeError) throw e;
     const code = (e as { code?: string }).code;

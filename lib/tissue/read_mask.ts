@@ -127,6 +127,18 @@ export interface MaskToPolygonsOptions {
   originX?: number;
   /** Slide y of the mask's top edge. @default 0 */
   originY?: number;
+  /**
+   * Most outline vertices traced before giving up: a noisy mask (salt and
+   * pepper) traces into millions of tiny polygons.
+   * @default Infinity
+   */
+  maxVertices?: number;
+}
+
+/** A traced mask outline has more vertices than `maxVertices` allows. */
+export class MaskOutlineTooLargeError extends RangeError {
+  /** Always "MaskOutlineTooLargeError". */
+  override name = "MaskOutlineTooLargeError";
 }
 
 const DX = [1, 0, -1, 0];
@@ -157,6 +169,8 @@ const DY = [0, 1, 0, -1];
  * @param options Scale and origin, in slide pixels.
  * @returns The tissue polygons in slide pixels (`[]` when the mask is empty).
  * @throws {RangeError} When a scale is not a positive finite number.
+ * @throws {MaskOutlineTooLargeError} (a RangeError) When the outline has more
+ *   than `maxVertices` vertices.
  *
  * @example An L-shaped tissue piece with 4 px per mask pixel
  * ```ts
@@ -168,6 +182,8 @@ const DY = [0, 1, 0, -1];
  */
 export function maskToPolygons(mask: Mask, options: MaskToPolygonsOptions): MultiPolygonPx {
   const { scaleX, scaleY } = options;
+  const maxVertices = options.maxVertices ?? Infinity;
+  let vertices = 0;
   const originX = options.originX ?? 0, originY = options.originY ?? 0;
   if (!(scaleX > 0 && scaleY > 0 && Number.isFinite(scaleX) && Number.isFinite(scaleY))) {
     throw new RangeError(
@@ -261,6 +277,12 @@ export function maskToPolygons(mask: Mask, options: MaskToPolygonsOptions): Mult
         }
         // close; drop the start vertex when it lies inside a straight run
         if (d === startDir) ring.shift();
+        vertices += ring.length;
+        if (vertices > maxVertices) {
+          throw new MaskOutlineTooLargeError(
+            `Cannot trace a mask: its outline has more than ${maxVertices} vertices`,
+          );
+        }
         ring.push([ring[0][0], ring[0][1]]);
         const pi = polyOf.get(comp);
         if (ringAreaPx2(ring) > 0) {
@@ -288,7 +310,7 @@ export function maskToPolygons(mask: Mask, options: MaskToPolygonsOptions): Mult
  * The mask's extent (width × mask µm/px) must match the slide's
  * (width × slide µm/px) within max(1 mask pixel, 2 %) along each axis.
  *
- * @param mask The decoded mask.
+ * @param mask The mask's width and height (decoded, or from the PNG header).
  * @param maskMpp Mask micrometres per pixel, one number or `[x, y]`.
  * @param slide The slide (its `widthPx`/`heightPx` may be unknown).
  * @param fileName The mask file, for messages.
@@ -310,7 +332,7 @@ export function maskToPolygons(mask: Mask, options: MaskToPolygonsOptions): Mult
  * ```
  */
 export function checkMaskSize(
-  mask: Mask,
+  mask: Pick<Mask, "width" | "height">,
   maskMpp: number | [number, number],
   slide: SlideInfo,
   fileName: string,

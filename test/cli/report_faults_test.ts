@@ -1,8 +1,8 @@
 // hotfield report under faults and with colliding case ids, through the real
 // command line: a full disk ends with exit 1 naming the output folder and
-// leaves nothing behind; ids that are the cohort's own names are renamed with
-// a warning; ids that differ only by case are refused before anything is
-// written.
+// leaves no partial case folder and no temporary name; ids that are the
+// cohort's own names are renamed with a warning; of two ids that differ only
+// by case the second is refused before its folder is written.
 
 import { strict as assert } from "node:assert";
 import { existsSync, readdirSync, statSync, writeFileSync } from "node:fs";
@@ -74,18 +74,23 @@ Deno.test("hotfield report renames case ids that are the cohort's own names, wit
   }
 });
 
-Deno.test("hotfield report refuses case ids that differ only by case before writing", async () => {
+Deno.test("hotfield report refuses the second of two case ids that differ only by case", async () => {
   const dir = Deno.makeTempDirSync();
   try {
     const a = caseFile(dir, "a.geojson", "QVT-24-070");
     const b = caseFile(dir, "b.geojson", "qvt-24-070");
-    const r = await cli([a, b, "--out", "out"], dir);
+    const r = await cli([a, b, "--out", "out", "--simulations", "0"], dir);
     assert.equal(r.code, 1, r.stderr);
     assert.match(
       r.stderr,
-      /Cases "a\.geojson" and "b\.geojson" have case ids "QVT-24-070" and "qvt-24-070" that differ only by case/,
+      /b\.geojson: Case id "qvt-24-070" differs only by case from "QVT-24-070", the id of a\.geojson \(one folder on a case-insensitive file system\)/,
     );
-    assert.ok(!existsSync(join(dir, "out")), "nothing written");
+    assert.deepEqual(readdirSync(join(dir, "out", "QVT-24-070")).sort(), [
+      "hotspot.geojson",
+      "report.html",
+      "report.json",
+    ]);
+    assert.ok(!readdirSync(join(dir, "out")).includes("qvt-24-070"));
   } finally {
     Deno.removeSync(dir, { recursive: true });
   }
@@ -118,7 +123,7 @@ Deno.test("hotfield report on a full disk exits 1 naming the folder and leaves n
     assert.match(
       r.stderr,
       new RegExp(
-        `^hotfield report: Cannot write reports to "${out}": no space left on the device \\(ENOSPC\\)`,
+        `^hotfield report: a\\.geojson: Cannot write the report of "QVT-24-071" in "${out}": no space left on the device \\(ENOSPC\\)`,
       ),
     );
     assert.equal(r.stderr.trim().split("\n").length, 1, "one line, no stack trace");
