@@ -5,7 +5,7 @@
 // by case the second is refused before its folder is written.
 
 import { strict as assert } from "node:assert";
-import { existsSync, readdirSync, statSync, writeFileSync } from "node:fs";
+import { readdirSync, statSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 
 const ROOT = new URL("../../", import.meta.url).pathname;
