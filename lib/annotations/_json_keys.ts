@@ -42,7 +42,12 @@ const LINEAR_LIMIT = 24;
 /** The name between the quotes at `[off, off + len)`, escapes resolved. */
 function nameAt(text: string, off: number, len: number): string {
   const raw = text.slice(off, off + len);
-  return raw.includes("\\") ? JSON.parse(`"${raw}"`) as string : raw;
+  if (!raw.includes("\\")) return raw;
+  try {
+    return JSON.parse(`"${raw}"`) as string;
+  } catch {
+    return raw; // a broken escape: the text is no JSON, and the parser will say so
+  }
 }
 
 /** Index of the closing quote of the string whose opening quote is at `i`, or -1. */

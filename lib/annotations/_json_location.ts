@@ -32,7 +32,8 @@ export function locateJsonProblem(text: string): JsonProblem | undefined {
       i++;
     }
   };
-  const found = () => i >= n ? "the end of the file" : `"${text[i]}"`;
+  // quoted as JSON, so a control character shows as an escape, not as itself
+  const found = () => i >= n ? "the end of the file" : JSON.stringify(text[i]);
   const value = (depth: number): void => {
     if (depth > 2000) throw new Stop(i, "nesting is too deep");
     ws();

@@ -14,7 +14,7 @@
  */
 
 import { inputError } from "../errors.ts";
-import { MAX_SLIDE_EXTENT_MM } from "../defaults.ts";
+import { MAX_FIGURE_POINTS, MAX_SLIDE_EXTENT_MM } from "../defaults.ts";
 import type { FigureSet, MultiPolygonPx, SlideInfo } from "../types.ts";
 
 /** Largest plausible |x| and |y| in level-0 pixels, from the slide's mpp. */
@@ -108,4 +108,31 @@ export function checkFigureMagnitudes(
       );
     }
   }
+}
+
+/**
+ * Refuses more figure points than `MAX_FIGURE_POINTS`.
+ *
+ * @param count Points read (or, for a CSV, lines counted before parsing).
+ * @param what What was read, e.g. `annotations` or `figures CSV`.
+ * @param file The file, for messages.
+ * @param unit What `count` counts: `figure points` or `lines`.
+ * @throws {RangeError} Naming the file, the count and the limit.
+ */
+export function checkFigureCount(
+  count: number,
+  what: string,
+  file: string,
+  unit: "figure points" | "lines" = "figure points",
+): void {
+  const limit = unit === "lines" ? MAX_FIGURE_POINTS + 1 : MAX_FIGURE_POINTS;
+  if (count <= limit) return;
+  throw inputError(
+    RangeError,
+    what,
+    file,
+    `the file holds ${count.toLocaleString("en-US")} ${unit}, more than the limit of ${
+      MAX_FIGURE_POINTS.toLocaleString("en-US")
+    } figure points (see "Input limits" in the README)`,
+  );
 }

@@ -32,7 +32,7 @@ import { DEFAULT_FIGURE_LABEL, figureLabelText, FigureSetBuilder } from "./_figu
 import { figurePositionWarnings } from "./_figure_checks.ts";
 import { locateJsonProblem } from "./_json_location.ts";
 import { checkFeatureOutline } from "./_outline_check.ts";
-import { checkFigureMagnitudes, checkOutlinePositions } from "./_plausibility.ts";
+import { checkFigureCount, checkFigureMagnitudes, checkOutlinePositions } from "./_plausibility.ts";
 import { containerLimitDetail, duplicateKeyDetail, scanJsonText } from "./_json_keys.ts";
 import { MAX_JSON_CONTAINERS } from "../defaults.ts";
 import { polygonAreaPx2, polygonCentroidPx } from "../geometry/planar_area.ts";
@@ -428,6 +428,7 @@ export class AnnotationCollector {
     const figureSet = scanned
       ? mergeFigures(scanned, this.#figures.build(), this.#figureFeatures)
       : this.#figures.build();
+    checkFigureCount(figureSet.xPx.length, WHAT, file);
     checkFigureMagnitudes(figureSet, slide, WHAT, file, "feature");
     warnings.push(...figurePositionWarnings(figureSet, slide, file, "feature"));
     return {

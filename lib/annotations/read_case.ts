@@ -289,7 +289,7 @@ export function parseCaseFile(text: string, path: string): CaseInput {
         TypeError,
         what,
         path,
-        `unknown member "${k}"; known members: ${CASE_KEYS.join(", ")}`,
+        `unknown member ${JSON.stringify(k)}; known members: ${CASE_KEYS.join(", ")}`,
       );
     }
   }
@@ -326,7 +326,7 @@ export function parseCaseFile(text: string, path: string): CaseInput {
             TypeError,
             what,
             path,
-            `unknown member "figures.${k}"; known: path, units`,
+            `unknown member ${JSON.stringify(`figures.${k}`)}; known: path, units`,
           );
         }
       }
@@ -372,7 +372,7 @@ export function parseCaseFile(text: string, path: string): CaseInput {
           TypeError,
           what,
           path,
-          `unknown member "tissue_mask.${k}"; known: path, mpp`,
+          `unknown member ${JSON.stringify(`tissue_mask.${k}`)}; known: path, mpp`,
         );
       }
     }

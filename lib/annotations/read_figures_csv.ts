@@ -23,7 +23,7 @@ import type { FigureSet } from "../types.ts";
 import { umToPx } from "../units.ts";
 import { isDecimalText, parseDecimal } from "../numbers.ts";
 import { DEFAULT_FIGURE_LABEL, FigureSetBuilder } from "./_figure_builder.ts";
-import { checkFigureMagnitudes } from "./_plausibility.ts";
+import { checkFigureCount, checkFigureMagnitudes } from "./_plausibility.ts";
 
 /** Options of {@linkcode parseFiguresCsv}. */
 export interface ParseFiguresCsvOptions {
@@ -91,7 +91,14 @@ export function parseFiguresCsv(
       text.length === 0 ? "the file is empty (0 bytes)" : "the file holds only white space",
     );
   }
-  const firstLine = text.split(/\r?\n/).find((l) => l.trim() !== "") ?? "";
+  // lines counted before parsing, which builds an object per row
+  let lines = 1;
+  for (let i = text.indexOf("\n"); i >= 0 && i < text.length - 1; i = text.indexOf("\n", i + 1)) {
+    lines++;
+  }
+  checkFigureCount(lines, WHAT, file, "lines");
+  const firstLine = text.slice(0, 4096).split(/\r?\n/).find((l) => l.trim() !== "") ??
+    text.split(/\r?\n/).find((l) => l.trim() !== "") ?? "";
   const delimiter = csvDelimiter(firstLine);
 
   let rows: { record: string[]; info: { lines: number } }[];
@@ -127,8 +134,8 @@ export function parseFiguresCsv(
           raw === ""
             ? "is empty"
             : isDecimalText(raw.replace(",", "."))
-            ? `"${raw}" is too large`
-            : `"${raw}" is not a number`
+            ? `${JSON.stringify(raw)} is too large`
+            : `${JSON.stringify(raw)} is not a number`
         }${hint}`,
       );
     }
@@ -241,7 +248,10 @@ export function csvColumns(
     if ((KNOWN as readonly string[]).includes(h)) {
       const key = h as typeof KNOWN[number];
       if (col[key] !== undefined) {
-        throw fail(TypeError, `the header names column "${h}" twice: ${quoteHeader(firstLine)}`);
+        throw fail(
+          TypeError,
+          `the header names column ${JSON.stringify(h)} twice: ${quoteHeader(firstLine)}`,
+        );
       }
       col[key] = k;
     } else extra.push(record[k]);

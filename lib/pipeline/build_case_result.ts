@@ -4,6 +4,7 @@
  * @module
  */
 
+import { checkCountedFigures } from "./count_limits.ts";
 import type { CaseData } from "../types.ts";
 import type { CountMap, Placement, PreparedCase, WindowShape } from "../count/engine_types.ts";
 import type { CaseResult, ReportOptions } from "./case_result.ts";
@@ -178,6 +179,7 @@ export function startCaseResult(
   const topK = options.top ?? DEFAULT_TOP;
   const bestN = options.bestN ?? DEFAULT_BEST_N;
   prepared ??= prepareCaseFor(caseData, options);
+  checkCountedFigures(prepared, caseData);
   const warnings = [...prepared.warnings, ...settingWarnings];
   const map = computeCountMap(prepared, window, {
     strideUm,

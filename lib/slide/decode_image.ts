@@ -168,5 +168,6 @@ function pngToRgb(bytes: Uint8Array, file: string): RgbImage {
 }
 
 function errText(e: unknown): string {
-  return e instanceof Error ? e.message : String(e);
+  // the decoder may quote damaged bytes (a chunk type): keep the message on one printable line
+  return (e instanceof Error ? e.message : String(e)).replace(/[^\x20-\x7e]/g, "?");
 }

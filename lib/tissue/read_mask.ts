@@ -56,7 +56,8 @@ export function decodeMaskPng(bytes: Uint8Array, options: DecodeMaskOptions): Ma
   try {
     png = decode(bytes, { checkCrc: true });
   } catch (e) {
-    const why = e instanceof Error ? e.message : String(e);
+    // the decoder may quote damaged bytes (a chunk type): keep the message on one printable line
+    const why = (e instanceof Error ? e.message : String(e)).replace(/[^\x20-\x7e]/g, "?");
     throw inputError(SyntaxError, "tissue mask", fileName, `not a readable PNG image (${why})`, e);
   }
   const { width, height, channels, depth } = png;

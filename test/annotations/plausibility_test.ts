@@ -152,3 +152,14 @@ Deno.test("parseFiguresCsv() reads decimals only: hexadecimal, Infinity and 1e40
     );
   }
 });
+
+Deno.test("parseFiguresCsv() refuses more lines than the figure limit before parsing them", () => {
+  const text = "x,y\n" + "1,1\n".repeat(5_000_001);
+  assert.throws(
+    () => parseFiguresCsv(text, { fileName: "f.csv", mppX: 0.25, mppY: 0.25 }),
+    (e: Error) =>
+      e instanceof RangeError &&
+      e.message ===
+        'Cannot read figures CSV "f.csv": the file holds 5,000,002 lines, more than the limit of 5,000,000 figure points (see "Input limits" in the README)',
+  );
+});
