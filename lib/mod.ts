@@ -344,3 +344,27 @@ export {
   type WriteComparisonOptions,
 } from "./report/write_comparison.ts";
 export { showComparison, showComparisonCohort } from "./display/show_comparison.ts";
+
+// Hostile input (hardening area): the input limits, the outline check the
+// reader applies, the cohort's reserved names, and the errors of refused
+// inputs and failed writes.
+export {
+  MAX_CASE_FILE_BYTES,
+  MAX_COUNTED_FIGURES,
+  MAX_FIGURE_POINTS,
+  MAX_IMAGE_PIXELS,
+  MAX_JSON_CONTAINERS,
+  MAX_MASK_FILE_BYTES,
+  MAX_REGION_VERTICES,
+  MAX_SLIDE_EXTENT_MM,
+  MAX_TEXT_INPUT_BYTES,
+} from "./defaults.ts";
+export {
+  type CheckedOutline,
+  checkOutline,
+  type RingProblem,
+  type RingProblemKind,
+} from "./geometry/polygon_validity.ts";
+export { isReservedCaseId, RESERVED_CASE_IDS } from "./annotations/case_id.ts";
+export { InputSizeError } from "./io/read_input.ts";
+export { OutputWriteError } from "./io/output_transaction.ts";

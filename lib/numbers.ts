@@ -66,6 +66,12 @@ export function parseDecimal(text: string): number | undefined {
  *
  * @param text The text.
  * @returns True for a plain decimal.
+ *
+ * @example
+ * ```ts
+ * import { isDecimalText } from "./numbers.ts";
+ * if (!isDecimalText("1e400") || isDecimalText("0x10")) throw new Error("1e400 is written as a decimal, 0x10 is not");
+ * ```
  */
 export function isDecimalText(text: string): boolean {
   return DECIMAL.test(text.trim());

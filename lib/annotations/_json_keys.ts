@@ -81,6 +81,17 @@ function isMemberName(text: string, i: number): boolean {
  * @param text The text (a byte order mark is skipped like white space).
  * @param maxContainers Counting stops after this many objects and arrays.
  * @returns The count, where the limit was passed, and the first repeated name.
+ *
+ * @example A repeated mpp in the slide member
+ * ```ts
+ * import { scanJsonText } from "./_json_keys.ts";
+ * const scan = scanJsonText('{"slide": {"mpp": 0.25, "mpp": 0.5}, "features": []}', 100);
+ * if (scan.duplicate?.key !== "mpp" || scan.duplicate.path.join() !== "slide") {
+ *   throw new Error(`found ${JSON.stringify(scan.duplicate)}`);
+ * }
+ * const clean = scanJsonText('{"slide": {"mpp": 0.25}, "features": [[1, 2]]}', 100);
+ * if (clean.containers !== 4) throw new Error(`four objects and arrays, counted ${clean.containers}`);
+ * ```
  */
 export function scanJsonText(text: string, maxContainers: number): JsonTextScan {
   const n = text.length;
@@ -214,6 +225,13 @@ function pathAt(text: string, offset: number): (string | number)[] {
  * @param text The text.
  * @param offset A code unit offset.
  * @returns Line and column.
+ *
+ * @example
+ * ```ts
+ * import { lineColumnAt } from "./_json_keys.ts";
+ * const at = lineColumnAt("ab\ncd", 4);
+ * if (at.line !== 2 || at.column !== 2) throw new Error(`line 2, column 2; got ${JSON.stringify(at)}`);
+ * ```
  */
 export function lineColumnAt(text: string, offset: number): { line: number; column: number } {
   let line = 1, start = 0;
@@ -231,6 +249,13 @@ export function lineColumnAt(text: string, offset: number): { line: number; colu
  *
  * @param path Member names and array indices from the root.
  * @returns The description.
+ *
+ * @example A feature's properties
+ * ```ts
+ * import { describeJsonPath } from "./_json_keys.ts";
+ * const words = describeJsonPath(["features", 3, "properties"]);
+ * if (words !== 'feature 3 "properties"') throw new Error(words);
+ * ```
  */
 export function describeJsonPath(path: (string | number)[]): string {
   if (path.length === 0) return "the top-level object";
@@ -255,6 +280,14 @@ export function describeJsonPath(path: (string | number)[]): string {
  * @param text The text scanned.
  * @param d The repeated name.
  * @returns E.g. `line 1, column 60: the key "mpp" appears twice in "slide"; …`.
+ *
+ * @example
+ * ```ts
+ * import { duplicateKeyDetail, scanJsonText } from "./_json_keys.ts";
+ * const text = '{"a": 1, "a": 2}';
+ * const detail = duplicateKeyDetail(text, scanJsonText(text, 10).duplicate!);
+ * if (!detail.startsWith('line 1, column 10: the key "a" appears twice')) throw new Error(detail);
+ * ```
  */
 export function duplicateKeyDetail(text: string, d: DuplicateKey): string {
   const { line, column } = lineColumnAt(text, d.offset);
@@ -270,6 +303,14 @@ export function duplicateKeyDetail(text: string, d: DuplicateKey): string {
  * @param scan The scan that passed the limit.
  * @param limit The limit.
  * @returns E.g. `more than 12,000,000 JSON objects and arrays (the limit; …)`.
+ *
+ * @example
+ * ```ts
+ * import { containerLimitDetail, scanJsonText } from "./_json_keys.ts";
+ * const text = "[[], [], []]";
+ * const detail = containerLimitDetail(text, scanJsonText(text, 2), 2);
+ * if (!detail.includes("more than 2 JSON objects and arrays")) throw new Error(detail);
+ * ```
  */
 export function containerLimitDetail(text: string, scan: JsonTextScan, limit: number): string {
   const { line, column } = lineColumnAt(text, scan.overLimitAt);

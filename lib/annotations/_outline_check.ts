@@ -40,6 +40,19 @@ const SHOWN = 4;
  *   position, when the file's outlines pass `MAX_REGION_VERTICES`
  *   positions, or in the unlikely case that the planar union cannot repair
  *   the outline.
+ *
+ * @example A stray hole is dropped, with a warning naming the feature
+ * ```ts
+ * import { checkFeatureOutline } from "./_outline_check.ts";
+ * const sq = (x0: number, y0: number, x1: number, y1: number): [number, number][] =>
+ *   [[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]];
+ * const r = checkFeatureOutline([[sq(0, 0, 4000, 4000), sq(5000, 0, 5100, 100)]], {
+ *   file: "a.geojson", at: "feature 0", multi: false,
+ *   slide: { id: "QVT-24-001", mppX: 0.25, mppY: 0.25 }, budget: { vertices: 0 },
+ * });
+ * if (r.polygons[0].length !== 1) throw new Error("the hole outside is dropped");
+ * if (!r.warning?.startsWith("a.geojson feature 0: the outline is not valid")) throw new Error(`warning: ${r.warning}`);
+ * ```
  */
 export function checkFeatureOutline(
   polygons: MultiPolygonPx,

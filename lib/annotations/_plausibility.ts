@@ -44,6 +44,18 @@ function absurd(
  * @param file The file, for messages.
  * @param at The feature, e.g. `feature 7`.
  * @throws {RangeError} Naming the file, the feature and the position.
+ *
+ * @example A polygon at 1e15 px is refused
+ * ```ts
+ * import { checkOutlinePositions } from "./_plausibility.ts";
+ * const slide = { id: "QVT-24-001", mppX: 0.25, mppY: 0.25 };
+ * checkOutlinePositions([[[[0, 0], [10, 0], [10, 10], [0, 0]]]], slide, "a.geojson", "feature 0");
+ * let refused = false;
+ * try {
+ *   checkOutlinePositions([[[[0, 0], [1e15, 0], [1e15, 10], [0, 0]]]], slide, "a.geojson", "feature 1");
+ * } catch { refused = true; }
+ * if (!refused) throw new Error("a position 250 million km away must be refused");
+ * ```
  */
 export function checkOutlinePositions(
   polygons: MultiPolygonPx,
@@ -87,6 +99,18 @@ export function checkOutlinePositions(
  * @param file The file, for messages.
  * @param originName How an origin is named: `feature` or `line`.
  * @throws {RangeError} Naming the file, the feature or line, and the position.
+ *
+ * @example
+ * ```ts
+ * import { checkFigureMagnitudes } from "./_plausibility.ts";
+ * const figures = {
+ *   xPx: new Float64Array([5, 1e15]), yPx: new Float64Array([5, 5]), labelIndex: new Uint32Array(2),
+ *   labels: ["mitotic figure"], score: new Float64Array(2), origin: new Int32Array([2, 7]),
+ * };
+ * let message = "";
+ * try { checkFigureMagnitudes(figures, { mppX: 0.25, mppY: 0.25 }, "figures CSV", "f.csv", "line"); } catch (e) { message = (e as Error).message; }
+ * if (!message.includes("line 7 (a figure)")) throw new Error(`the message names line 7: ${message}`);
+ * ```
  */
 export function checkFigureMagnitudes(
   figures: FigureSet,
@@ -118,6 +142,15 @@ export function checkFigureMagnitudes(
  * @param file The file, for messages.
  * @param unit What `count` counts: `figure points` or `lines`.
  * @throws {RangeError} Naming the file, the count and the limit.
+ *
+ * @example
+ * ```ts
+ * import { checkFigureCount } from "./_plausibility.ts";
+ * checkFigureCount(1000, "annotations", "a.geojson");
+ * let refused = false;
+ * try { checkFigureCount(6_000_000, "annotations", "a.geojson"); } catch { refused = true; }
+ * if (!refused) throw new Error("six million figure points are over the limit");
+ * ```
  */
 export function checkFigureCount(
   count: number,

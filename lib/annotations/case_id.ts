@@ -36,7 +36,7 @@ export const RESERVED_CASE_IDS: readonly string[] = [
  *
  * @example
  * ```ts
- * import { isReservedCaseId } from "./case_id.ts";
+ * import { isReservedCaseId } from "hotfield";
  * if (!isReservedCaseId("Index.HTML")) throw new Error("the cohort page's name is reserved in any case");
  * if (isReservedCaseId("QVT-24-001")) throw new Error("an ordinary id is free");
  * ```

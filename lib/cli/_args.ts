@@ -43,6 +43,15 @@ export function parseOptions(
 /**
  * Why `raw` is not a decimal number, for a message: `"0x10" is not a decimal
  * number`, `"1e400" is too large`.
+ *
+ * @param raw The option's value.
+ * @returns The reason in words.
+ *
+ * @example
+ * ```ts
+ * import { notDecimalWhy } from "./_args.ts";
+ * if (notDecimalWhy("1e400") !== '"1e400" is too large') throw new Error(notDecimalWhy("1e400"));
+ * ```
  */
 export function notDecimalWhy(raw: unknown): string {
   return isDecimalText(String(raw)) ? `"${raw}" is too large` : `"${raw}" is not a decimal number`;

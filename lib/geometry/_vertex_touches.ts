@@ -8,7 +8,24 @@
 
 import type { Contact, TaggedEdges } from "./_contacts.ts";
 
-/** Whether a contact is two edges sharing an end point (and nothing else known yet). */
+/**
+ * Whether a contact is two edges sharing an end point (and nothing else known yet).
+ *
+ * @param t The tagged edges.
+ * @param c A contact found among them.
+ * @returns True when both edges end or start at the contact point.
+ *
+ * @example Two squares sharing a corner
+ * ```ts
+ * import { findContacts, tagEdges } from "./_contacts.ts";
+ * import { isVertexContact } from "./_vertex_touches.ts";
+ * const sq = (x0: number, y0: number, x1: number, y1: number): [number, number][] =>
+ *   [[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]];
+ * const t = tagEdges([[sq(0, 0, 1, 1)], [sq(1, 1, 2, 2)]], [0, 1]);
+ * const contacts = findContacts(t, "across", false);
+ * if (!contacts.every((c) => isVertexContact(t, c))) throw new Error("they meet only at (1, 1)");
+ * ```
+ */
 export function isVertexContact(t: TaggedEdges, c: Contact): boolean {
   const at = (e: number) =>
     (t.x0[e] === c.x && t.y0[e] === c.y) || (t.x1[e] === c.x && t.y1[e] === c.y);
@@ -20,6 +37,20 @@ export function isVertexContact(t: TaggedEdges, c: Contact): boolean {
  * ring has the solid side on its right (outer rings clockwise on screen,
  * holes anticlockwise); each pass through the vertex covers a wedge of solid.
  * Returns the contacts at vertices where they do (crossings, overlaps).
+ *
+ * @param t The tagged edges (rings oriented, solid on the right).
+ * @param contacts Contacts at shared vertices.
+ * @returns The contacts where rings cross or overlap at the vertex.
+ *
+ * @example Squares meeting corner to corner only touch
+ * ```ts
+ * import { findContacts, tagEdges } from "./_contacts.ts";
+ * import { badVertexTouches } from "./_vertex_touches.ts";
+ * const sq = (x0: number, y0: number, x1: number, y1: number): [number, number][] =>
+ *   [[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]];
+ * const t = tagEdges([[sq(0, 0, 1, 1)], [sq(1, 1, 2, 2)]], [0, 1]);
+ * if (badVertexTouches(t, findContacts(t, "all", false)).length !== 0) throw new Error("a touch, not a crossing");
+ * ```
  */
 export function badVertexTouches(t: TaggedEdges, contacts: Contact[]): Contact[] {
   const byVertex = new Map<string, Contact[]>();

@@ -27,7 +27,19 @@ import {
 } from "node:fs";
 import { dirname, join } from "node:path";
 
-/** Why an operating-system error happened, in words. */
+/**
+ * Why an operating-system error happened, in words, with its code.
+ *
+ * @param e The error (a Node-style error with `code`, or anything).
+ * @returns E.g. `no space left on the device (ENOSPC)`.
+ *
+ * @example
+ * ```ts
+ * import { describeWriteError } from "./output_transaction.ts";
+ * const why = describeWriteError(Object.assign(new Error("write"), { code: "ENOSPC" }));
+ * if (why !== "no space left on the device (ENOSPC)") throw new Error(why);
+ * ```
+ */
 export function describeWriteError(e: unknown): string {
   const code = (e as { code?: string }).code;
   switch (code) {
