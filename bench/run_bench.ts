@@ -27,6 +27,7 @@ import booleanPointInPolygon from "@turf/boolean-point-in-polygon";
 import { benchSlideGeoJson, generateBenchSlide } from "../lib/demo/bench_slide.ts";
 import { batchBenchRows } from "./batch_bench.ts";
 import { scalingRows } from "./_scaling.ts";
+import { hostileBenchRows } from "./hostile_bench.ts";
 
 const ROOT = join(import.meta.dirname ?? ".", "..");
 const OUT = join(ROOT, "bench", "output");
@@ -309,6 +310,7 @@ async function main(): Promise<void> {
     ]);
     await processRows("tissue only", fileTissue, reps, [["defaults", []]]);
     await batchBenchRows({ root: ROOT, out: OUT, quick, add, log });
+    await hostileBenchRows({ root: ROOT, out: OUT, quick, add, log });
     await tissueCommandRow(seed, reps);
     if (!values["skip-scaling"]) {
       log("Scaling runs …");

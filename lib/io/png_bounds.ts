@@ -165,25 +165,43 @@ export async function checkPngBounds(
 
 /**
  * Whether zlib data split in `parts` inflates to more than `limit` bytes.
- * Damaged data counts as not (the decoder reports it).
+ * The data goes in 1 kB at a time (at most about 1 MB of output each, the
+ * deflate format's ratio being about 1:1032), and the output is counted and
+ * dropped, so memory stays small whatever the data. Damaged data counts as
+ * not (the decoder reports it).
  */
 async function inflatesBeyond(parts: Uint8Array[], limit: number): Promise<boolean> {
-  const stream = new Blob(parts as BlobPart[]).stream().pipeThrough(
-    new DecompressionStream("deflate"),
-  );
-  const reader = stream.getReader();
+  const stream = new DecompressionStream("deflate");
+  const writer = stream.writable.getWriter();
+  const reader = stream.readable.getReader();
   let n = 0;
+  let over = false;
+  const counting = (async () => {
+    try {
+      for (;;) {
+        const { done, value } = await reader.read();
+        if (done) return;
+        n += value.length;
+        if (n > limit) {
+          over = true;
+          await reader.cancel();
+          return;
+        }
+      }
+    } catch {
+      // damaged data: left to the decoder
+    }
+  })();
   try {
-    for (;;) {
-      const { done, value } = await reader.read();
-      if (done) return false;
-      n += value.length;
-      if (n > limit) {
-        await reader.cancel();
-        return true;
+    for (const p of parts) {
+      for (let i = 0; i < p.length && !over; i += 1024) {
+        await writer.write(p.slice(i, i + 1024)); // a copy: its own ArrayBuffer
       }
     }
+    if (!over) await writer.close();
   } catch {
-    return false;
+    // cancelled once over the limit, or damaged data
   }
+  await counting;
+  return over;
 }

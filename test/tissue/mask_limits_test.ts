@@ -1,5 +1,5 @@
 // Resource limits of PNG masks and thumbnails: the size is read from the
-// header (IHDR, W3C PNG Specification 2nd ed. §11.2.2; key PNGSIG in
+// header (IHDR, W3C PNG Specification 2nd ed. §11.2.2; key PNG-2003 in
 // test/reference/README.md) and an image over the limit is refused before
 // decoding; image data that inflates past what its size needs is refused
 // after inflating no more than that; a noisy mask that traces into millions
