@@ -97,10 +97,6 @@ Deno.test("hotfield report refuses the second of two case ids that differ only b
 });
 
 Deno.test("hotfield report on a full disk exits 1 naming the folder and leaves nothing", async () => {
-  if (Deno.uid() !== 0) {
-    console.log("skipped: mounting a tmpfs needs root");
-    return;
-  }
   const dir = Deno.makeTempDirSync();
   const disk = join(dir, "disk");
   Deno.mkdirSync(disk);
@@ -108,7 +104,7 @@ Deno.test("hotfield report on a full disk exits 1 naming the folder and leaves n
     new Deno.Command("mount", { args: ["-t", "tmpfs", "-o", "size=16k", "tmpfs", disk] })
       .outputSync().success;
   if (!mounted) {
-    console.log("skipped: mount failed here");
+    console.log("skipped: mounting a tmpfs needs root (mount failed here)");
     Deno.removeSync(dir, { recursive: true });
     return;
   }
