@@ -28,6 +28,8 @@ import {
 import { DEFAULT_FIGURE_LABEL, figureLabelText, FigureSetBuilder } from "./_figure_builder.ts";
 import { parseAnnotations } from "./read_annotations.ts";
 import { decodeText } from "./_decode_text.ts";
+import { scanJsonText } from "./_json_keys.ts";
+import { MAX_JSON_CONTAINERS } from "../defaults.ts";
 
 /** Thrown inside the scanner to leave the whole file to the ordinary reader. */
 const GIVE_UP = new Error("scanner gives up");
@@ -881,10 +883,18 @@ function isDelimiter(c: number): boolean {
     c === 0x09;
 }
 
-/** Parses the bytes [start, end) as JSON (strict UTF-8), giving up the file on any error. */
+/**
+ * Parses the bytes [start, end) as JSON (strict UTF-8), giving up the file on
+ * any error, and also on a member named twice in one object or more objects
+ * and arrays than `MAX_JSON_CONTAINERS` (the ordinary reader then refuses the
+ * file, naming the line and column).
+ */
 function parseSpan(b: Uint8Array, start: number, end: number): unknown {
   try {
-    return JSON.parse(strictDecoder.decode(b.subarray(start, end)));
+    const text = strictDecoder.decode(b.subarray(start, end));
+    const scan = scanJsonText(text, MAX_JSON_CONTAINERS);
+    if (scan.duplicate !== undefined || scan.overLimitAt >= 0) throw GIVE_UP;
+    return JSON.parse(text);
   } catch {
     throw GIVE_UP;
   }

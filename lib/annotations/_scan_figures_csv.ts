@@ -19,6 +19,7 @@ import {
 } from "./read_figures_csv.ts";
 import { DEFAULT_FIGURE_LABEL, FigureSetBuilder } from "./_figure_builder.ts";
 import { decodeText } from "./_decode_text.ts";
+import { checkFigureCount, checkFigureMagnitudes } from "./_plausibility.ts";
 
 const strictDecoder = new TextDecoder("utf-8", { fatal: true, ignoreBOM: true });
 
@@ -76,8 +77,14 @@ export function readFiguresCsvBytes(
   bytes: Uint8Array,
   options: ParseFiguresCsvOptions,
 ): { figures: FigureSet; warnings: string[] } {
-  return scanFiguresCsv(bytes, options) ??
-    parseFiguresCsv(decodeText(bytes, "figures CSV", options.fileName), options);
+  const scanned = scanFiguresCsv(bytes, options);
+  if (scanned === null) {
+    return parseFiguresCsv(decodeText(bytes, "figures CSV", options.fileName), options);
+  }
+  // the ordinary reader's plausibility checks, on the scanned points
+  checkFigureCount(scanned.figures.xPx.length, "figures CSV", options.fileName);
+  checkFigureMagnitudes(scanned.figures, options, "figures CSV", options.fileName, "line");
+  return scanned;
 }
 
 /**

@@ -12,6 +12,7 @@ import { encode } from "fast-png";
 import { join } from "node:path";
 import { writeFileSync } from "node:fs";
 import { parseAnnotations } from "../../lib/annotations/read_annotations.ts";
+import { readAnnotationsBytes } from "../../lib/annotations/_scan_annotations.ts";
 import { parseCaseFile } from "../../lib/annotations/read_case.ts";
 import { parseFiguresCsv } from "../../lib/annotations/read_figures_csv.ts";
 import { decodeMaskPng, maskToPolygons } from "../../lib/tissue/read_mask.ts";
@@ -283,10 +284,33 @@ Deno.test("fuzz: 2,400 mutated annotation files are read or refused cleanly", ()
     for (let r = 0; r < rounds; r++) text = mutate(text, rnd, isJson(text));
     timed(() => {
       let parsed;
+      // the byte reader (a scanner for figure features) must agree with the text reader
+      // (a lone surrogate has no UTF-8 form: such texts are compared as text only)
+      const bytes = new TextEncoder().encode(text);
+      const same = new TextDecoder().decode(bytes) === text;
+      let viaBytes: string | undefined;
       try {
-        parsed = parseAnnotations(text, { fileName: FILE });
+        const b = readAnnotationsBytes(bytes, { fileName: FILE });
+        viaBytes = `read ${b.figures.xPx.length} figures, ${b.warnings.length} warnings`;
       } catch (e) {
         assertClean(e, "annotations", FILE, text);
+        viaBytes = (e as Error).message;
+      }
+      if (!same) viaBytes = undefined;
+      try {
+        parsed = parseAnnotations(text, { fileName: FILE });
+        if (viaBytes !== undefined) {
+          assert.equal(
+            viaBytes,
+            `read ${parsed.figures.xPx.length} figures, ${parsed.warnings.length} warnings`,
+            text,
+          );
+        }
+      } catch (e) {
+        assertClean(e, "annotations", FILE, text);
+        if (viaBytes !== undefined) {
+          assert.equal(viaBytes, (e as Error).message, "the byte reader refuses alike");
+        }
         refused++;
         return;
       }
