@@ -6,9 +6,10 @@
  * - No position may lie more than `MAX_SLIDE_EXTENT_MM` from the slide origin
  *   along x or y (a glass slide is 75 mm long).
  * - When the slide's size is known, no region outline (tissue, tumour,
- *   exclude, field) may reach beyond the slide by more than the slide's own
- *   width or height. Nearer excursions only warn, as before; figure points
- *   beyond the slide also only warn (they are never counted there).
+ *   exclude, field polygon) may reach beyond the slide by more than the
+ *   slide's own width or height. Nearer excursions only warn, as before;
+ *   figure points and the points of point fields beyond the slide also only
+ *   warn (figures there are never counted).
  *
  * @module
  */
@@ -43,6 +44,8 @@ function absurd(
  * @param slide The slide (mpp, and size when known).
  * @param file The file, for messages.
  * @param at The feature, e.g. `feature 7`.
+ * @param nearSlide Also refuse positions far outside a slide of known size
+ *   (outlines); false checks the magnitude only (a field's points).
  * @throws {RangeError} Naming the file, the feature and the position.
  *
  * @example A polygon at 1e15 px is refused
@@ -62,9 +65,10 @@ export function checkOutlinePositions(
   slide: SlideInfo,
   file: string,
   at: string,
+  nearSlide = true,
 ): void {
   const [mx, my] = maxAbsPx(slide);
-  const w = slide.widthPx, h = slide.heightPx;
+  const w = nearSlide ? slide.widthPx : undefined, h = nearSlide ? slide.heightPx : undefined;
   for (const p of polygons) {
     for (const r of p) {
       for (const q of r) {

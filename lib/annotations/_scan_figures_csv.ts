@@ -77,14 +77,8 @@ export function readFiguresCsvBytes(
   bytes: Uint8Array,
   options: ParseFiguresCsvOptions,
 ): { figures: FigureSet; warnings: string[] } {
-  const scanned = scanFiguresCsv(bytes, options);
-  if (scanned === null) {
-    return parseFiguresCsv(decodeText(bytes, "figures CSV", options.fileName), options);
-  }
-  // the ordinary reader's plausibility checks, on the scanned points
-  checkFigureCount(scanned.figures.xPx.length, "figures CSV", options.fileName);
-  checkFigureMagnitudes(scanned.figures, options, "figures CSV", options.fileName, "line");
-  return scanned;
+  return scanFiguresCsv(bytes, options) ??
+    parseFiguresCsv(decodeText(bytes, "figures CSV", options.fileName), options);
 }
 
 /**
@@ -232,7 +226,11 @@ function scan(
     else figures.addIndexed(x, y, li, score, line);
   }
   warnings.push(...csvEndWarnings(file, commaUsed, firstComma, figures.length));
-  return { figures: figures.build(), warnings };
+  const built = figures.build();
+  // the ordinary reader's plausibility checks; a refusal leaves the file to it, which words it
+  checkFigureCount(built.xPx.length, "figures CSV", file);
+  checkFigureMagnitudes(built, options, "figures CSV", file, "line");
+  return { figures: built, warnings };
 
   /** Records cell k as [s, e) trimmed of spaces (and tabs, unless they separate). */
   function cut(k: number, s: number, e: number): void {

@@ -393,7 +393,8 @@ export class AnnotationCollector {
       }
       case "field": {
         const spec = readField(p, type, c, reader, i, fail, { file, slide, warnings, budget });
-        checkOutlinePositions([[spec.pointsPx ?? [spec.centerPx]]], slide, file, at);
+        // points of a field: magnitude only (like figures, they may lie a little off the slide)
+        checkOutlinePositions([[spec.pointsPx ?? [spec.centerPx]]], slide, file, at, false);
         fields.push(spec);
         break;
       }

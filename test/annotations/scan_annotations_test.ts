@@ -95,7 +95,7 @@ function randomFeature(rnd: Random, i: number): Record<string, unknown> {
   const coord = () => {
     const r = rnd();
     if (r < 0.5) return Math.round(rnd() * 1e5) / 10;
-    if (r < 0.7) return Math.round(rnd() * 1e7);
+    if (r < 0.7) return Math.round(rnd() * 2e5); // integers up to 100 mm at 0.5 µm/px
     if (r < 0.8) return rnd() * 1e4; // 16–17 significant digits
     if (r < 0.85) return 0;
     if (r < 0.9) return -0;
@@ -224,7 +224,8 @@ function compactFile(seed: number): string {
     const properties: Record<string, unknown> = { role: "figure" };
     if (rnd() < 0.7) properties.label = pick(LABELS);
     if (rnd() < 0.7) properties.score = pick([0, 1, 0.5, Math.round(rnd() * 1000) / 1000, 1e-7]);
-    const x = pick([Math.round(rnd() * 1e5) / 10, rnd() * 1e4, -0, 12345678901234567890]);
+    // 17 significant digits near the largest plausible position (100 mm at 0.25 µm/px)
+    const x = pick([Math.round(rnd() * 1e5) / 10, rnd() * 1e4, -0, 399999.99999999994]);
     features.push({
       type: "Feature",
       properties,

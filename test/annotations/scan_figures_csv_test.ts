@@ -50,7 +50,7 @@ function randomCsv(seed: number): string {
     if (r < 0.2 && delimiter === ";") return String(v).replace(".", ",");
     if (r < 0.25) return `${Math.floor(v)}.`;
     if (r < 0.3) return (rnd() * 1e4).toString(); // many digits
-    if (r < 0.32) return "0x1F";
+    if (r < 0.32) return "31e0";
     return String(v);
   };
   const lines = [head.join(delimiter)];
