@@ -38,6 +38,6 @@ Deno.test("buildCaseResult() refuses a case with more counted figures than the l
     (e: Error) =>
       e instanceof RangeError &&
       e.message ===
-        'Cannot count case "QVT-24-073" (figures from "QVT-24-073.geojson"): 1,000,001 figures are counted, more than the limit of 1,000,000 (see "Input limits" in the README); count fewer, e.g. with a higher minimum score or fewer labels',
+        'Cannot count case "QVT-24-073" (figures from "QVT-24-073.geojson"): 500,001 figures are counted, more than the limit of 500,000 (see "Input limits" in the README); count fewer, e.g. with a higher minimum score or fewer labels',
   );
 });
