@@ -30,36 +30,12 @@ import { parseAnnotations } from "./read_annotations.ts";
 import { decodeText } from "./_decode_text.ts";
 import { scanJsonText } from "./_json_keys.ts";
 import { MAX_JSON_CONTAINERS } from "../defaults.ts";
+import { POW10 } from "./_pow10.ts";
 
 /** Thrown inside the scanner to leave the whole file to the ordinary reader. */
 const GIVE_UP = new Error("scanner gives up");
 
 /** Exact powers of ten (all representable as doubles). */
-const POW10 = [
-  1e0,
-  1e1,
-  1e2,
-  1e3,
-  1e4,
-  1e5,
-  1e6,
-  1e7,
-  1e8,
-  1e9,
-  1e10,
-  1e11,
-  1e12,
-  1e13,
-  1e14,
-  1e15,
-  1e16,
-  1e17,
-  1e18,
-  1e19,
-  1e20,
-  1e21,
-  1e22,
-];
 
 // Keys the scanner knows.
 const K_OTHER = 0,

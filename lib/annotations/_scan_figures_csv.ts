@@ -20,35 +20,11 @@ import {
 import { DEFAULT_FIGURE_LABEL, FigureSetBuilder } from "./_figure_builder.ts";
 import { decodeText } from "./_decode_text.ts";
 import { checkFigureCount, checkFigureMagnitudes } from "./_plausibility.ts";
+import { POW10 } from "./_pow10.ts";
 
 const strictDecoder = new TextDecoder("utf-8", { fatal: true, ignoreBOM: true });
 
 /** Exact powers of ten (all representable as doubles). */
-const POW10 = [
-  1e0,
-  1e1,
-  1e2,
-  1e3,
-  1e4,
-  1e5,
-  1e6,
-  1e7,
-  1e8,
-  1e9,
-  1e10,
-  1e11,
-  1e12,
-  1e13,
-  1e14,
-  1e15,
-  1e16,
-  1e17,
-  1e18,
-  1e19,
-  1e20,
-  1e21,
-  1e22,
-];
 
 /** Thrown inside the scanner to leave the file to the ordinary reader. */
 const GIVE_UP = new Error("scanner gives up");
