@@ -162,6 +162,8 @@ class Scanner {
   /** What `coordinates()` read. */
   shape = 0;
   count = 0;
+  /** Objects and arrays passed by `skip` (the file is left to the ordinary reader past the limit). */
+  containers = 0;
   /** Labels' bytes as written, and their indices, to skip decoding repeats. */
   labelBytes: Uint8Array[] = [];
   labelIndices: number[] = [];
@@ -232,18 +234,25 @@ class Scanner {
       this.p++;
       return 0;
     }
+    // The features handed over are parsed together at the end: one decode
+    // and one parse, whatever their number.
+    const spans: number[] = [];
     for (let i = 0;; i++) {
       this.ws();
       const start = this.p;
       if (!(b[start] === 0x7b && (this.compact(i) || ((this.p = start), this.figure(i))))) {
         this.p = start;
         this.skip();
-        others.push([i, parseSpan(b, start, this.p)]);
+        spans.push(i, start, this.p);
       }
       this.ws();
       const c = b[this.p++];
       if (c === 0x2c) continue;
-      if (c === 0x5d) return i + 1;
+      if (c === 0x5d) {
+        const values = parseSpans(b, spans);
+        for (let t = 0; t < values.length; t++) others.push([spans[3 * t], values[t]]);
+        return i + 1;
+      }
       throw GIVE_UP;
     }
   }
@@ -821,7 +830,10 @@ class Scanner {
           p = skipString(b, p);
           continue;
         }
-        depth += k === 2 ? 1 : -1;
+        if (k === 2) {
+          depth++;
+          if (++this.containers > MAX_JSON_CONTAINERS) throw GIVE_UP;
+        } else depth--;
         p++;
         if (depth === 0) break;
       }
@@ -866,11 +878,33 @@ function isDelimiter(c: number): boolean {
  * file, naming the line and column).
  */
 function parseSpan(b: Uint8Array, start: number, end: number): unknown {
+  return parseSpans(b, [0, start, end])[0];
+}
+
+/**
+ * Parses the byte spans `spans` (triples: any number, start, end) as JSON
+ * values, as {@linkcode parseSpan} does one, in a single decode and parse of
+ * the array they make.
+ */
+function parseSpans(b: Uint8Array, spans: number[]): unknown[] {
+  if (spans.length === 0) return [];
+  let total = 1;
+  for (let t = 0; t < spans.length; t += 3) total += spans[t + 2] - spans[t + 1] + 1;
+  const joined = new Uint8Array(total);
+  let at = 0;
+  for (let t = 0; t < spans.length; t += 3) {
+    joined[at++] = t === 0 ? 0x5b : 0x2c;
+    joined.set(b.subarray(spans[t + 1], spans[t + 2]), at);
+    at += spans[t + 2] - spans[t + 1];
+  }
+  joined[at] = 0x5d;
   try {
-    const text = strictDecoder.decode(b.subarray(start, end));
+    const text = strictDecoder.decode(joined);
     const scan = scanJsonText(text, MAX_JSON_CONTAINERS);
     if (scan.duplicate !== undefined || scan.overLimitAt >= 0) throw GIVE_UP;
-    return JSON.parse(text);
+    const values = JSON.parse(text) as unknown[];
+    if (values.length !== spans.length / 3) throw GIVE_UP;
+    return values;
   } catch {
     throw GIVE_UP;
   }
