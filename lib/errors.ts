@@ -30,6 +30,17 @@ export class GridSizeError extends RangeError {
   override name = "GridSizeError";
 }
 
+/**
+ * The exact placement search for a case stopped at its work limit: the
+ * counted figures are spread so evenly and densely that no window stands
+ * out. A `RangeError` (the input is out of the range the search handles in
+ * bounded time); the message says what to change.
+ */
+export class SearchWorkError extends RangeError {
+  /** Always "SearchWorkError". */
+  override name = "SearchWorkError";
+}
+
 /** The error classes used for bad input. */
 export type InputErrorClass =
   | typeof SyntaxError

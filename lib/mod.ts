@@ -108,6 +108,7 @@ export type {
   Placement,
   PreparedCase,
   RectWindow,
+  SearchBudget,
   StrideGrid,
   WindowShape,
 } from "./count/engine_types.ts";
@@ -356,6 +357,7 @@ export {
   MAX_JSON_CONTAINERS,
   MAX_MASK_FILE_BYTES,
   MAX_REGION_VERTICES,
+  MAX_SEARCH_WORK,
   MAX_SLIDE_EXTENT_MM,
   MAX_TEXT_INPUT_BYTES,
 } from "./defaults.ts";
@@ -367,4 +369,5 @@ export {
 } from "./geometry/polygon_validity.ts";
 export { isReservedCaseId, RESERVED_CASE_IDS } from "./annotations/case_id.ts";
 export { InputSizeError } from "./io/read_input.ts";
+export { SearchWorkError } from "./errors.ts";
 export { OutputWriteError } from "./io/output_transaction.ts";

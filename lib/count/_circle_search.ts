@@ -8,9 +8,11 @@
 import type { Placement } from "./engine_types.ts";
 import { circleCellFigures } from "./_circle_cell.ts";
 import {
+  addWork,
   ADMIT_EPS,
   blockForbidden,
   type Candidate,
+  cellTightBound,
   coverageGrowth,
   exactCoverage,
   isBetter,
@@ -44,14 +46,17 @@ function circleIntersections(
 /**
  * One entry of the circle search's queue: no admissible count in what it
  * stands for exceeds `bound`. Kinds, in queue order at equal bounds:
- * 0 sorted candidates of a leaf (the next one is `list[at]`), 1 a square of
- * centres (half side `h`, figures `sureIn` surely inside every window
- * centred in it, the uncertain ones `A`), 2 the stride cells not yet opened
- * (grid indices `cells`, next `cells[at]`).
+ * −1 one stride cell queued again at its tighter bound (`cells[0]`; first,
+ * so it is opened whenever it could have been at its grid bound and the
+ * search finds what it finds without it), 0 sorted candidates of a leaf
+ * (the next one is `list[at]`), 1 a square of centres (half side `h`,
+ * figures `sureIn` surely inside every window centred in it, the uncertain
+ * ones `A`), 2 the stride cells not yet opened (grid indices `cells`, next
+ * `cells[at]`).
  */
 interface Item {
   bound: number;
-  kind: 0 | 1 | 2;
+  kind: -1 | 0 | 1 | 2;
   x: number;
   y: number;
   h: number;
@@ -90,7 +95,7 @@ const LEAF_FIGURES = 24;
 const TIE_LIMIT = 32;
 
 function item(
-  kind: 0 | 1 | 2,
+  kind: -1 | 0 | 1 | 2,
   bound: number,
   x: number,
   y: number,
@@ -197,6 +202,7 @@ function applyChosen(st: SearchState, cs: CircleSearchMemo, p: Placement): void 
   const r = st.e.halfX, tol = 1e-6 * r;
   const [qx, qy] = p.centerUm;
   const kept: Leaf[] = [];
+  addWork(st, cs.leaves.length);
   for (const leaf of cs.leaves) {
     const halfDiag = (leaf.h + tol) * Math.SQRT2;
     const dq = Math.hypot(leaf.x - qx, leaf.y - qy);
@@ -251,6 +257,8 @@ function square(
   const lo2 = lo > 0 ? lo * lo : -1, hi2 = hi * hi;
   const A: number[] = [];
   let sureIn = sureInParent;
+  // Each figure tested, and the square's own queueing (measured at about 16 tests).
+  addWork(st, P.length + 16);
   const xU = st.xUm, yU = st.yUm;
   for (let t = 0; t < P.length; t++) {
     const k = P[t];
@@ -305,7 +313,7 @@ export function circleSearchBest(st: SearchState, chosen: Placement[]): Placemen
       }
     }
     pop(heap);
-    if (top.kind === 2) {
+    if (top.kind === 2 || top.kind === -1) {
       const cells = top.cells!;
       const k = cells[top.at++];
       if (top.at < cells.length) {
@@ -316,7 +324,18 @@ export function circleSearchBest(st: SearchState, chosen: Placement[]): Placemen
         push(heap, top);
       }
       if (blockForbidden(st, k, chosen)) continue;
+      if (top.kind === 2) {
+        // A tighter bound queues the cell again, to be opened only if it still could win.
+        const tight = cellTightBound(st, k);
+        if (tight < st.bound[k]) {
+          const again = item(-1, tight, x0Um + (k % nx) * s, y0Um + Math.floor(k / nx) * s);
+          again.cells = Int32Array.of(k);
+          push(heap, again);
+          continue;
+        }
+      }
       st.stats.blocks++;
+      st.opened++;
       const cx = x0Um + (k % nx) * s, cy = y0Um + Math.floor(k / nx) * s;
       // One exact query bounds every centre of the cell (candidates may sit a
       // circle tolerance outside it) more tightly than the map's slack; a map
@@ -411,6 +430,8 @@ function circleLeaf(
   const r = e.halfX, r2 = e.radius2;
   const tol = 1e-6 * r;
   const halfDiag = (hCell + tol) * Math.SQRT2;
+  // Pairs of figures, then an exact count of each candidate (added below).
+  addWork(st, (A.length * (A.length + 1)) / 2);
   const fx = new Float64Array(A.length), fy = new Float64Array(A.length);
   for (let t = 0; t < A.length; t++) {
     fx[t] = st.xUm[A[t]];
@@ -469,6 +490,7 @@ function circleLeaf(
     }
   }
   // Nudge each into place and count exactly.
+  addWork(st, est.length * (A.length + 1));
   for (const [px0, py0, a, b] of est) {
     let pt: [number, number] | null = null;
     if (a === -2) {

@@ -10,6 +10,7 @@ import type { Placement } from "./engine_types.ts";
 import {
   ADMIT_EPS,
   blockForbidden,
+  cellTightBound,
   coverageGrowth,
   exactCoverage,
   isBetter,
@@ -28,6 +29,7 @@ export {
   exactCoverage,
   isBetter,
   isSeparate,
+  newSearchBudget,
   placement,
   type SearchState,
 } from "./_search_state.ts";
@@ -83,8 +85,11 @@ export function searchBest(st: SearchState, chosen: Placement[] = []): Placement
   for (let b = 0; b < blocks.length; b++) {
     const k = blocks[b];
     if (st.bound[k] <= (best ? best.count : -1)) break;
+    // No candidate of the cell can reach the best count (a tie could still win).
+    if (best && cellTightBound(st, k) < best.count) continue;
     if (chosen.length > 0 && blockForbidden(st, k, chosen)) continue;
     st.stats.blocks++;
+    st.opened++;
     const cx = x0Um + (k % nx) * s, cy = y0Um + Math.floor(k / nx) * s;
     // One exact query bounds every centre of the cell (candidates may sit a
     // circle tolerance outside it) more tightly than the map's slack.

@@ -8,6 +8,7 @@
 import type { Placement } from "./engine_types.ts";
 import { pointsInBox } from "./_figure_buckets.ts";
 import {
+  addWork,
   type Candidate,
   coverageGrowth,
   exactCoverage,
@@ -106,6 +107,7 @@ export class RectCell {
     this.#tol = 1e-6 * (hw + hh);
     this.#hMin = s * QUERY_FRACTION / 2;
     const F = frameFigures(st, cx, cy);
+    addWork(st, F.length);
     const [X, Y] = cellValues(st, cx, cy, F, chosen);
     this.#X = X;
     this.#Y = Y;
@@ -198,6 +200,7 @@ export class RectCell {
         Math.abs(qy - p.centerUm[1]) + reach < 2 * hh
       ) return null;
     }
+    addWork(st, P.length);
     const inX = hw - h - tol, inY = hh - h - tol, outX = hw + h + tol, outY = hh + h + tol;
     const xU = st.xUm, yU = st.yUm;
     const keep = new Int32Array(P.length);
@@ -236,6 +239,7 @@ export class RectCell {
     const nX = ia1 - ia0, nY = ib1 - ib0, w1 = nX + 1;
     const diff = new Int32Array(w1 * (nY + 1));
     const A = q.A!;
+    addWork(st, A.length + nX * nY);
     const xU = st.xUm, yU = st.yUm;
     for (let t = 0; t < A.length; t++) {
       const f = A[t];

@@ -5,15 +5,29 @@
  * @module
  */
 
-import type { CountMap, Placement, PreparedCase, WindowShape } from "./engine_types.ts";
+import type {
+  CountMap,
+  Placement,
+  PreparedCase,
+  SearchBudget,
+  WindowShape,
+} from "./engine_types.ts";
 import { stampWindowCounts } from "./stamp_window_counts.ts";
 import { type WindowExtents, windowExtents } from "./window_contains.ts";
 import { bucketFigures, type FigureBuckets } from "./_figure_buckets.ts";
 import { createOverlapIndex } from "./_geometry.ts";
 import { umToPx } from "../units.ts";
+import { SearchWorkError } from "../errors.ts";
+import { MAX_SEARCH_WORK } from "../defaults.ts";
 
 /** Coverage within this of the minimum counts as admissible (floating-point slack). */
 export const ADMIT_EPS = 1e-9;
+
+/**
+ * Cells opened on one search state before quarter bounds are made (see
+ * {@linkcode cellTightBound}): about where the finer grid starts to pay.
+ */
+const QUARTERS_AFTER = 1024;
 
 /** Exact area queries on V (µm plane). */
 export interface AreaIndex {
@@ -62,6 +76,14 @@ export interface SearchState {
   circle: object | null;
   /** The rectangle search's orders of grid centres and cells, kept between picks. */
   rect: { centres: Int32Array; cells: Int32Array } | null;
+  /** The work every search on this state may do, shared with the case's other searches (see {@linkcode addWork}). */
+  budget: SearchBudget;
+  /** Cells opened by every search on this state so far. */
+  opened: number;
+  /** Quarter bounds are made once this many cells were opened (tests set 0). */
+  quartersAfter: number;
+  /** Count bounds of the quarters of each stride cell, once made (see {@linkcode cellTightBound}). */
+  quarters: Int32Array | null;
 }
 
 /** Prepares a search over `map`'s window. */
@@ -69,6 +91,7 @@ export function createSearch(
   prepared: Pick<PreparedCase, "xUm" | "yUm" | "slide" | "validUm">,
   map: CountMap,
   overlap?: AreaIndex,
+  budget: SearchBudget = newSearchBudget(),
 ): SearchState {
   const window = map.window;
   const e = windowExtents(window);
@@ -129,7 +152,83 @@ export function createSearch(
     memoUm: s / 4,
     circle: null,
     rect: null,
+    opened: 0,
+    quartersAfter: QUARTERS_AFTER,
+    quarters: null,
+    budget,
   };
+}
+
+/** A fresh budget of `limit` figure tests. */
+export function newSearchBudget(limit: number = MAX_SEARCH_WORK): SearchBudget {
+  return { spent: 0, limit };
+}
+
+/**
+ * Adds `n` figure tests (or steps of like cost) to the work of the searches
+ * on `st`, and stops them with a {@linkcode SearchWorkError} past the
+ * limit. The work, not the time, is counted, so the same input stops at the
+ * same place on every machine.
+ */
+export function addWork(st: SearchState, n: number): void {
+  const b = st.budget;
+  b.spent += n;
+  if (b.spent <= b.limit) return;
+  const w = st.window;
+  const what = w.shape === "rect"
+    ? `a ${fmtUm(w.widthUm)} × ${fmtUm(w.heightUm)} µm window`
+    : `a circular field ${fmtUm(w.diameterUm)} µm across`;
+  throw new SearchWorkError(
+    `The exact search for the best placement of ${what} stopped at its work limit ` +
+      `(${b.limit.toLocaleString("en-US")} figure tests): the ${
+        st.xUm.length.toLocaleString("en-US")
+      } counted figures are spread so evenly and densely that no window stands out, which ` +
+      `mitotic figures do not do (are these all nuclei, or detections before a score cut-off?); ` +
+      `count fewer, e.g. with a higher minimum score or fewer labels`,
+  );
+}
+
+function fmtUm(v: number): string {
+  return Math.round(v).toLocaleString("en-US");
+}
+
+/**
+ * A bound of the count of any window centred in the stride cell of grid
+ * centre k, at most `st.bound[k]`: once the searches on `st` have opened
+ * many cells, the largest of the cell's four quarter bounds, each the grid
+ * count of the window enlarged by half a stride at the quarter's centre (a
+ * grid of half the stride, offset by a quarter). Their excess over the
+ * counts is half the cell bound's. That matters when figures are spread
+ * evenly: then no window stands out, many cells have a bound above the
+ * best count and far fewer have a quarter that does, so far fewer cells
+ * are opened. Clustered figures seldom open enough cells to pay for the
+ * finer grid (four times the cells; made once per state).
+ */
+export function cellTightBound(st: SearchState, k: number): number {
+  if (!st.quarters) {
+    if (st.opened < st.quartersAfter) return st.bound[k];
+    st.quarters = quarterBounds(st);
+  }
+  const nx = st.map.grid.nx, nq = 2 * nx, q = 2 * Math.floor(k / nx) * nq + 2 * (k % nx);
+  const a = st.quarters;
+  return Math.min(st.bound[k], Math.max(a[q], a[q + 1], a[q + nq], a[q + nq + 1]));
+}
+
+/** The quarter bounds: a stamp of the window enlarged as createSearch does, for half the stride. */
+function quarterBounds(st: SearchState): Int32Array {
+  const { grid } = st.map;
+  const s = grid.strideUm, w = st.window;
+  const grow = (s / 2) * (1 + 1e-9);
+  const enlarged: WindowShape = w.shape === "rect"
+    ? { ...w, widthUm: w.widthUm + grow, heightUm: w.heightUm + grow }
+    : { ...w, diameterUm: 2 * (st.e.halfX + grow * Math.SQRT1_2) };
+  return stampWindowCounts(st.xUm, st.yUm, enlarged, {
+    x0Um: grid.x0Um - s / 4,
+    y0Um: grid.y0Um - s / 4,
+    strideUm: s / 2,
+    nx: 2 * grid.nx,
+    ny: 2 * grid.ny,
+  });
 }
 
 /** Width and height of the figures' bounding box, µm. */
@@ -186,6 +285,7 @@ export function surelyBelow(
 /** Exact coverage of the window centred at (cx, cy). */
 export function exactCoverage(st: SearchState, cx: number, cy: number): number {
   st.stats.coverageQueries++;
+  addWork(st, 64);
   const { e } = st;
   const a = st.isRect
     ? st.overlap.rect([cx - e.halfX, cy - e.halfY, cx + e.halfX, cy + e.halfY])

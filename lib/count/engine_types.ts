@@ -134,6 +134,19 @@ export interface CountMap {
   coverageLow?: Float32Array;
 }
 
+/**
+ * The work the exact placement searches of one case may do, in figure tests
+ * (a figure tested against a window or square, or a step of like cost).
+ * Searches given the same budget share it and add to `spent`; past `limit`
+ * they stop with a `SearchWorkError`. Plain data, so it can travel to a worker.
+ */
+export interface SearchBudget {
+  /** Work done so far. */
+  spent: number;
+  /** Most work allowed. */
+  limit: number;
+}
+
 /** One placed window. */
 export interface Placement {
   /** Window centre, µm from the slide origin. */

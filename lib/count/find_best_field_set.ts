@@ -4,7 +4,13 @@
  * @module
  */
 
-import type { CountMap, Placement, PreparedCase, WindowShape } from "./engine_types.ts";
+import type {
+  CountMap,
+  Placement,
+  PreparedCase,
+  SearchBudget,
+  WindowShape,
+} from "./engine_types.ts";
 import { computeCountMap } from "./compute_count_map.ts";
 import { makeWindow } from "./make_window.ts";
 import { createSearch, searchBest } from "./_hotspot_search.ts";
@@ -31,6 +37,11 @@ export interface FindBestFieldSetOptions {
   overlap?: OverlapIndex;
   /** A count map of the field window already computed, to reuse. */
   map?: CountMap;
+  /**
+   * The work the search may do, shared with other searches of the case
+   * (see `SearchBudget`). @default a fresh budget of `MAX_SEARCH_WORK`
+   */
+  budget?: SearchBudget;
 }
 
 /** Result of {@linkcode findBestFieldSet}. */
@@ -90,6 +101,8 @@ export function bestFieldGuarantee(shape: "rect" | "circle"): string {
  * @param options Number of fields, field area and shape, grid.
  * @returns The fields (best first), their total, the field window and the guarantee.
  *
+ * @throws {SearchWorkError} When the search passes its work budget (figures spread so
+ *   evenly and densely that no window stands out).
  * @example Two fields on a strip of figures
  * ```ts
  * import { findBestFieldSet, parseAnnotations, prepareCase } from "hotfield";
@@ -133,7 +146,7 @@ export function findBestFieldSet(
         coverageUpperBound: true,
         counts: window.shape === "rect", // the rectangle search starts from grid counts
       });
-    const st = createSearch(prepared, map, options.overlap);
+    const st = createSearch(prepared, map, options.overlap, options.budget);
     while (fields.length < n) {
       const p = searchBest(st, fields);
       if (!p) break;

@@ -4,7 +4,7 @@
  * @module
  */
 
-import type { CountMap, Placement, PreparedCase } from "./engine_types.ts";
+import type { CountMap, Placement, PreparedCase, SearchBudget } from "./engine_types.ts";
 import { createSearch, searchBest } from "./_hotspot_search.ts";
 import type { OverlapIndex } from "../geometry/window_overlap.ts";
 
@@ -12,6 +12,11 @@ import type { OverlapIndex } from "../geometry/window_overlap.ts";
 export interface FindHotspotOptions {
   /** Exact area index of V in µm (from `createOverlapIndex(prepared.validUm)`), to reuse. */
   overlap?: OverlapIndex;
+  /**
+   * The work the search may do, shared with other searches of the case
+   * (see `SearchBudget`). @default a fresh budget of `MAX_SEARCH_WORK`
+   */
+  budget?: SearchBudget;
 }
 
 /**
@@ -70,6 +75,8 @@ export interface FindHotspotOptions {
  * @param options An overlap index to reuse.
  * @returns The hotspot, or null when no placement is admissible.
  *
+ * @throws {SearchWorkError} When the search passes its work budget (figures spread so
+ *   evenly and densely that no window stands out).
  * @example Three figures, the best 1 × 1 mm window holds two
  * ```ts
  * import { computeCountMap, findHotspot, makeWindow, parseAnnotations, prepareCase } from "hotfield";
@@ -91,5 +98,5 @@ export function findHotspot(
   map: CountMap,
   options: FindHotspotOptions = {},
 ): Placement | null {
-  return searchBest(createSearch(prepared, map, options.overlap));
+  return searchBest(createSearch(prepared, map, options.overlap, options.budget));
 }

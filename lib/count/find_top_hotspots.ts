@@ -4,7 +4,7 @@
  * @module
  */
 
-import type { CountMap, Placement, PreparedCase } from "./engine_types.ts";
+import type { CountMap, Placement, PreparedCase, SearchBudget } from "./engine_types.ts";
 import { createSearch, searchBest } from "./_hotspot_search.ts";
 import type { OverlapIndex } from "../geometry/window_overlap.ts";
 
@@ -12,6 +12,11 @@ import type { OverlapIndex } from "../geometry/window_overlap.ts";
 export interface FindTopHotspotsOptions {
   /** Exact area index of V in µm, to reuse. */
   overlap?: OverlapIndex;
+  /**
+   * The work the search may do, shared with other searches of the case
+   * (see `SearchBudget`). @default a fresh budget of `MAX_SEARCH_WORK`
+   */
+  budget?: SearchBudget;
 }
 
 /**
@@ -31,6 +36,8 @@ export interface FindTopHotspotsOptions {
  * @param k How many windows (0 gives none).
  * @returns The windows, best first.
  *
+ * @throws {SearchWorkError} When the search passes its work budget (figures spread so
+ *   evenly and densely that no window stands out).
  * @example Two clusters, two windows
  * ```ts
  * import { computeCountMap, findTopHotspots, makeWindow, parseAnnotations, prepareCase } from "hotfield";
@@ -59,7 +66,7 @@ export function findTopHotspots(
   }
   const chosen: Placement[] = [];
   if (k === 0) return chosen;
-  const st = createSearch(prepared, map, options.overlap);
+  const st = createSearch(prepared, map, options.overlap, options.budget);
   while (chosen.length < k) {
     const p = searchBest(st, chosen);
     if (!p) break;

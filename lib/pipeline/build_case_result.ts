@@ -4,9 +4,15 @@
  * @module
  */
 
-import { checkCountedFigures } from "./count_limits.ts";
+import { checkCountedFigures, explainSearchStop } from "./count_limits.ts";
 import type { CaseData } from "../types.ts";
-import type { CountMap, Placement, PreparedCase, WindowShape } from "../count/engine_types.ts";
+import type {
+  CountMap,
+  Placement,
+  PreparedCase,
+  SearchBudget,
+  WindowShape,
+} from "../count/engine_types.ts";
 import type { CaseResult, ReportOptions } from "./case_result.ts";
 import {
   REPORT_SCHEMA,
@@ -18,7 +24,12 @@ import { HOTFIELD_VERSION } from "../version.ts";
 import { makeWindow } from "../count/make_window.ts";
 import { prepareCase } from "../count/prepare_case.ts";
 import { computeCountMap } from "../count/compute_count_map.ts";
-import { type AreaIndex, createSearch, searchBest } from "../count/placement_search.ts";
+import {
+  type AreaIndex,
+  createSearch,
+  newSearchBudget,
+  searchBest,
+} from "../count/placement_search.ts";
 import {
   type BestFieldSet,
   findBestFieldSet,
@@ -109,7 +120,12 @@ export function reportPlacement(p: Placement, rank?: number): ReportPlacement {
 export function buildCaseResult(caseData: CaseData, options: ReportOptions = {}): CaseResult {
   const parts = startCaseResult(caseData, options);
   const best = parts.bestN > 0
-    ? findBestFieldSet(parts.prepared, { ...bestFieldSetOptions(parts), overlap: parts.overlap })
+    ? explainSearchStop(caseData, "the best field set", () =>
+      findBestFieldSet(parts.prepared, {
+        ...bestFieldSetOptions(parts),
+        overlap: parts.overlap,
+        budget: parts.budget,
+      }))
     : null;
   return finishCaseResult(parts, best);
 }
@@ -131,6 +147,8 @@ export interface CaseResultParts {
   bestN: number;
   map: CountMap;
   overlap: AreaIndex;
+  /** The work left to the case's placement searches (the best field set draws on it too). */
+  budget: SearchBudget;
   hotspot: Placement | null;
   top: Placement[];
   /** Warnings so far, in report order (case, placement, top-k). */
@@ -187,16 +205,17 @@ export function startCaseResult(
     maxGridCells: options.maxGridCells,
   });
   const overlap = createOverlapIndex(prepared.validUm) as AreaIndex;
-  const search = createSearch(prepared, map, overlap);
+  const budget = newSearchBudget(options.maxSearchWork);
+  const search = createSearch(prepared, map, overlap, budget);
   const top: Placement[] = [];
-  const found = searchBest(search, top);
+  const found = explainSearchStop(caseData, "the hotspot", () => searchBest(search, top));
   // Off the knife edge: the same figures, a centre far from every rim.
   const hotspot: Placement | null = found &&
     settlePlacement(prepared, window, found, { overlap, minCoverage });
   if (hotspot) {
     top.push(hotspot);
     while (top.length < topK) {
-      const p = searchBest(search, top);
+      const p = explainSearchStop(caseData, "the top windows", () => searchBest(search, top));
       if (!p) break;
       top.push(p);
     }
@@ -221,6 +240,7 @@ export function startCaseResult(
     bestN,
     map,
     overlap,
+    budget,
     hotspot,
     top,
     warnings,

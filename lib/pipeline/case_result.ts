@@ -62,6 +62,11 @@ export interface ReportOptions {
   /** Grid size limit (cells); a larger grid throws `GridSizeError`. @default 25_000_000 */
   maxGridCells?: number;
   /**
+   * Work limit of the case's exact placement searches, in figure tests (see
+   * `SearchBudget`); past it they throw `SearchWorkError`. @default 1_000_000_000
+   */
+  maxSearchWork?: number;
+  /**
    * Classify even when nothing was counted (figures present, none counted) or
    * the figures' unit is in doubt; by default such a case is left
    * unclassified. @default false

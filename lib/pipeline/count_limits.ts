@@ -7,6 +7,7 @@
 
 import type { PreparedCase } from "../count/engine_types.ts";
 import { MAX_COUNTED_FIGURES } from "../defaults.ts";
+import { SearchWorkError } from "../errors.ts";
 import type { CaseData } from "../types.ts";
 
 /**
@@ -38,13 +39,62 @@ export function checkCountedFigures(
 ): void {
   const n = prepared.xUm.length;
   if (n <= limit) return;
-  const from = caseData.sources.find((s) => s.kind === "figures") ??
-    caseData.sources.find((s) => s.kind === "annotations");
   throw new RangeError(
-    `Cannot count case "${caseData.caseId}"${from ? ` (figures from "${from.path}")` : ""}: ${
+    `${cannotCount(caseData)}: ${
       n.toLocaleString("en-US")
     } figures are counted, more than the limit of ${
       limit.toLocaleString("en-US")
     } (see "Input limits" in the README); count fewer, e.g. with a higher minimum score or fewer labels`,
   );
+}
+
+/** "Cannot count case "ID" (figures from "FILE")": the start of a refusal. */
+function cannotCount(caseData: Pick<CaseData, "caseId" | "sources">): string {
+  const from = caseData.sources.find((s) => s.kind === "figures") ??
+    caseData.sources.find((s) => s.kind === "annotations");
+  return `Cannot count case "${caseData.caseId}"${from ? ` (figures from "${from.path}")` : ""}`;
+}
+
+/**
+ * Runs a placement search of a case; a {@linkcode SearchWorkError} comes out
+ * naming the case, its figures file and the step (`what`).
+ *
+ * @param caseData The case.
+ * @param what The step, e.g. "the hotspot".
+ * @param search The search.
+ * @returns What the search returns.
+ *
+ * @example
+ * ```ts
+ * import { SearchWorkError } from "../errors.ts";
+ * import { explainSearchStop } from "./count_limits.ts";
+ * const caseData = { caseId: "QVT-24-001", sources: [] };
+ * let message = "";
+ * try {
+ *   explainSearchStop(caseData, "the hotspot", () => {
+ *     throw new SearchWorkError("The exact search stopped at its work limit");
+ *   });
+ * } catch (e) {
+ *   message = (e as Error).message;
+ * }
+ * if (!message.startsWith('Cannot count case "QVT-24-001": the hotspot: the exact search')) {
+ *   throw new Error(message);
+ * }
+ * ```
+ */
+export function explainSearchStop<T>(
+  caseData: Pick<CaseData, "caseId" | "sources">,
+  what: string,
+  search: () => T,
+): T {
+  try {
+    return search();
+  } catch (e) {
+    if (!(e instanceof SearchWorkError)) throw e;
+    const m = e.message;
+    throw new SearchWorkError(
+      `${cannotCount(caseData)}: ${what}: ${m.charAt(0).toLowerCase()}${m.slice(1)}`,
+      { cause: e },
+    );
+  }
 }

@@ -310,3 +310,42 @@ Deno.test("RectCell gives every candidate of a cell, exactly counted, in search 
     }
   }
 });
+
+Deno.test("quarter bounds change no pick: evenly spread figures, rectangles and circles", () => {
+  // Evenly spread figures are the case quarter bounds are made for; here they
+  // are forced on from the first cell and every pick must equal the search
+  // without them (checked against the exhaustive enumeration above), while
+  // fewer cells are opened.
+  const sq: MultiPolygonPx = [[[[0, 0], [700, 0], [700, 600], [0, 600], [0, 0]]]];
+  for (const seed of [11, 12, 13]) {
+    const rnd = seededRandom(seed);
+    const n = 1200;
+    const x = new Float64Array(n), y = new Float64Array(n);
+    for (let k = 0; k < n; k++) x[k] = 20 + 660 * rnd(), y[k] = 20 + 560 * rnd();
+    const p = prepared(x, y, seed === 13 ? L : sq);
+    const windows = [
+      makeWindow({ areaMm2: 0.012, aspect: [4, 3] }),
+      makeWindow({ areaMm2: 0.01, shape: "circle" }),
+    ];
+    for (const w of windows) {
+      const map = computeCountMap(p, w, { strideUm: 10, minCoverage: 0.9 });
+      const picks = (forced: boolean) => {
+        const st = createSearch(p, map);
+        if (forced) st.quartersAfter = 0;
+        const out: Placement[] = [];
+        let opened = 0;
+        for (let i = 0; i < 4; i++) {
+          const q = searchBest(st, out);
+          opened += st.stats.blocks;
+          if (!q) break;
+          out.push(q);
+        }
+        return { out, opened, quarters: st.quarters !== null };
+      };
+      const plain = picks(false), forced = picks(true);
+      assert.ok(forced.quarters, "the forced search made its quarter bounds");
+      assert.ok(forced.opened < plain.opened, `opened ${forced.opened} of ${plain.opened} cells`);
+      assert.deepEqual(forced.out, plain.out, `seed ${seed}, ${w.shape}`);
+    }
+  }
+});
