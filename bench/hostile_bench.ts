@@ -11,9 +11,10 @@
  * 500 MB (refused from the header / while streaming); 200 MB of empty JSON
  * objects (refused before parsing); outlines of 2.9 million vertices (near
  * the limit: reported) and 4 million (refused); and the placement search's
- * worst case, a million figures spread evenly (under the counted limit).
+ * worst cases, a million figures spread evenly over 250 mm² (reported) and
+ * over 100 mm² (stopped at the search's work limit).
  * `--quick` leaves out the 200 MB files, the 2.9-million outline and the
- * evenly spread million.
+ * evenly spread millions.
  *
  * @module
  */
@@ -96,6 +97,38 @@ function multiPointFile(path: string, n: number): void {
       type: "FeatureCollection",
       slide: SLIDE,
       features: [tissue(2000), {
+        type: "Feature",
+        properties: { role: "figure" },
+        geometry: { type: "MultiPoint", coordinates: pts },
+      }],
+    }),
+  );
+}
+
+/** `n` figures spread evenly over a `sideUm` square (as one MultiPoint) on a larger square of tissue. */
+function evenSquareFile(path: string, n: number, sideUm: number): void {
+  if (existsSync(path)) return;
+  const rnd = lcg(n + 17);
+  const side = sideUm / SLIDE.mpp, cx = SLIDE.width / 2, cy = SLIDE.height / 2;
+  const pts: number[][] = [];
+  for (let i = 0; i < n; i++) {
+    pts.push([Math.round(cx - side / 2 + rnd() * side), Math.round(cy - side / 2 + rnd() * side)]);
+  }
+  const m = side / 2 + 4000;
+  const ring = [[cx - m, cy - m], [cx + m, cy - m], [cx + m, cy + m], [cx - m, cy + m], [
+    cx - m,
+    cy - m,
+  ]];
+  writeFileSync(
+    path,
+    JSON.stringify({
+      type: "FeatureCollection",
+      slide: SLIDE,
+      features: [{
+        type: "Feature",
+        properties: { role: "tissue" },
+        geometry: { type: "Polygon", coordinates: [ring] },
+      }, {
         type: "Feature",
         properties: { role: "figure" },
         geometry: { type: "MultiPoint", coordinates: pts },
@@ -293,11 +326,30 @@ export async function hostileBenchRows(ctx: HostileBenchContext): Promise<void> 
     "0",
   ]);
   add(
-    "report: 1 M figures spread evenly (about 930,000 counted)",
+    "report: 1 M figures spread evenly over 250 mm² (about 930,000 counted)",
     show(even),
-    "< 60 s, < 4 GB",
+    "exit 0, < 60 s, < 4 GB",
     even.code === 0 && within(even),
-    `${mb(mp1)}; the placement search's worst case, under the counted limit`,
+    `${mb(mp1)}; about 3,700 per mm², near the counted limit`,
+  );
+  const dense = join(dir, "even-1m-100mm2.geojson");
+  evenSquareFile(dense, 1_000_000, 10_000);
+  const rd = await timed(root, [
+    "report",
+    dense,
+    "--out",
+    join(dir, "out"),
+    "--format",
+    "json",
+    "--simulations",
+    "0",
+  ]);
+  add(
+    "report: 1 M figures spread evenly over 100 mm² (stopped: search work limit)",
+    show(rd),
+    "exit 1 with a message, < 60 s, < 4 GB",
+    rd.code === 1 && rd.message !== "" && within(rd),
+    `${mb(dense)}; 10,000 per mm²; ${rd.message.slice(0, 80)}`,
   );
   const o3 = join(dir, "outline-2.9m.geojson");
   outlineFile(o3, 2_900_000);
