@@ -23,10 +23,14 @@ export interface ProcessRun {
 
 /** How the caller runs a process and records a row. */
 export interface ScalingHooks {
-  runProcess(args: string[]): Promise<ProcessRun>;
+  /** Runs `program` (default: `deno run -A`) with `args`. */
+  runProcess(args: string[], program?: string[]): Promise<ProcessRun>;
   add(step: string, value: string, target: string, pass: boolean | null, note?: string): void;
   log(s: string): void;
 }
+
+/** Debian's Python, which has the peer's packages (a user's own Python may not). */
+const PEER_PYTHON = "/usr/bin/python3";
 
 function ms(v: number): string {
   return v >= 1000 ? `${(v / 1000).toFixed(2)} s` : `${v.toFixed(v < 10 ? 2 : 0)} ms`;
@@ -38,12 +42,13 @@ async function bestOf(
   repeats: number,
   args: string[],
   before?: () => void,
+  program?: string[],
 ): Promise<{ wall: number; rss: number | null; all: number[]; error?: string }> {
   const all: number[] = [];
   let rss: number | null = null;
   for (let k = 0; k < repeats; k++) {
     before?.();
-    const r = await hooks.runProcess(args);
+    const r = await hooks.runProcess(args, program);
     if (r.code !== 0) {
       const line = r.stderr.split("\n").find((l) => l.startsWith("Cannot") || l.includes("rror"));
       return { wall: NaN, rss: null, all, error: `exit ${r.code}: ${line ?? ""}` };
@@ -107,13 +112,32 @@ export async function scalingRows(
       } MB; best of ${repeats}`,
     );
   }
-  hooks.add(
-    "report ÷ vectorised-script peer",
-    "not available",
-    "≤ 0.5×",
-    null,
-    "no such script is in the repository, so there is nothing to run against",
-  );
+  // The vectorised-script peer (bench/peer/grid_peer.py) on the same file.
+  const peer = await bestOf(hooks, repeats, ["bench/peer/grid_peer.py", base.geojson], undefined, [
+    PEER_PYTHON,
+  ]);
+  if (peer.error || full.error) {
+    hooks.add(
+      "report ÷ vectorised-script peer",
+      "not available",
+      "≤ 0.5×",
+      null,
+      `${
+        peer.error ?? full.error
+      }; the peer needs Debian's python3-numpy, python3-shapely, python3-pil`,
+    );
+  } else {
+    const ratio = full.wall / peer.wall;
+    hooks.add(
+      "report (defaults) ÷ vectorised-script peer (grid parts only), whole processes",
+      `${ratio.toFixed(2)}×`,
+      "≤ 0.5×",
+      ratio <= 0.5,
+      `report ${ms(full.wall)}; peer ${ms(peer.wall)}, peak RSS ${
+        peer.rss?.toFixed(0) ?? "?"
+      } MB (NumPy, Shapely, Pillow: counts on the grid, coverage from a 5 µm raster, percentiles; no exact hotspot, top windows, best field set or scan test); best of ${repeats}`,
+    );
+  }
 
   // Figures: 250k, 1M, 3M.
   const sizes = quick ? [250_000, 1_000_000] : [250_000, 1_000_000, 3_000_000];

@@ -118,12 +118,13 @@ const GNU_TIME = "/usr/bin/time";
 
 async function runProcess(
   args: string[],
+  program: string[] = [Deno.execPath(), "run", "-A"],
 ): Promise<{ wallMs: number; rssMb: number | null; code: number; stderr: string }> {
   const useTime = existsSync(GNU_TIME);
-  const deno = Deno.execPath();
+  const all = [...program, ...args];
   const cmd = useTime
-    ? new Deno.Command(GNU_TIME, { args: ["-v", deno, "run", "-A", ...args], cwd: ROOT })
-    : new Deno.Command(deno, { args: ["run", "-A", ...args], cwd: ROOT });
+    ? new Deno.Command(GNU_TIME, { args: ["-v", ...all], cwd: ROOT })
+    : new Deno.Command(all[0], { args: all.slice(1), cwd: ROOT });
   const t = performance.now();
   const out = await cmd.output();
   const wallMs = performance.now() - t;
