@@ -80,8 +80,16 @@ export interface SearchState {
   budget: SearchBudget;
   /** Cells opened by every search on this state so far. */
   opened: number;
-  /** Quarter bounds are made once this many cells were opened (tests set 0). */
+  /**
+   * Quarter bounds are made once this many cells were opened and the
+   * searches spent `quartersWork` on this state: about what making them
+   * costs (a stamp of the figures on four times the cells), so they are
+   * made only where they can pay. Tests set both to 0.
+   */
   quartersAfter: number;
+  quartersWork: number;
+  /** `budget.spent` when this state was made. */
+  spentBefore: number;
   /** Count bounds of the quarters of each stride cell, once made (see {@linkcode cellTightBound}). */
   quarters: Int32Array | null;
 }
@@ -154,6 +162,8 @@ export function createSearch(
     rect: null,
     opened: 0,
     quartersAfter: QUARTERS_AFTER,
+    quartersWork: prepared.xUm.length + map.grid.nx * map.grid.ny,
+    spentBefore: budget.spent,
     quarters: null,
     budget,
   };
@@ -195,7 +205,7 @@ function fmtUm(v: number): string {
 /**
  * A bound of the count of any window centred in the stride cell of grid
  * centre k, at most `st.bound[k]`: once the searches on `st` have opened
- * many cells, the largest of the cell's four quarter bounds, each the grid
+ * many cells and done about as much work as the finer grid costs, the largest of the cell's four quarter bounds, each the grid
  * count of the window enlarged by half a stride at the quarter's centre (a
  * grid of half the stride, offset by a quarter). Their excess over the
  * counts is half the cell bound's. That matters when figures are spread
@@ -206,7 +216,9 @@ function fmtUm(v: number): string {
  */
 export function cellTightBound(st: SearchState, k: number): number {
   if (!st.quarters) {
-    if (st.opened < st.quartersAfter) return st.bound[k];
+    if (st.opened < st.quartersAfter || st.budget.spent - st.spentBefore < st.quartersWork) {
+      return st.bound[k];
+    }
     st.quarters = quarterBounds(st);
   }
   const nx = st.map.grid.nx, nq = 2 * nx, q = 2 * Math.floor(k / nx) * nq + 2 * (k % nx);

@@ -331,7 +331,7 @@ Deno.test("quarter bounds change no pick: evenly spread figures, rectangles and 
       const map = computeCountMap(p, w, { strideUm: 10, minCoverage: 0.9 });
       const picks = (forced: boolean) => {
         const st = createSearch(p, map);
-        if (forced) st.quartersAfter = 0;
+        if (forced) st.quartersAfter = st.quartersWork = 0;
         const out: Placement[] = [];
         let opened = 0;
         for (let i = 0; i < 4; i++) {
