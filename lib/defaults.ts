@@ -102,7 +102,7 @@ export const MAX_COUNTED_FIGURES = 1_000_000;
  * evenly and densely (no window stands out) can need far more, and are
  * stopped here with a message rather than left running for minutes.
  */
-export const MAX_SEARCH_WORK = 1_000_000_000;
+export const MAX_SEARCH_WORK = 750_000_000;
 
 /**
  * Farthest a position may lie from the slide origin, mm, along x or y (a

@@ -25,9 +25,10 @@ export const ADMIT_EPS = 1e-9;
 
 /**
  * Cells opened on one search state before quarter bounds are made (see
- * {@linkcode cellTightBound}): about where the finer grid starts to pay.
+ * {@linkcode cellTightBound}): clustered slides, even of a million
+ * figures, seldom open this many; evenly spread figures open far more.
  */
-const QUARTERS_AFTER = 1024;
+const QUARTERS_AFTER = 4096;
 
 /** Exact area queries on V (µm plane). */
 export interface AreaIndex {
@@ -162,7 +163,7 @@ export function createSearch(
     rect: null,
     opened: 0,
     quartersAfter: QUARTERS_AFTER,
-    quartersWork: prepared.xUm.length + map.grid.nx * map.grid.ny,
+    quartersWork: quarterStampCost(prepared.xUm.length, map.grid, e, isRect),
     spentBefore: budget.spent,
     quarters: null,
     budget,
@@ -212,18 +213,35 @@ function fmtUm(v: number): string {
  * evenly: then no window stands out, many cells have a bound above the
  * best count and far fewer have a quarter that does, so far fewer cells
  * are opened. Clustered figures seldom open enough cells to pay for the
- * finer grid (four times the cells; made once per state).
+ * finer grid (four times the cells; made once per state, its cost added
+ * to the budget).
  */
 export function cellTightBound(st: SearchState, k: number): number {
   if (!st.quarters) {
     if (st.opened < st.quartersAfter || st.budget.spent - st.spentBefore < st.quartersWork) {
       return st.bound[k];
     }
+    addWork(st, st.quartersWork);
     st.quarters = quarterBounds(st);
   }
   const nx = st.map.grid.nx, nq = 2 * nx, q = 2 * Math.floor(k / nx) * nq + 2 * (k % nx);
   const a = st.quarters;
   return Math.min(st.bound[k], Math.max(a[q], a[q + 1], a[q + nq], a[q + nq + 1]));
+}
+
+/**
+ * About what the quarter bounds cost, in figure tests: a rectangle stamp
+ * touches each figure once, a circle stamp once per row of the finer grid
+ * the disk spans; the grid itself is four times the cells.
+ */
+function quarterStampCost(
+  figures: number,
+  grid: { nx: number; ny: number; strideUm: number },
+  e: WindowExtents,
+  isRect: boolean,
+): number {
+  const rows = isRect ? 1 : (4 * e.halfY) / grid.strideUm;
+  return figures * rows + 4 * grid.nx * grid.ny;
 }
 
 /** The quarter bounds: a stamp of the window enlarged as createSearch does, for half the stride. */

@@ -63,7 +63,7 @@ export interface ReportOptions {
   maxGridCells?: number;
   /**
    * Work limit of the case's exact placement searches, in figure tests (see
-   * `SearchBudget`); past it they throw `SearchWorkError`. @default 1_000_000_000
+   * `SearchBudget`); past it they throw `SearchWorkError`. @default 750_000_000
    */
   maxSearchWork?: number;
   /**
