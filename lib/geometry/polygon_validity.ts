@@ -35,6 +35,7 @@
 
 import type { MultiPolygonPx, PolygonPx, Ring, Vec2 } from "../types.ts";
 import { findContacts, tagEdges, type TaggedEdges } from "./_contacts.ts";
+import { markProvenValid } from "./proven_outlines.ts";
 import { bandOf, buildBands } from "./_edges.ts";
 import { turfUnion } from "./_turf.ts";
 import { badVertexTouches, isVertexContact } from "./_vertex_touches.ts";
@@ -143,7 +144,11 @@ export function checkOutline(polygons: MultiPolygonPx): CheckedOutline {
   const t = tagEdges(polys, groups);
   const problems = crossingProblems(t, refs);
   if (problems.length === 0) problems.push(...nestingProblems(t, polys, refs));
-  if (problems.length === 0) return valid;
+  if (problems.length === 0) {
+    // The valid region need not search these edges again.
+    markProvenValid(polygons);
+    return valid;
+  }
   const repaired = turfUnion([polys]);
   return { polygons: repaired, problems, drawnAreaPx2, areaPx2: multiPolygonAreaPx2(repaired) };
 }

@@ -8,6 +8,7 @@ import type { MultiPolygonPx, PolygonPx, RegionPart } from "../types.ts";
 import { inputError } from "../errors.ts";
 import { bandOf, buildBands, type EdgeBands } from "./_edges.ts";
 import { findContacts, tagEdges, type TaggedEdges } from "./_contacts.ts";
+import { isProvenValid } from "./proven_outlines.ts";
 import { badVertexTouches, isVertexContact } from "./_vertex_touches.ts";
 import { bboxOf, boxesMeet } from "./_ring_sets.ts";
 import { intersectRegions, subtractRegions, unionRegions } from "./_pair_ops.ts";
@@ -111,6 +112,8 @@ function unionRole(parts: RegionPart[], role: string, warnings: string[]): Multi
     }
   });
   if (polys.length === 0) return [];
+  // One part whose outline the reader already proved valid is kept as it is.
+  if (parts.length === 1 && isProvenValid(parts[0].polygons)) return polys;
   const tagged = tagEdges(polys, groups);
   const contacts = findContacts(tagged, "all", false);
   // polygons that only touch at shared vertices (as traced masks do) need no union

@@ -14,6 +14,9 @@ import {
   starRing,
   toJsts,
 } from "./_shapes.ts";
+import { checkOutline } from "../../lib/geometry/polygon_validity.ts";
+import { isProvenValid } from "../../lib/geometry/proven_outlines.ts";
+import { ENGINE_CASES, engineCase } from "../count/_engine_cases.ts";
 
 const rect = (x0: number, y0: number, x1: number, y1: number): Ring => [
   [x0, y0],
@@ -437,4 +440,27 @@ Deno.test("buildValidRegion() does not depend on the order of the parts", () => 
   assert.ok(relErr(a.validAreaPx2, b.validAreaPx2) < 1e-9);
   assert.ok(relErr(a.tissueAreaPx2, b.tissueAreaPx2) < 1e-9);
   assert.ok(relErr(a.excludedAreaPx2, b.excludedAreaPx2) < 1e-9);
+});
+
+Deno.test("an outline the reader proved valid gives the same valid region without a second contact search", () => {
+  // The sixty seeded engine cases (outlines with holes, a second tissue part,
+  // tumour and exclusions): each role's parts proven by checkOutline, as the
+  // reader does, must give exactly the region built from unproven copies.
+  let shortcuts = 0;
+  for (let c = 0; c < ENGINE_CASES; c++) {
+    const { caseData } = engineCase(c);
+    const copy = structuredClone({
+      tissue: caseData.tissue,
+      tumour: caseData.tumour,
+      exclude: caseData.exclude,
+    });
+    for (const part of [...caseData.tissue, ...caseData.tumour, ...caseData.exclude]) {
+      if (checkOutline(part.polygons).problems.length === 0) {
+        assert.ok(isProvenValid(part.polygons));
+        shortcuts++;
+      }
+    }
+    assert.deepEqual(buildValidRegion(caseData), buildValidRegion(copy), `case ${c}`);
+  }
+  assert.ok(shortcuts > 60, `${shortcuts} outlines proven`);
 });
