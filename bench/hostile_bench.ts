@@ -243,6 +243,18 @@ export async function hostileBenchRows(ctx: HostileBenchContext): Promise<void> 
   mkdirSync(dir, { recursive: true });
   const within = (r: { wallMs: number; rssMb: number | null }) =>
     r.wallMs < 60_000 && (r.rssMb === null || r.rssMb < 4096);
+  // A report with JSON output only and no scan test: the rows time the reading and the searches.
+  const reportJson = (path: string) =>
+    timed(root, [
+      "report",
+      path,
+      "--out",
+      join(dir, "out"),
+      "--format",
+      "json",
+      "--simulations",
+      "0",
+    ]);
   const show = (r: { wallMs: number; rssMb: number | null }) =>
     `${(r.wallMs / 1000).toFixed(2)} s${r.rssMb === null ? "" : `, ${Math.round(r.rssMb)} MB`}`;
 
@@ -315,16 +327,7 @@ export async function hostileBenchRows(ctx: HostileBenchContext): Promise<void> 
   if (quick) return;
   // The placement search's worst case: counted figures spread evenly (no
   // window stands out, so few cells can be passed over), near the counted limit.
-  const even = await timed(root, [
-    "report",
-    mp1,
-    "--out",
-    join(dir, "out"),
-    "--format",
-    "json",
-    "--simulations",
-    "0",
-  ]);
+  const even = await reportJson(mp1);
   add(
     "report: 1 M figures spread evenly over 250 mm² (about 930,000 counted)",
     show(even),
@@ -334,16 +337,7 @@ export async function hostileBenchRows(ctx: HostileBenchContext): Promise<void> 
   );
   const dense = join(dir, "even-1m-100mm2.geojson");
   evenSquareFile(dense, 1_000_000, 10_000);
-  const rd = await timed(root, [
-    "report",
-    dense,
-    "--out",
-    join(dir, "out"),
-    "--format",
-    "json",
-    "--simulations",
-    "0",
-  ]);
+  const rd = await reportJson(dense);
   add(
     "report: 1 M figures spread evenly over 100 mm² (stopped: search work limit)",
     show(rd),
@@ -353,16 +347,7 @@ export async function hostileBenchRows(ctx: HostileBenchContext): Promise<void> 
   );
   const o3 = join(dir, "outline-2.9m.geojson");
   outlineFile(o3, 2_900_000);
-  const r3 = await timed(root, [
-    "report",
-    o3,
-    "--out",
-    join(dir, "out"),
-    "--format",
-    "json",
-    "--simulations",
-    "0",
-  ]);
+  const r3 = await reportJson(o3);
   add(
     "report: outline of 2.9 M vertices (near the limit)",
     show(r3),

@@ -9,14 +9,19 @@ import { SearchWorkError } from "../../lib/errors.ts";
 import type { CaseData } from "../../lib/types.ts";
 import { seededRandom } from "../../lib/random.ts";
 
-Deno.test("buildCaseResult() refuses a case with more counted figures than the limit", () => {
-  const n = MAX_COUNTED_FIGURES + 1;
-  const rnd = seededRandom(72);
+/** `n` figures spread evenly over a 5 × 5 mm square of tissue (no window stands out). */
+function evenCase(
+  n: number,
+  caseId: string,
+  seed: number,
+  from: { kind: "annotations" | "figures"; path: string },
+): CaseData {
+  const rnd = seededRandom(seed);
   const xPx = new Float64Array(n), yPx = new Float64Array(n);
   for (let i = 0; i < n; i++) xPx[i] = 100 + 9800 * rnd(), yPx[i] = 100 + 9800 * rnd();
-  const caseData: CaseData = {
-    caseId: "QVT-24-073",
-    slide: { id: "QVT-24-073", mppX: 0.5, mppY: 0.5 },
+  return {
+    caseId,
+    slide: { id: caseId, mppX: 0.5, mppY: 0.5 },
     tissue: [{
       polygons: [[[[0, 0], [10000, 0], [10000, 10000], [0, 10000], [0, 0]]]],
       source: "t",
@@ -32,9 +37,16 @@ Deno.test("buildCaseResult() refuses a case with more counted figures than the l
       origin: new Int32Array(n),
     },
     fields: [],
-    sources: [{ kind: "annotations", path: "QVT-24-073.geojson", sha256: "0".repeat(64) }],
+    sources: [{ ...from, sha256: "0".repeat(64) }],
     warnings: [],
   };
+}
+
+Deno.test("buildCaseResult() refuses a case with more counted figures than the limit", () => {
+  const caseData = evenCase(MAX_COUNTED_FIGURES + 1, "QVT-24-073", 72, {
+    kind: "annotations",
+    path: "QVT-24-073.geojson",
+  });
   assert.throws(
     () => buildCaseResult(caseData, {}),
     (e: Error) =>
@@ -44,36 +56,8 @@ Deno.test("buildCaseResult() refuses a case with more counted figures than the l
   );
 });
 
-/** Figures spread evenly over a 5 × 5 mm square (no window stands out). */
-function evenCase(n: number): CaseData {
-  const rnd = seededRandom(74);
-  const xPx = new Float64Array(n), yPx = new Float64Array(n);
-  for (let i = 0; i < n; i++) xPx[i] = 100 + 9800 * rnd(), yPx[i] = 100 + 9800 * rnd();
-  return {
-    caseId: "QVT-24-074",
-    slide: { id: "QVT-24-074", mppX: 0.5, mppY: 0.5 },
-    tissue: [{
-      polygons: [[[[0, 0], [10000, 0], [10000, 10000], [0, 10000], [0, 0]]]],
-      source: "t",
-    }],
-    tumour: [],
-    exclude: [],
-    figures: {
-      xPx,
-      yPx,
-      labelIndex: new Uint32Array(n),
-      labels: ["mitotic figure"],
-      score: new Float64Array(n).fill(NaN),
-      origin: new Int32Array(n),
-    },
-    fields: [],
-    sources: [{ kind: "figures", path: "QVT-24-074.csv", sha256: "0".repeat(64) }],
-    warnings: [],
-  };
-}
-
 Deno.test("a placement search past its work limit stops with a message naming the case, file and step", () => {
-  const caseData = evenCase(4000);
+  const caseData = evenCase(4000, "QVT-24-074", 74, { kind: "figures", path: "QVT-24-074.csv" });
   assert.throws(
     () => buildCaseResult(caseData, { maxSearchWork: 1000, simulations: 0 }),
     (e: Error) =>
