@@ -13,6 +13,8 @@ import { makeWindow } from "../count/make_window.ts";
 import { computeCountMap } from "../count/compute_count_map.ts";
 import { DEFAULT_MIN_COVERAGE, DEFAULT_STRIDE_UM } from "../defaults.ts";
 import { findHotspot } from "../count/find_hotspot.ts";
+import { newSearchBudget } from "../count/placement_search.ts";
+import { SearchWorkError } from "../errors.ts";
 import { stampWindowCounts } from "../count/stamp_window_counts.ts";
 import { summarizeDistribution } from "../count/summarize_distribution.ts";
 import { countInWindow } from "../count/window_contains.ts";
@@ -67,6 +69,12 @@ export interface CompareOptions {
   minCoverage?: number;
   /** Grid size limit (cells). @default 25_000_000 */
   maxGridCells?: number;
+  /**
+   * Work limit of all the comparison's hotspot searches together (the
+   * reference's and one per distinct candidate set), in figure tests (see
+   * `SearchBudget`). @default 750_000_000
+   */
+  maxSearchWork?: number;
   /** Case id of the comparison. @default the reference's case id */
   caseId?: string;
   /** Recorded in the output: the pair was declared the same slide despite differing ids or mpp. @default false */
@@ -154,6 +162,8 @@ const CLASS_DEFINITION = "Classes of the hotspot against the scheme's primary cu
  * @param options Radius, matching, threshold, scheme, window and grid.
  * @returns `comparison.json` and what the pages draw.
  * @throws {RangeError} For options out of range or an unknown scheme id.
+ * @throws {SearchWorkError} When the hotspot searches together pass their
+ *   work limit (candidates spread so evenly and densely that no window stands out).
  *
  * @example A detector that finds two of three figures and adds one
  * ```ts
@@ -274,7 +284,26 @@ export function compareCase(
     maxGridCells: options.maxGridCells,
   });
   const overlap = createOverlapIndex(prepared.validUm);
-  const refHotspot = findHotspot(prepared, refMap, { overlap });
+  // One budget for every search of the comparison, so many thresholds cannot add up to hours.
+  const budget = newSearchBudget(options.maxSearchWork);
+  const caseName = options.caseId ?? reference.caseId;
+  const hotspotOf = (
+    p: Pick<PreparedCase, "xUm" | "yUm" | "slide" | "validUm">,
+    map: CountMap,
+    what: string,
+  ): Placement | null => {
+    try {
+      return findHotspot(p, map, { overlap, budget });
+    } catch (e) {
+      if (!(e instanceof SearchWorkError)) throw e;
+      const m = e.message;
+      throw new SearchWorkError(
+        `Cannot compare case "${caseName}": ${what}: ${m.charAt(0).toLowerCase()}${m.slice(1)}`,
+        { cause: e },
+      );
+    }
+  };
+  const refHotspot = hotspotOf(prepared, refMap, "the reference's hotspot");
   const refGrade = scheme ? classify(refMap, refHotspot, window, scheme) : null;
 
   // 5. Candidates in rank order; the first k are those at or above a threshold.
@@ -301,10 +330,10 @@ export function compareCase(
     if (r) return r;
     const xs = sx.subarray(0, k), ys = sy.subarray(0, k);
     const map: CountMap = { ...refMap, counts: stampWindowCounts(xs, ys, window, refMap.grid) };
-    const hotspot = findHotspot(
+    const hotspot = hotspotOf(
       { xUm: xs, yUm: ys, slide: prepared.slide, validUm: prepared.validUm },
       map,
-      { overlap },
+      `the hotspot of the ${k.toLocaleString("en-US")} best-scored candidates`,
     );
     const g = scheme ? classify(map, hotspot, window, scheme) : null;
     r = { hotspot, class: g?.class ?? null, tier: g?.tier ?? null };

@@ -147,3 +147,27 @@ Deno.test("compareCase() with unequal mpp measures distances in µm", () => {
   assertEquals([r.json.detection.tp, r.json.detection.fp, r.json.detection.fn], [1, 1, 1]);
   assertEquals(Array.from(r.matching.refOfCandidate), [-1, 1]);
 });
+
+Deno.test("compareCase(): the hotspot searches share one work limit and stop with a message naming the case", () => {
+  // A tiny limit stands in for candidates spread too evenly to search (the
+  // default limit and what passes it are in test/pipeline/count_limits_test.ts).
+  let message = "";
+  try {
+    compareCase(reference, { figures: plantedCandidates() }, { strideUm: 50, maxSearchWork: 100 });
+  } catch (e) {
+    assertEquals((e as Error).name, "SearchWorkError");
+    message = (e as Error).message;
+  }
+  assertEquals(
+    message.startsWith(
+      `Cannot compare case "${reference.caseId}": the reference's hotspot: the exact search for the best placement of`,
+    ),
+    true,
+  );
+  // The same comparison within the default limit completes.
+  assertEquals(
+    compareCase(reference, { figures: plantedCandidates() }, { strideUm: 50 }).json.hotspot
+      .reference?.count,
+    20,
+  );
+});
