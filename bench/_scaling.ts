@@ -135,7 +135,7 @@ export async function scalingRows(
       ratio <= 0.5,
       `report ${ms(full.wall)}; peer ${ms(peer.wall)}, peak RSS ${
         peer.rss?.toFixed(0) ?? "?"
-      } MB (NumPy, Shapely, Pillow: counts on the grid, coverage from a 5 µm raster, percentiles; no exact hotspot, top windows, best field set or scan test); best of ${repeats}`,
+      } MB (Python array, geometry and imaging packages: counts on the grid, coverage from a 5 µm raster, percentiles; no exact hotspot, top windows, best field set or scan test); best of ${repeats}`,
     );
   }
 

@@ -1,7 +1,7 @@
 #!/usr/bin/python3
 """A vectorised scientific-Python peer for `deno task bench`: the grid parts
-of a report, written the way an analyst would with NumPy, Shapely and
-Pillow, to time hotfield's whole report against.
+of a report, written the way an analyst would with Python's array, planar-geometry
+and imaging packages, to time hotfield's whole report against.
 
     /usr/bin/python3 bench/peer/grid_peer.py SLIDE.geojson [--stride-um 25]
 
