@@ -7,6 +7,7 @@
 
 import type { Placement } from "./engine_types.ts";
 import { circleCellFigures } from "./_circle_cell.ts";
+import { heapPop, heapPush } from "./_heap.ts";
 import {
   addWork,
   ADMIT_EPS,
@@ -117,34 +118,11 @@ function before(a: Item, b: Item): boolean {
 }
 
 function push(heap: Item[], it: Item): void {
-  let i = heap.length;
-  heap.push(it);
-  while (i > 0) {
-    const p = (i - 1) >> 1;
-    if (!before(it, heap[p])) break;
-    heap[i] = heap[p];
-    i = p;
-  }
-  heap[i] = it;
+  heapPush(heap, it, before);
 }
 
 function pop(heap: Item[]): Item {
-  const top = heap[0];
-  const last = heap.pop()!;
-  const n = heap.length;
-  if (n > 0) {
-    let i = 0;
-    for (;;) {
-      const l = 2 * i + 1;
-      if (l >= n) break;
-      const c = l + 1 < n && before(heap[l + 1], heap[l]) ? l + 1 : l;
-      if (!before(heap[c], last)) break;
-      heap[i] = heap[c];
-      i = c;
-    }
-    heap[i] = last;
-  }
-  return top;
+  return heapPop(heap, before);
 }
 
 /** Re-queues a list item at its next candidate, if any. */

@@ -7,6 +7,7 @@
 
 import type { Placement } from "./engine_types.ts";
 import { pointsInBox } from "./_figure_buckets.ts";
+import { heapPop, heapPush } from "./_heap.ts";
 import {
   addWork,
   type Candidate,
@@ -295,33 +296,11 @@ export class RectCell {
   }
 
   #push(it: Item): void {
-    const heap = this.#heap;
-    let i = heap.length;
-    heap.push(it);
-    while (i > 0) {
-      const p = (i - 1) >> 1;
-      if (!before(it, heap[p])) break;
-      heap[i] = heap[p];
-      i = p;
-    }
-    heap[i] = it;
+    heapPush(this.#heap, it, before);
   }
 
   #pop(): void {
-    const heap = this.#heap;
-    const last = heap.pop()!;
-    const n = heap.length;
-    if (n === 0) return;
-    let i = 0;
-    for (;;) {
-      const l = 2 * i + 1;
-      if (l >= n) break;
-      const c = l + 1 < n && before(heap[l + 1], heap[l]) ? l + 1 : l;
-      if (!before(heap[c], last)) break;
-      heap[i] = heap[c];
-      i = c;
-    }
-    heap[i] = last;
+    heapPop(this.#heap, before);
   }
 }
 
